@@ -1,0 +1,270 @@
+import { simpleBounds } from './bounds'
+import type { MasterLp } from './column-generation'
+import { solveMasterLp } from './column-generation'
+import { greedyPlan } from './ffd'
+import { loadHighs } from './highs-loader'
+import type { CuttingProblem, PatternSolution } from './problem'
+import { buildProblem, solutionCost, solutionOffcuts } from './problem'
+import { enumeratePatterns, roundLp, solvePatternMip, weightedCost } from './rounding'
+import { NestingInputError } from './types'
+import type {
+  NestBounds,
+  NestCut,
+  NestInput,
+  NestOptions,
+  NestPattern,
+  NestPlan,
+  NestStick,
+  NestStickSource,
+  NestStockUse,
+} from './types'
+
+const DEFAULT_TIME_LIMIT_MS = 10_000
+/** Most patterns listed per enumeration; past it the MIP runs as a heuristic over what was found. */
+const ENUMERATION_LIMIT = 40_000
+
+function gcd(a: number, b: number): number {
+  while (b) [a, b] = [b, a % b]
+  return a
+}
+
+/** Internal result of the search, before it is laid out as sticks. */
+interface Search {
+  solution: PatternSolution
+  /** Proven lower bound on stock cost (input units). */
+  costBound: number
+  lp: MasterLp | null
+  /** Divisor that turned stock costs into the LP's whole-number costs. */
+  scale: number
+  timedOut: boolean
+}
+
+/**
+ * Lexicographic plan order: stock cost, then more offcuts used, then fewer distinct patterns.
+ * (The longest remnant, the last tie-break, is settled inside a plan by `normalizeSolution`, which
+ * takes any extra pieces from the emptiest sticks.)
+ */
+function better(problem: CuttingProblem, a: PatternSolution, b: PatternSolution | null): boolean {
+  if (!b) return true
+  const ca = solutionCost(problem, a)
+  const cb = solutionCost(problem, b)
+  if (ca !== cb) return ca < cb
+  const oa = solutionOffcuts(problem, a)
+  const ob = solutionOffcuts(problem, b)
+  if (oa !== ob) return oa > ob
+  return a.uses.length < b.uses.length
+}
+
+async function search(problem: CuttingProblem, options: NestOptions, deadline: number): Promise<Search> {
+  const sb = simpleBounds(problem)
+  const candidates = [greedyPlan(problem, undefined, undefined, true), greedyPlan(problem)]
+  let incumbent: PatternSolution | null = null
+  for (const c of candidates) if (c && better(problem, c, incumbent)) incumbent = c
+  if (!incumbent) {
+    throw new NestingInputError('stock', 'Not enough stock to cut every piece: add sticks or mark a stock option unlimited.')
+  }
+  if (options.method === 'ffd') {
+    const ffd = candidates[0] ?? incumbent
+    return { solution: ffd, costBound: sb.cost, lp: null, scale: 1, timedOut: false }
+  }
+  if (solutionCost(problem, incumbent) <= sb.cost && problem.bins.every((b) => b.kind === 'stock')) {
+    return { solution: incumbent, costBound: sb.cost, lp: null, scale: 1, timedOut: false }
+  }
+
+  // Costs scaled by their greatest common divisor, so every plan costs a whole number; each offcut
+  // used earns a bonus below one unit in total, which makes "offcuts first" the next tie-break.
+  let g = 0
+  for (const b of problem.bins) if (b.kind === 'stock') g = gcd(g, b.cost)
+  if (g === 0) g = 1
+  const offcutCount = problem.bins.reduce((s, b) => s + (b.kind === 'offcut' ? b.available : 0), 0)
+  const bonus = offcutCount > 0 ? 0.5 / (offcutCount + 1) : 0
+  const costs = problem.bins.map((b) => (b.kind === 'offcut' ? -bonus : b.cost / g))
+  const scaledCost = (s: PatternSolution): number => solutionCost(problem, s) / g
+  let lowerBound = Math.ceil(sb.cost / g - 1e-9)
+
+  let highs
+  try {
+    highs = await loadHighs()
+  } catch {
+    // Without the solver the greedy plan is still a valid plan.
+    return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false }
+  }
+  const lp = solveMasterLp(highs, problem, costs, incumbent.uses.map((u) => u.pattern), deadline)
+  if (lp.converged) lowerBound = Math.max(lowerBound, Math.ceil(lp.dualBound - 1e-6))
+  const rounded = roundLp(problem, lp, costs)
+  if (rounded && better(problem, rounded, incumbent)) incumbent = rounded
+
+  const single = problem.bins.length === 1 ? problem.bins[0] : undefined
+  const totalWeight = problem.items.reduce((s, it) => s + it.weight * it.demand, 0)
+  let timedOut = false
+  // Hunt for a plan at the lower bound; when the search over a complete enumeration proves there is
+  // none, the bound rises by one and the hunt repeats.
+  while (lp.converged && (scaledCost(incumbent) > lowerBound || offcutCount > 0)) {
+    if (Date.now() > deadline) {
+      timedOut = true
+      break
+    }
+    const target = scaledCost(incumbent) > lowerBound ? lowerBound : scaledCost(incumbent)
+    const gap = target - lp.dualBound
+    const wasteLimit = problem.bins.map(() => Infinity)
+    if (single && single.available === Infinity && (costs[0] ?? 0) > 0) {
+      wasteLimit[0] = Math.floor(target / (costs[0] ?? 1) + 1e-9) * single.capacity - totalWeight
+    }
+    const en = enumeratePatterns(problem, lp, costs, gap, wasteLimit, ENUMERATION_LIMIT, deadline)
+    const pool = en.complete ? en.patterns : [...lp.pool, ...en.patterns]
+    const mip = solvePatternMip(highs, problem, costs, pool, incumbent, deadline)
+    if (mip.solution && better(problem, mip.solution, incumbent)) incumbent = mip.solution
+    if (!en.complete || !mip.optimal) {
+      timedOut = Date.now() > deadline
+      break
+    }
+    if (scaledCost(incumbent) <= target) break
+    // Complete enumeration, proven MIP optimum above the target: no plan costs `target`.
+    lowerBound = target + 1
+  }
+  return { solution: incumbent, costBound: lowerBound * g, lp, scale: g, timedOut }
+}
+
+/**
+ * Plans a cut run: which sticks and offcuts to cut, and how.
+ *
+ * Method: greedy plans (first fit and best fit, longest pieces first) give a first plan and are
+ * kept when they meet a lower bound (tiny and easy runs end here). Otherwise column generation
+ * (Gilmore & Gomory 1961) solves the LP relaxation with HiGHS, pricing by bounded knapsack; the LP
+ * is rounded with a residual greedy; then every pattern that could still appear in a cheaper plan
+ * is listed by reduced cost and a HiGHS MIP over them finds the best plan, raising the bound when
+ * it proves none cheaper exists.
+ *
+ * Objective, in order: least stock cost; more existing offcuts used; fewer distinct patterns; the
+ * longest remnant. Cost is always optimised; the tie-breaks are honoured among the plans found.
+ *
+ * @param input pieces, stock options, offcuts, kerf, trim, minimum offcut, piece limit
+ * @param options time limit (default 10 s) and method
+ * @returns the plan; when the time limit is reached, the best plan found so far
+ * @throws NestingInputError when the input is invalid or the stock cannot hold the pieces
+ */
+export async function nest(input: NestInput, options: NestOptions = {}): Promise<NestPlan> {
+  const started = Date.now()
+  const problem = buildProblem(input)
+  const limit = options.timeLimitMs ?? DEFAULT_TIME_LIMIT_MS
+  if (!(limit > 0)) throw new NestingInputError('timeLimitMs', 'The time limit must be a positive number of milliseconds.')
+  const found = await search(problem, options, started + limit)
+  return layOut(input, problem, found, (Date.now() - started) / 1000)
+}
+
+function layOut(input: NestInput, problem: CuttingProblem, found: Search, seconds: number): NestPlan {
+  const kerf = problem.kerf
+  // Queues of input pieces per length, so each cut carries its references.
+  const queues = new Map<number, number[]>()
+  input.pieces.forEach((p, idx) => {
+    const q = queues.get(p.length) ?? []
+    for (let k = 0; k < p.quantity; k++) q.push(idx)
+    queues.set(p.length, q)
+  })
+  const offcutIds = problem.bins.map((b) => [...b.offcutIds])
+  const uses = [...found.solution.uses].sort((a, b) => {
+    const ba = problem.bins[a.pattern.bin]
+    const bb = problem.bins[b.pattern.bin]
+    if (ba?.kind !== bb?.kind) return ba?.kind === 'offcut' ? -1 : 1
+    return (ba?.stockIndex ?? 0) - (bb?.stockIndex ?? 0) || b.count - a.count || (bb?.length ?? 0) - (ba?.length ?? 0)
+  })
+  const sticks: NestStick[] = []
+  const patterns: NestPattern[] = []
+  for (const use of uses) {
+    const bin = problem.bins[use.pattern.bin]
+    if (!bin) continue
+    const lengths: number[] = []
+    use.pattern.counts.forEach((c, i) => {
+      const it = problem.items[i]
+      if (it) for (let k = 0; k < c; k++) lengths.push(it.length)
+    })
+    lengths.sort((a, b) => b - a)
+    const pieceSum = lengths.reduce((s, x) => s + x, 0)
+    const remnant = Math.max(0, bin.length - bin.trim - pieceSum - kerf * lengths.length)
+    const kerfLoss = bin.length - bin.trim - pieceSum - remnant
+    const remnantIsOffcut = input.minOffcutLength !== undefined && remnant >= input.minOffcutLength
+    const stockId = bin.kind === 'stock' ? input.stock[bin.stockIndex]?.id : undefined
+    const stockSource: NestStickSource =
+      stockId === undefined ? { kind: 'stock', stockIndex: bin.stockIndex } : { kind: 'stock', stockIndex: bin.stockIndex, stockId }
+    const makeStick = (source: NestStickSource, patternIndex: number): NestStick => {
+      let offset = bin.trim
+      const cuts: NestCut[] = lengths.map((len) => {
+        const pieceIndex = queues.get(len)?.shift()
+        if (pieceIndex === undefined) throw new Error('nesting: a plan cuts more pieces than ordered')
+        const piece = input.pieces[pieceIndex]
+        const cut: NestCut = { length: len, offset, pieceIndex }
+        if (piece?.workOrderRef !== undefined) cut.workOrderRef = piece.workOrderRef
+        if (piece?.cutPartRef !== undefined) cut.cutPartRef = piece.cutPartRef
+        offset += len + kerf
+        return cut
+      })
+      return { source, length: bin.length, trim: bin.trim, cuts, kerfLoss, remnant, remnantIsOffcut, patternIndex }
+    }
+    if (bin.kind === 'stock') {
+      const patternIndex = patterns.length
+      patterns.push({ source: stockSource, length: bin.length, cuts: lengths, count: use.count, remnant, remnantIsOffcut })
+      for (let k = 0; k < use.count; k++) sticks.push(makeStick(stockSource, patternIndex))
+    } else {
+      for (let k = 0; k < use.count; k++) {
+        const id = offcutIds[use.pattern.bin]?.shift()
+        if (id === undefined) throw new Error('nesting: more offcuts used than exist')
+        const source: NestStickSource = { kind: 'offcut', offcutId: id }
+        const patternIndex = patterns.length
+        patterns.push({ source, length: bin.length, cuts: lengths, count: 1, remnant, remnantIsOffcut })
+        sticks.push(makeStick(source, patternIndex))
+      }
+    }
+  }
+  for (const [len, q] of queues) if (q.length > 0) throw new Error(`nesting: ${q.length} piece(s) of ${len} left uncut`)
+
+  const stockUse: NestStockUse[] = input.stock.map((s, i) => {
+    const count = sticks.filter((t) => t.source.kind === 'stock' && t.source.stockIndex === i).length
+    const use: NestStockUse = { stockIndex: i, length: s.length, count, cost: count * (s.cost ?? s.length) }
+    if (s.id !== undefined) use.stockId = s.id
+    return use
+  })
+  const stockCost = stockUse.reduce((s, u) => s + u.cost, 0)
+  const lengthUsed = sticks.reduce((s, t) => s + t.length, 0)
+  const pieceLength = sticks.reduce((s, t) => s + t.cuts.reduce((a, c) => a + c.length, 0), 0)
+  const kerfLoss = sticks.reduce((s, t) => s + t.kerfLoss, 0)
+  const trimLoss = sticks.reduce((s, t) => s + t.trim, 0)
+  const offcutLength = sticks.reduce((s, t) => s + (t.remnantIsOffcut ? t.remnant : 0), 0)
+  const scrapLength = sticks.reduce((s, t) => s + (t.remnantIsOffcut ? 0 : t.remnant), 0)
+  const waste = kerfLoss + trimLoss + scrapLength
+  const sb = simpleBounds(problem)
+  const single = problem.bins.length === 1 ? problem.bins[0] : undefined
+  let stickBound = Math.max(sb.continuousSticks, sb.martelloTothSticks)
+  if (single && single.cost > 0) stickBound = Math.max(stickBound, Math.ceil(found.costBound / single.cost - 1e-9))
+  const lpCost = found.lp?.converged ? found.lp.dualBound * found.scale : null
+  const bounds: NestBounds = {
+    continuousSticks: sb.continuousSticks,
+    martelloTothSticks: sb.martelloTothSticks,
+    lpCost,
+    cost: found.costBound,
+    sticks: stickBound,
+  }
+  const proven = stockCost <= found.costBound
+  return {
+    status: proven ? 'optimal' : found.timedOut ? 'time-limit' : 'feasible',
+    sticks,
+    patterns,
+    totals: {
+      stock: stockUse,
+      stockCost,
+      sticksUsed: sticks.length,
+      offcutsUsed: sticks.filter((t) => t.source.kind === 'offcut').length,
+      offcutsMade: sticks.filter((t) => t.remnantIsOffcut).length,
+      lengthUsed,
+      pieceLength,
+      kerfLoss,
+      trimLoss,
+      offcutLength,
+      scrapLength,
+      waste,
+      wastePercent: lengthUsed > 0 ? (waste / lengthUsed) * 100 : 0,
+    },
+    bounds,
+    gap: stockCost > 0 && !proven ? (stockCost - found.costBound) / stockCost : 0,
+    seconds,
+  }
+}
