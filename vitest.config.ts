@@ -10,6 +10,7 @@ export default defineConfig({
           name: 'unit',
           include: ['shared/src/**/*.test.ts', 'server/src/**/*.test.ts', 'client/src/**/*.test.{ts,tsx}'],
           environment: 'node',
+          setupFiles: ['tests/setup/per-file.ts'],
         },
       },
       {
@@ -30,6 +31,7 @@ export default defineConfig({
           testTimeout: 60_000,
           hookTimeout: 120_000,
           fileParallelism: false,
+          setupFiles: ['tests/setup/per-file.ts'],
         },
       },
     ],

@@ -1,0 +1,23 @@
+import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
+import type { ReactNode } from 'react'
+import { Toaster } from 'sonner'
+import { ApiError } from '../lib/api-client'
+
+export const queryClient = new QueryClient({
+  defaultOptions: {
+    queries: {
+      // A 4xx will not fix itself by asking again.
+      retry: (count, err) => !(err instanceof ApiError && err.status < 500) && count < 2,
+      refetchOnWindowFocus: false,
+    },
+  },
+})
+
+export function AppProvider({ children }: { children: ReactNode }) {
+  return (
+    <QueryClientProvider client={queryClient}>
+      {children}
+      <Toaster position="top-center" richColors closeButton toastOptions={{ className: 'text-base' }} />
+    </QueryClientProvider>
+  )
+}

@@ -1,0 +1,33 @@
+import { createBrowserRouter } from 'react-router-dom'
+import { paths } from '../config/paths'
+import { requireRole, requireUser } from './auth-guard'
+import { AppShell } from './routes/app-shell'
+import { RouteErrorBoundary } from './routes/error-boundary'
+import { NotFoundPage } from './routes/not-found'
+
+export const router = createBrowserRouter([
+  {
+    path: paths.signIn.pattern,
+    lazy: () => import('./routes/sign-in'),
+    errorElement: <RouteErrorBoundary />,
+  },
+  {
+    path: '/',
+    element: <AppShell />,
+    errorElement: <RouteErrorBoundary />,
+    loader: ({ request }) => requireUser(request),
+    children: [
+      {
+        errorElement: <RouteErrorBoundary />,
+        children: [
+          { index: true, lazy: () => import('./routes/home'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+          { path: paths.users.pattern, lazy: () => import('./routes/admin/users'), loader: ({ request }) => requireRole(request, ['admin']) },
+          { path: paths.cutBench.pattern, lazy: () => import('./routes/bench/cut'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'cutter']) },
+          { path: paths.buildBench.pattern, lazy: () => import('./routes/bench/build'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler']) },
+          { path: paths.packBench.pattern, lazy: () => import('./routes/bench/pack'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'packer']) },
+          { path: '*', element: <NotFoundPage /> },
+        ],
+      },
+    ],
+  },
+])

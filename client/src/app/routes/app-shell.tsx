@@ -1,0 +1,60 @@
+import { useQuery } from '@tanstack/react-query'
+import { NavLink, Outlet, useNavigate } from 'react-router-dom'
+import type { Role } from '@kitwright/shared/roles'
+import { ROLE_LABELS } from '@kitwright/shared/roles'
+import { Button } from '../../components/ui/button'
+import { paths } from '../../config/paths'
+import { meOptions, useSignOut } from '../../features/auth/api/auth-queries'
+import { cn } from '../../lib/cn'
+
+const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
+  { label: 'Home', href: paths.home.href(), roles: ['admin', 'planner'] },
+  { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
+  { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
+  { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },
+  { label: 'Users', href: paths.users.href(), roles: ['admin'] },
+]
+
+export function AppShell() {
+  const { data: me } = useQuery(meOptions())
+  const signOut = useSignOut()
+  const navigate = useNavigate()
+  if (!me) return null
+  const items = NAV.filter((n) => n.roles.includes(me.role))
+  return (
+    <div className="min-h-screen">
+      <header className="bg-brand-900 text-white">
+        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+          <span className="text-2xl font-bold tracking-wide">Kitwright</span>
+          <nav aria-label="Main" className="flex flex-wrap gap-1">
+            {items.map((n) => (
+              <NavLink
+                key={n.href}
+                to={n.href}
+                end={n.href === '/'}
+                className={({ isActive }) => cn('rounded-md px-3 py-2 text-lg font-bold', isActive ? 'bg-white text-brand-900' : 'hover:bg-brand-700')}
+              >
+                {n.label}
+              </NavLink>
+            ))}
+          </nav>
+          <div className="ml-auto flex items-center gap-3">
+            <span className="text-right leading-tight">
+              <span className="block font-bold">{me.name}</span>
+              <span className="block text-sm text-brand-100">{ROLE_LABELS[me.role]}</span>
+            </span>
+            <Button
+              variant="secondary"
+              onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate(paths.signIn.href()) })}
+            >
+              Sign out
+            </Button>
+          </div>
+        </div>
+      </header>
+      <main className="mx-auto max-w-7xl px-4 py-6">
+        <Outlet />
+      </main>
+    </div>
+  )
+}

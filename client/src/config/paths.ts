@@ -1,0 +1,26 @@
+import type { Role } from '@kitwright/shared/roles'
+
+/** Every route of the app; links use `href()` so nobody writes URL strings by hand. */
+export const paths = {
+  signIn: { pattern: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
+  home: { pattern: '/', href: () => '/' },
+  users: { pattern: '/admin/users', href: () => '/admin/users' },
+  cutBench: { pattern: '/bench/cut', href: () => '/bench/cut' },
+  buildBench: { pattern: '/bench/build', href: () => '/bench/build' },
+  packBench: { pattern: '/bench/pack', href: () => '/bench/pack' },
+} as const
+
+/** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */
+export function landingFor(role: Role): string {
+  switch (role) {
+    case 'cutter':
+      return paths.cutBench.href()
+    case 'assembler':
+      return paths.buildBench.href()
+    case 'packer':
+      return paths.packBench.href()
+    case 'admin':
+    case 'planner':
+      return paths.home.href()
+  }
+}

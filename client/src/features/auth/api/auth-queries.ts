@@ -1,0 +1,43 @@
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
+import { z } from 'zod'
+import { MeSchema, type SignIn } from '@kitwright/shared/auth'
+import { ApiError, apiFetch } from '../../../lib/api-client'
+
+export const authKeys = {
+  me: ['auth', 'me'] as const,
+}
+
+/** The signed-in user, or null when nobody is signed in. */
+export function meOptions() {
+  return queryOptions({
+    queryKey: authKeys.me,
+    queryFn: async ({ signal }) => {
+      try {
+        return await apiFetch('/auth/me', MeSchema, { signal })
+      } catch (err) {
+        if (err instanceof ApiError && err.status === 401) return null
+        throw err
+      }
+    },
+    staleTime: 60_000,
+  })
+}
+
+export function useSignIn() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: (input: SignIn) => apiFetch('/auth/sign-in', MeSchema, { method: 'POST', body: input }),
+    onSuccess: (me) => qc.setQueryData(authKeys.me, me),
+  })
+}
+
+export function useSignOut() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: () => apiFetch('/auth/sign-out', z.undefined(), { method: 'POST' }),
+    onSuccess: () => {
+      qc.clear()
+      qc.setQueryData(authKeys.me, null)
+    },
+  })
+}

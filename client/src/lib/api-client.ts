@@ -1,0 +1,37 @@
+import type { z } from 'zod'
+import { ApiErrorBodySchema, type ApiErrorBody } from '@kitwright/shared/errors'
+
+/** A non-2xx answer from the API, with the server's message and per-field hints. */
+export class ApiError extends Error {
+  constructor(
+    readonly status: number,
+    readonly body: ApiErrorBody['error'],
+  ) {
+    super(body.message)
+  }
+}
+
+/** The only caller of fetch: throws ApiError on a non-2xx and parses the JSON with `schema`. */
+export async function apiFetch<S extends z.ZodType>(
+  path: string,
+  schema: S,
+  init: Omit<RequestInit, 'body'> & { body?: unknown } = {},
+): Promise<z.infer<S>> {
+  const { body, ...rest } = init
+  const res = await fetch(`/api${path}`, {
+    credentials: 'same-origin',
+    ...rest,
+    headers: { ...(body !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  })
+  if (!res.ok) {
+    const json: unknown = await res.json().catch(() => null)
+    const parsed = ApiErrorBodySchema.safeParse(json)
+    throw new ApiError(
+      res.status,
+      parsed.success ? parsed.data.error : { code: 'internal', message: `The server answered ${res.status} ${res.statusText}` },
+    )
+  }
+  if (res.status === 204) return schema.parse(undefined)
+  return schema.parse(await res.json())
+}

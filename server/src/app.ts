@@ -1,0 +1,43 @@
+import path from 'node:path'
+import cookieParser from 'cookie-parser'
+import express from 'express'
+import helmet from 'helmet'
+import type { Deps } from './deps'
+import { authRouter } from './features/auth/auth.routes'
+import { healthRouter } from './features/health/health.routes'
+import { usersRouter } from './features/users/users.routes'
+import { authenticate } from './lib/auth'
+import { errorHandler } from './lib/error-handler'
+import { NotFound } from './lib/http-errors'
+import { requestLogger } from './lib/logger'
+import { RouteTable } from './lib/routes'
+
+/** Builds the Express app; listens nowhere (index.ts does), so tests drive it with supertest. */
+export function createApp(deps: Deps) {
+  const app = express()
+  const routes = new RouteTable()
+  app.set('trust proxy', 'loopback')
+  app.disable('x-powered-by')
+  app.use(helmet())
+  app.use(requestLogger(deps.logger))
+  app.use(express.json({ limit: '1mb' }))
+  app.use(cookieParser())
+  app.use('/api', authenticate(deps.db, deps.tokens))
+
+  for (const feature of [healthRouter, authRouter, usersRouter]) {
+    const { base, router } = feature(deps, routes)
+    app.use(base, router)
+  }
+
+  app.use('/api', () => {
+    throw new NotFound('No such API route')
+  })
+  if (deps.clientDist) {
+    const dist = deps.clientDist
+    app.use(express.static(dist, { index: false, maxAge: '1h' }))
+    // Client-side routes: every other GET gets the app's page; React Router takes it from there.
+    app.get(/.*/, (_req, res) => res.sendFile(path.join(dist, 'index.html')))
+  }
+  app.use(errorHandler)
+  return { app, routes }
+}

@@ -1,0 +1,33 @@
+import { z } from 'zod'
+import { RoleSchema } from '@kitwright/shared/roles'
+import demoUsers from './demo-users.json' with { type: 'json' }
+import type { Db } from './client'
+import { users } from './schema/index'
+import { hashSecret } from '../features/users/users.service'
+
+/**
+ * The demo shop, Mistwell Tote Works, and its people are invented for the demo; any likeness to a
+ * real shop or person is chance. Addresses use the reserved `.example` domain.
+ */
+export const DEMO_SHOP_NAME = 'Mistwell Tote Works'
+
+/** One demo user per role; start.mjs prints the same file as the demo sign-ins. */
+export const DEMO_USERS = z
+  .array(z.object({ role: RoleSchema, email: z.string(), name: z.string(), password: z.string(), pin: z.string().optional() }))
+  .parse(demoUsers)
+
+/** Loads the demo data; running it twice changes nothing (existing rows are left as they are). */
+export async function seedDemo(db: Db) {
+  for (const u of DEMO_USERS) {
+    await db
+      .insert(users)
+      .values({
+        email: u.email,
+        name: u.name,
+        role: u.role,
+        passwordHash: await hashSecret(u.password),
+        pinHash: u.pin ? await hashSecret(u.pin) : null,
+      })
+      .onConflictDoNothing({ target: users.email })
+  }
+}

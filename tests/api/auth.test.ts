@@ -1,0 +1,168 @@
+import { SignJWT } from 'jose'
+import request from 'supertest'
+import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
+import { eq } from 'drizzle-orm'
+import { MeSchema } from '@kitwright/shared/auth'
+import { ApiErrorBodySchema } from '@kitwright/shared/errors'
+import { signInFailures, users } from '../../server/src/db/schema/index'
+import { SESSION_COOKIE } from '../../server/src/lib/auth'
+import { MAX_FAILURES } from '../../server/src/features/auth/sign-in-throttle'
+import { buildApp, signedInAs, TEST_TOKENS } from '../support/app'
+import { insertUser, TEST_PASSWORD, TEST_PIN } from '../support/factories'
+import { createTestDb, type TestDb } from '../support/test-db'
+
+let t: TestDb
+let app: ReturnType<typeof buildApp>['app']
+beforeAll(async () => {
+  t = await createTestDb()
+  app = buildApp(t).app
+})
+afterEach(() => t.truncate())
+afterAll(() => t.drop())
+
+function sessionCookie(res: request.Response): string | undefined {
+  const raw = res.headers['set-cookie'] as unknown as string[] | undefined
+  return raw?.find((c) => c.startsWith(`${SESSION_COOKIE}=`))
+}
+
+describe('sign-in', () => {
+  it('signs in with e-mail and password, sets an httpOnly SameSite cookie, and /me answers', async () => {
+    const user = await insertUser(t.db, { role: 'planner', email: 'tomas@shop.example' })
+    const agent = request.agent(app)
+    const res = await agent.post('/api/auth/sign-in').send({ email: ' Tomas@Shop.example ', password: TEST_PASSWORD })
+    expect(res.status).toBe(200)
+    expect(MeSchema.parse(res.body)).toEqual({ id: user.id, email: user.email, name: user.name, role: 'planner' })
+    const cookie = sessionCookie(res)
+    expect(cookie).toMatch(/HttpOnly/i)
+    expect(cookie).toMatch(/SameSite=Lax/i)
+    const me = await agent.get('/api/auth/me')
+    expect(me.status).toBe(200)
+    expect(MeSchema.parse(me.body).id).toBe(user.id)
+  })
+
+  it('signs in at a bench with a PIN', async () => {
+    const user = await insertUser(t.db, { role: 'cutter' })
+    const res = await request(app).post('/api/auth/sign-in').send({ email: user.email, pin: TEST_PIN })
+    expect(res.status).toBe(200)
+    expect(MeSchema.parse(res.body).role).toBe('cutter')
+  })
+
+  it('refuses a wrong password, a wrong PIN and an unknown e-mail with 401 and no cookie', async () => {
+    const user = await insertUser(t.db)
+    for (const body of [
+      { email: user.email, password: 'not-the-password' },
+      { email: user.email, pin: '0000' },
+      { email: 'nobody@shop.example', password: TEST_PASSWORD },
+    ]) {
+      const res = await request(app).post('/api/auth/sign-in').send(body)
+      expect(res.status).toBe(401)
+      expect(ApiErrorBodySchema.parse(res.body).error.code).toBe('unauthenticated')
+      expect(sessionCookie(res)).toBeUndefined()
+    }
+  })
+
+  it('refuses a PIN for a user who has none', async () => {
+    const user = await insertUser(t.db, { pinHash: null })
+    const res = await request(app).post('/api/auth/sign-in').send({ email: user.email, pin: '1234' })
+    expect(res.status).toBe(401)
+  })
+
+  it('answers a bad payload with 400 and a hint per field', async () => {
+    const cases: [unknown, string][] = [
+      [{ email: 'not-an-email', password: 'x' }, 'email'],
+      [{ email: 'a@shop.example', pin: '12' }, 'pin'],
+      [{ email: 'a@shop.example' }, 'password'],
+    ]
+    for (const [body, field] of cases) {
+      const res = await request(app).post('/api/auth/sign-in').send(body as object)
+      expect(res.status).toBe(400)
+      const parsed = ApiErrorBodySchema.parse(res.body)
+      expect(parsed.error.code).toBe('invalid')
+      expect(Object.keys(parsed.error.fields ?? {})).toContain(field)
+    }
+  })
+
+  it('answers malformed JSON with 400 in the same error shape', async () => {
+    const res = await request(app).post('/api/auth/sign-in').set('content-type', 'application/json').send('{"email":')
+    expect(res.status).toBe(400)
+    expect(ApiErrorBodySchema.parse(res.body).error.code).toBe('invalid')
+  })
+
+  it('signs out: the cookie is cleared and /me answers 401', async () => {
+    const { agent } = await signedInAs(app, t, 'packer')
+    const out = await agent.post('/api/auth/sign-out')
+    expect(out.status).toBe(204)
+    expect((await agent.get('/api/auth/me')).status).toBe(401)
+  })
+})
+
+describe('tokens', () => {
+  it('treats a tampered or foreign-signed token as no token (401)', async () => {
+    const user = await insertUser(t.db)
+    const forged = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(user.id).setIssuedAt().setExpirationTime('10m')
+      .sign(new TextEncoder().encode('some-other-secret-some-other-secret'))
+    const res = await request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${forged}`)
+    expect(res.status).toBe(401)
+  })
+
+  it('refuses an expired token', async () => {
+    const user = await insertUser(t.db)
+    const now = Math.floor(Date.now() / 1000)
+    const expired = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(user.id).setIssuedAt(now - 3600).setExpirationTime(now - 60)
+      .sign(TEST_TOKENS.secret)
+    expect((await request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${expired}`)).status).toBe(401)
+  })
+
+  it('renews a token past a quarter of its life (sliding session), not a fresh one', async () => {
+    const user = await insertUser(t.db)
+    const now = Math.floor(Date.now() / 1000)
+    const aging = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(user.id).setIssuedAt(now - 20 * 60).setExpirationTime(now + 10 * 60)
+      .sign(TEST_TOKENS.secret)
+    const renewed = await request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${aging}`)
+    expect(renewed.status).toBe(200)
+    expect(sessionCookie(renewed)).toBeDefined()
+    const { agent } = await signedInAs(app, t, 'planner')
+    const fresh = await agent.get('/api/auth/me')
+    expect(sessionCookie(fresh)).toBeUndefined()
+  })
+
+  it("stops a deactivated user's token at the next request, and refuses their sign-in", async () => {
+    const { agent, user } = await signedInAs(app, t, 'assembler')
+    expect((await agent.get('/api/auth/me')).status).toBe(200)
+    await t.db.update(users).set({ active: false }).where(eq(users.id, user.id))
+    expect((await agent.get('/api/auth/me')).status).toBe(401)
+    const again = await request(app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    expect(again.status).toBe(401)
+    expect(again.body.error.message).toMatch(/deactivated/)
+  })
+})
+
+describe('throttling repeated failures', () => {
+  it(`refuses the account from the same address after ${MAX_FAILURES} failures, with a clear message, even with the right password`, async () => {
+    const user = await insertUser(t.db)
+    for (let i = 0; i < MAX_FAILURES; i++) {
+      const res = await request(app).post('/api/auth/sign-in').set('X-Forwarded-For', '10.0.0.7').send({ email: user.email, password: 'wrong-guess' })
+      expect(res.status).toBe(401)
+    }
+    const blocked = await request(app).post('/api/auth/sign-in').set('X-Forwarded-For', '10.0.0.7').send({ email: user.email, password: TEST_PASSWORD })
+    expect(blocked.status).toBe(429)
+    const body = ApiErrorBodySchema.parse(blocked.body)
+    expect(body.error.code).toBe('too_many_requests')
+    expect(body.error.message).toMatch(/Too many failed sign-ins .* Try again in \d+ minutes?/)
+
+    // Another address is not punished for this one's guesses.
+    const elsewhere = await request(app).post('/api/auth/sign-in').set('X-Forwarded-For', '10.0.0.8').send({ email: user.email, password: TEST_PASSWORD })
+    expect(elsewhere.status).toBe(200)
+  })
+
+  it('forgets failures after a successful sign-in', async () => {
+    const user = await insertUser(t.db)
+    for (let i = 0; i < MAX_FAILURES - 1; i++) {
+      await request(app).post('/api/auth/sign-in').set('X-Forwarded-For', '10.0.0.9').send({ email: user.email, password: 'wrong-guess' })
+    }
+    const ok = await request(app).post('/api/auth/sign-in').set('X-Forwarded-For', '10.0.0.9').send({ email: user.email, password: TEST_PASSWORD })
+    expect(ok.status).toBe(200)
+    const left = await t.db.select().from(signInFailures).where(eq(signInFailures.email, user.email))
+    expect(left).toHaveLength(0)
+  })
+})
