@@ -5,6 +5,7 @@ import helmet from 'helmet'
 import type { Deps } from './deps'
 import { authRouter } from './features/auth/auth.routes'
 import { healthRouter } from './features/health/health.routes'
+import { settingsRouter } from './features/settings/settings.routes'
 import { usersRouter } from './features/users/users.routes'
 import { authenticate } from './lib/auth'
 import { errorHandler } from './lib/error-handler'
@@ -24,7 +25,9 @@ export function createApp(deps: Deps) {
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
 
-  for (const feature of [healthRouter, authRouter, usersRouter]) {
+  // One line per feature router; each route inside declares who may call it.
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter]
+  for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
   }

@@ -12,7 +12,7 @@ export type Role = z.infer<typeof RoleSchema>
 export const ROLE_LABELS: Record<Role, string> = {
   admin: 'Owner (admin)',
   planner: 'Planner',
-  cutter: 'Cut bench',
-  assembler: 'Build bench',
-  packer: 'Pack bench',
+  cutter: 'Cutter',
+  assembler: 'Assembler',
+  packer: 'Packer',
 }

@@ -2,7 +2,8 @@ import { z } from 'zod'
 import { RoleSchema } from '@kitwright/shared/roles'
 import demoUsers from './demo-users.json' with { type: 'json' }
 import type { Db } from './client'
-import { users } from './schema/index'
+import { inches } from '@kitwright/shared/domain/units'
+import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
 
 /**
@@ -18,6 +19,11 @@ export const DEMO_USERS = z
 
 /** Loads the demo data; running it twice changes nothing (existing rows are left as they are). */
 export async function seedDemo(db: Db) {
+  // Kerf of a fine-tooth saw (1/8 in), a 1/4 in squaring cut, offcuts of 6 in or more kept: common practice.
+  await db
+    .insert(shopSettings)
+    .values({ id: 1, shopName: DEMO_SHOP_NAME, displayUnit: 'in', kerf: inches(1 / 8), endTrim: inches(1 / 4), minOffcut: inches(6) })
+    .onConflictDoNothing()
   for (const u of DEMO_USERS) {
     await db
       .insert(users)

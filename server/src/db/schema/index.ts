@@ -1,1 +1,5 @@
 export * from './users'
+export * from './parts'
+export * from './stock'
+export * from './kits'
+export * from './settings'

@@ -1,0 +1,46 @@
+import { relations } from 'drizzle-orm'
+import { boolean, check, index, integer, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
+import { sql } from 'drizzle-orm'
+import { PART_KINDS } from '@kitwright/shared/parts'
+import { createdAt, id, updatedAt } from './columns'
+
+export const partKindEnum = pgEnum('part_kind', PART_KINDS)
+
+/**
+ * Anything the shop stocks. Pipe (`stock_length`) is bought in sticks: its stick lengths, nominal
+ * size and outside diameter are set; for other kinds they are null / empty.
+ * Lengths are integers in the base unit of shared/domain/units.ts; money in cents; weight in grams.
+ */
+export const parts = pgTable(
+  'parts',
+  {
+    id: id(),
+    sku: text().notNull().unique(),
+    name: text().notNull(),
+    kind: partKindEnum().notNull(),
+    unitOfMeasure: text().notNull().default('each'),
+    unitCostCents: integer().notNull().default(0),
+    /** Weight of one unit (one stick for pipe), in grams; used for shipping weight. */
+    weightGrams: integer().notNull().default(0),
+    supplier: text(),
+    leadTimeDays: integer(),
+    reorderPoint: integer().notNull().default(0),
+    reorderQuantity: integer().notNull().default(0),
+    shelfLocation: text(),
+    nominalSize: text(),
+    outsideDiameter: integer(),
+    stickLengths: integer().array().notNull().default(sql`'{}'::integer[]`),
+    active: boolean().notNull().default(true),
+    createdAt: createdAt(),
+    updatedAt: updatedAt(),
+  },
+  (t) => [
+    index().on(t.kind),
+    check('parts_cost_not_negative', sql`${t.unitCostCents} >= 0`),
+    check('parts_weight_not_negative', sql`${t.weightGrams} >= 0`),
+  ],
+)
+export type PartRow = typeof parts.$inferSelect
+export type NewPartRow = typeof parts.$inferInsert
+
+export const partsRelations = relations(parts, () => ({}))

@@ -1,0 +1,83 @@
+import { z } from 'zod'
+import { MAX_LENGTH } from './domain/units'
+
+/** The three kinds of part a shop stocks. */
+export const PART_KINDS = ['stock_length', 'hardware', 'packaging'] as const
+/** The kind of a part. */
+export const PartKindSchema = z.enum(PART_KINDS)
+/** The kind of a part. */
+export type PartKind = z.infer<typeof PartKindSchema>
+
+/** What each kind is called on screen. */
+export const PART_KIND_LABELS: Record<PartKind, string> = {
+  stock_length: 'Pipe (sticks)',
+  hardware: 'Hardware',
+  packaging: 'Packaging',
+}
+
+/** A length in the integer base unit of domain/units.ts. */
+export const LengthSchema = z.number().int('Lengths are whole base units').positive('Must be longer than zero').max(MAX_LENGTH)
+
+const optionalText = z
+  .string()
+  .trim()
+  .max(200, 'Use at most 200 characters')
+  .nullish()
+  .transform((v) => (v ? v : null))
+
+/** The fields of a part a planner edits; pipe fields are required for `stock_length` only. */
+export const PartInputSchema = z
+  .object({
+    sku: z.string().trim().min(1, 'Enter a SKU').max(40, 'Use at most 40 characters').regex(/^[A-Za-z0-9._-]+$/, 'Use letters, digits, dot, dash or underscore'),
+    name: z.string().trim().min(1, 'Enter a name').max(120, 'Use at most 120 characters'),
+    kind: PartKindSchema,
+    unitOfMeasure: z.string().trim().min(1, 'Enter a unit such as each, stick or bag').max(20),
+    unitCostCents: z.number().int('Whole cents').min(0, 'Cannot be negative').max(100_000_000),
+    weightGrams: z.number().int('Whole grams').min(0, 'Cannot be negative').max(1_000_000),
+    supplier: optionalText,
+    leadTimeDays: z.number().int('Whole days').min(0, 'Cannot be negative').max(365).nullish().transform((v) => v ?? null),
+    reorderPoint: z.number().int().min(0, 'Cannot be negative'),
+    reorderQuantity: z.number().int().min(0, 'Cannot be negative'),
+    shelfLocation: optionalText,
+    nominalSize: optionalText,
+    outsideDiameter: LengthSchema.nullish().transform((v) => v ?? null),
+    stickLengths: z.array(LengthSchema).max(6, 'At most 6 stick lengths').default([]),
+  })
+  .strict()
+  .superRefine((p, ctx) => {
+    if (p.kind === 'stock_length') {
+      if (p.stickLengths.length === 0) ctx.addIssue({ code: 'custom', path: ['stickLengths'], message: 'Pipe needs at least one stick length, e.g. 10 ft' })
+      if (p.outsideDiameter === null) ctx.addIssue({ code: 'custom', path: ['outsideDiameter'], message: 'Pipe needs its outside diameter, e.g. 0.840 in' })
+      if (!p.nominalSize) ctx.addIssue({ code: 'custom', path: ['nominalSize'], message: 'Pipe needs its nominal size, e.g. 1/2' })
+    } else if (p.stickLengths.length > 0) {
+      ctx.addIssue({ code: 'custom', path: ['stickLengths'], message: 'Only pipe (stock_length) has stick lengths' })
+    }
+  })
+/** The fields of a part a planner edits. */
+export type PartInput = z.infer<typeof PartInputSchema>
+/** The fields of a part a planner edits, as typed into a form before parsing. */
+export type PartInputDraft = z.input<typeof PartInputSchema>
+
+/** A part as the API shows it. */
+export const PartSchema = z.object({
+  id: z.string().uuid(),
+  sku: z.string(),
+  name: z.string(),
+  kind: PartKindSchema,
+  unitOfMeasure: z.string(),
+  unitCostCents: z.number().int(),
+  weightGrams: z.number().int(),
+  supplier: z.string().nullable(),
+  leadTimeDays: z.number().int().nullable(),
+  reorderPoint: z.number().int(),
+  reorderQuantity: z.number().int(),
+  shelfLocation: z.string().nullable(),
+  nominalSize: z.string().nullable(),
+  outsideDiameter: z.number().int().nullable(),
+  stickLengths: z.array(z.number().int()),
+  active: z.boolean(),
+  createdAt: z.string(),
+  updatedAt: z.string(),
+})
+/** A part as the API shows it. */
+export type Part = z.infer<typeof PartSchema>
