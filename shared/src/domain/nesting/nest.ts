@@ -5,7 +5,7 @@ import { greedyPlan } from './ffd'
 import { loadHighs } from './highs-loader'
 import type { CuttingProblem, PatternSolution } from './problem'
 import { buildProblem, solutionCost, solutionOffcuts } from './problem'
-import { enumeratePatterns, roundLp, solvePatternMip, weightedCost } from './rounding'
+import { enumeratePatterns, roundLp, searchExactCover, solvePatternMip } from './rounding'
 import { NestingInputError } from './types'
 import type {
   NestBounds,
@@ -109,6 +109,21 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
     const wasteLimit = problem.bins.map(() => Infinity)
     if (single && single.available === Infinity && (costs[0] ?? 0) > 0) {
       wasteLimit[0] = Math.floor(target / (costs[0] ?? 1) + 1e-9) * single.capacity - totalWeight
+    }
+    if (single && single.kind === 'stock' && single.available === Infinity && (costs[0] ?? 0) > 0) {
+      // One kind of stick: search exact covers over every pattern that fits the budgets.
+      const all = enumeratePatterns(problem, lp, costs, gap, wasteLimit, ENUMERATION_LIMIT, deadline, false)
+      if (all.complete) {
+        const share = Date.now() + Math.max(50, (deadline - Date.now()) / 2)
+        const cover = searchExactCover(problem, lp, costs, all.patterns, target, Math.min(deadline, share))
+        if (cover.solution && better(problem, cover.solution, incumbent)) incumbent = cover.solution
+        if (scaledCost(incumbent) <= target) break
+        if (cover.exhausted) {
+          // Every plan at the target would be an exact cover of this pool: there is none.
+          lowerBound = target + 1
+          continue
+        }
+      }
     }
     const en = enumeratePatterns(problem, lp, costs, gap, wasteLimit, ENUMERATION_LIMIT, deadline)
     const pool = en.complete ? en.patterns : [...lp.pool, ...en.patterns]

@@ -69,7 +69,7 @@ export interface Enumeration {
 }
 
 /**
- * Lists every maximal pattern (no further piece fits) whose reduced cost under the LP duals is at
+ * Lists every maximal pattern (or, with `maximalOnly` false, every pattern) (no further piece fits) whose reduced cost under the LP duals is at
  * most `gap` and whose unused capacity is at most `wasteLimit[bin]`. With converged duals, a plan
  * costing at most z_LP + gap can only use such patterns (after extending each stick to a maximal
  * one), so a MIP over a complete enumeration is exact — the reduced-cost argument of
@@ -83,6 +83,7 @@ export function enumeratePatterns(
   wasteLimit: readonly number[],
   limit: number,
   deadline: number,
+  maximalOnly = true,
 ): Enumeration {
   const items = problem.items
   const m = items.length
@@ -116,7 +117,7 @@ export function enumeratePatterns(
       const room = cap - load
       if (i === m) {
         if (val < need || load < minLoad || pieces === 0) return
-        if (pieces < problem.maxCount) {
+        if (maximalOnly && pieces < problem.maxCount) {
           for (let j = 0; j < m; j++) {
             const it = items[j]
             if (it && (counts[j] ?? 0) < it.demand && it.weight <= room) return
@@ -243,4 +244,84 @@ export function solvePatternMip(
   } finally {
     model.dispose()
   }
+}
+
+/**
+ * Depth-first search for a plan of exactly `target` sticks of the single stick kind, every piece
+ * cut exactly once, over `pool` (every pattern that can appear in such a plan). Each level opens
+ * the stick that holds the longest piece still to cut. Two budgets prune it: the reduced costs of
+ * the chosen patterns may add up to at most target − z_LP (the argument of `enumeratePatterns`),
+ * and their unused lengths to at most target·capacity − total weight. Residual demands that
+ * failed are remembered.
+ * @returns the plan, or null when none exists in the pool (`exhausted`) or time ran out
+ */
+export function searchExactCover(
+  problem: CuttingProblem,
+  lp: MasterLp,
+  costs: readonly number[],
+  pool: readonly Pattern[],
+  target: number,
+  deadline: number,
+): { solution: PatternSolution | null; exhausted: boolean } {
+  const m = problem.items.length
+  const bin = problem.bins[0]
+  if (!bin || problem.bins.length !== 1) return { solution: null, exhausted: false }
+  const cost = costs[0] ?? 1
+  const sticks = Math.round(target / cost)
+  const rcOf = (p: Pattern): number => {
+    let v = 0
+    p.counts.forEach((c, i) => (v += c * (lp.itemDuals[i] ?? 0)))
+    return cost - (lp.binDuals[0] ?? 0) - v
+  }
+  const byFirst: { p: Pattern; rc: number; waste: number }[][] = Array.from({ length: m }, () => [])
+  for (const p of pool) {
+    const first = p.counts.findIndex((c) => c > 0)
+    if (first < 0) continue
+    let load = 0
+    p.counts.forEach((c, i) => (load += c * (problem.items[i]?.weight ?? 0)))
+    byFirst[first]?.push({ p, rc: Math.max(0, rcOf(p)), waste: bin.capacity - load })
+  }
+  for (const list of byFirst) list.sort((a, b) => a.rc - b.rc || a.waste - b.waste)
+  const total = problem.items.reduce((s, it) => s + it.weight * it.demand, 0)
+  const demand = problem.items.map((it) => it.demand)
+  const chosen: Pattern[] = []
+  const failed = new Map<string, number>()
+  let steps = 0
+  let timedOut = false
+  const dfs = (rcLeft: number, wasteLeft: number): boolean => {
+    const first = demand.findIndex((d) => d > 0)
+    if (first < 0) return true
+    if (chosen.length >= sticks) return false
+    if ((++steps & 0x3ff) === 0 && Date.now() > deadline) {
+      timedOut = true
+      return false
+    }
+    const key = `${chosen.length}|${demand.join(',')}`
+    const seen = failed.get(key)
+    if (seen !== undefined && seen >= rcLeft - 1e-9) return false
+    for (const cand of byFirst[first] ?? []) {
+      if (cand.rc > rcLeft + 1e-7) break
+      if (cand.waste > wasteLeft) continue
+      const counts = cand.p.counts
+      let fits = true
+      for (let i = first; i < m; i++) {
+        if ((counts[i] ?? 0) > (demand[i] ?? 0)) {
+          fits = false
+          break
+        }
+      }
+      if (!fits) continue
+      for (let i = first; i < m; i++) demand[i] = (demand[i] ?? 0) - (counts[i] ?? 0)
+      chosen.push(cand.p)
+      if (dfs(rcLeft - cand.rc, wasteLeft - cand.waste)) return true
+      chosen.pop()
+      for (let i = first; i < m; i++) demand[i] = (demand[i] ?? 0) + (counts[i] ?? 0)
+      if (timedOut) return false
+    }
+    failed.set(key, rcLeft)
+    return false
+  }
+  const found = dfs(target - lp.dualBound, sticks * bin.capacity - total)
+  if (!found) return { solution: null, exhausted: !timedOut }
+  return { solution: normalizeSolution(problem, { uses: chosen.map((p) => ({ pattern: p, count: 1 })) }), exhausted: false }
 }
