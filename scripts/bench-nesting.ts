@@ -6,8 +6,8 @@
 import { existsSync, readFileSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
-import { firstFitDecreasing, martelloTothL2, nest } from '../shared/src/domain/nesting/index.ts'
-import type { NestPlan } from '../shared/src/domain/nesting/index.ts'
+import { firstFitDecreasing, martelloTothL2, nest } from '@kitwright/shared/domain/nesting/index'
+import type { NestPlan } from '@kitwright/shared/domain/nesting/index'
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
 const folder = join(root, '..', 'shared', 'benchmarks', 'binpacking')

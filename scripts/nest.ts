@@ -3,7 +3,7 @@
 // { "sticks": [ { "length": L, "cuts": [...] } ], "lowerBound": n, "seconds": s }
 // Kerf and end trim are 0 unless the file gives `kerf` / `end_trim` (or `trim`).
 import { readFileSync } from 'node:fs'
-import { nest } from '../shared/src/domain/nesting/index.ts'
+import { nest } from '@kitwright/shared/domain/nesting/index'
 
 interface Instance {
   capacity: number

@@ -1,0 +1,21 @@
+import { describe, expect, it } from 'vitest'
+import { NestingInputError } from '@kitwright/shared/domain/nesting/index'
+import { runNesting } from './run-nesting'
+
+describe('runNesting (worker thread)', () => {
+  it('plans a cut run in a worker and returns the plan', async () => {
+    // Hand-worked: 10 ft = 120 in sticks, base unit 1/1000 in, kerf 1/8 in (125).
+    // Four 29 in pieces take 4 × 29 000 + 3 × 125 = 116 375 <= 120 000, so one stick holds them;
+    // six pieces need two sticks (continuous bound: 6 × 29 125 / 120 125 > 1).
+    const plan = await runNesting({ pieces: [{ length: 29_000, quantity: 6, workOrderRef: 'WO-1' }], stock: [{ length: 120_000 }], kerf: 125 })
+    expect(plan.sticks).toHaveLength(2)
+    expect(plan.sticks.flatMap((s) => s.cuts).every((c) => c.workOrderRef === 'WO-1')).toBe(true)
+    expect(plan.status).toBe('optimal')
+  })
+
+  it('passes input errors back as NestingInputError with the field to fix', async () => {
+    const err = await runNesting({ pieces: [{ length: 0, quantity: 1 }], stock: [{ length: 100 }] }).catch((e: unknown) => e)
+    expect(err).toBeInstanceOf(NestingInputError)
+    expect((err as NestingInputError).field).toBe('pieces.0.length')
+  })
+})
