@@ -1,7 +1,7 @@
 // `npm test`: the same set-up as `npm start` (dependencies, PostgreSQL, stand-ins, Chromium), then
 // the whole suite in one vitest run: unit, API over the real database, browser end-to-end.
 // Extra arguments go to vitest, e.g. `npm test -- --project unit`.
-import { existsSync } from 'node:fs'
+import { existsSync, rmSync } from 'node:fs'
 import path from 'node:path'
 import { step } from './lib/log.mjs'
 import { dataDir, ensureAptPackage, ensureNodeModules, root } from './lib/system.mjs'
@@ -11,15 +11,23 @@ ensureAptPackage('chromium', () => existsSync('/usr/bin/chromium'))
 ensureAptPackage('poppler-utils', () => existsSync('/usr/bin/pdftoppm'))
 
 const { startPostgres } = await import('./lib/postgres.mjs')
-const { localPorts, testPorts, bucket } = await import('./lib/config.mjs')
+const { localPorts, bucket } = await import('./lib/config.mjs')
+const { freePort } = await import('./lib/ports.mjs')
 const { onCleanup, startChild, stopAll, stopOnSignals, tsxBin } = await import('./lib/processes.mjs')
 
 stopOnSignals()
 const pg = startPostgres(localPorts.postgres)
 if (pg.startedHere) onCleanup(() => pg.stop())
 
+// Every run gets its own databases, stand-in ports and folders, so two runs can share the cluster.
+const runId = `r${process.pid}`
+const testPorts = { s3: await freePort(), smtp: await freePort() }
+const testData = path.join(dataDir, 'test', runId)
+const testDbBase = `kitwright_test_${runId}`
+onCleanup(() => dropRunDatabases(pg.url('postgres'), testDbBase))
+onCleanup(() => rmSync(testData, { recursive: true, force: true }))
+
 step('starting the test S3 and SMTP stand-ins')
-const testData = path.join(dataDir, 'test')
 await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
   env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), S3_BUCKET: bucket },
   readyWhen: /^ready$/,
@@ -30,15 +38,30 @@ step('running the test suite (vitest: unit, api, e2e)')
 const vitest = await startChild('vitest', path.join(root, 'node_modules/.bin/vitest'), ['run', ...process.argv.slice(2)], {
   env: {
     // Each run recreates its databases from this name: <name>_template, one per test file, <name>_e2e.
-    TEST_DATABASE_URL: pg.url('kitwright_test'),
+    TEST_DATABASE_URL: pg.url(testDbBase),
     S3_ENDPOINT: `http://127.0.0.1:${testPorts.s3}`,
     S3_BUCKET: bucket,
     S3_ACCESS_KEY_ID: 'S3RVER',
     S3_SECRET_ACCESS_KEY: 'S3RVER',
     SMTP_URL: `smtp://127.0.0.1:${testPorts.smtp}`,
     FAKE_MAIL_DIR: path.join(testData, 'mail'),
+    TEST_RUN_DIR: testData,
     NO_COLOR: '1',
   },
 })
 const code = await new Promise((resolve) => vitest.once('exit', (c) => resolve(c ?? 1)))
 await stopAll(code)
+
+async function dropRunDatabases(adminUrl, prefix) {
+  const { default: pgModule } = await import('pg')
+  const client = new pgModule.Client({ connectionString: adminUrl })
+  try {
+    await client.connect()
+    const { rows } = await client.query('select datname from pg_database where datname like $1', [`${prefix}%`])
+    for (const { datname } of rows) await client.query(`drop database if exists "${datname}" with (force)`)
+  } catch (err) {
+    console.error(`[kitwright] could not drop the test databases: ${err.message}`)
+  } finally {
+    await client.end().catch(() => {})
+  }
+}

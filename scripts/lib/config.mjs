@@ -9,10 +9,4 @@ export const localPorts = {
   smtp: num('FAKE_SMTP_PORT', 54325),
 }
 
-// `npm test` uses its own stand-in ports and folders so it can run beside `npm start`.
-export const testPorts = {
-  s3: num('TEST_FAKE_S3_PORT', 54340),
-  smtp: num('TEST_FAKE_SMTP_PORT', 54335),
-}
-
 export const bucket = process.env.S3_BUCKET ?? 'kitwright'

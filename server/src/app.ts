@@ -1,4 +1,3 @@
-import path from 'node:path'
 import cookieParser from 'cookie-parser'
 import express from 'express'
 import helmet from 'helmet'
@@ -39,7 +38,7 @@ export function createApp(deps: Deps) {
     const dist = deps.clientDist
     app.use(express.static(dist, { index: false, maxAge: '1h' }))
     // Client-side routes: every other GET gets the app's page; React Router takes it from there.
-    app.get(/.*/, (_req, res) => res.sendFile(path.join(dist, 'index.html')))
+    app.get(/.*/, (_req, res) => res.sendFile('index.html', { root: dist }))
   }
   app.use(errorHandler)
   return { app, routes }

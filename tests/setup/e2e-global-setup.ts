@@ -40,7 +40,12 @@ export default async function setup(project: TestProject) {
   } finally {
     await pool.end()
   }
-  const build = spawnSync('npm', ['run', 'build', '--silent'], { cwd: root, encoding: 'utf8' })
+  // Built into this run's own folder, so two test runs never overwrite each other's client.
+  const clientDist = path.join(process.env.TEST_RUN_DIR ?? path.join(root, '.data/test/manual'), 'client-dist')
+  const build = spawnSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--outDir', clientDist, '--emptyOutDir', '--logLevel', 'warn'], {
+    cwd: path.join(root, 'client'),
+    encoding: 'utf8',
+  })
   if (build.status !== 0) throw new Error(`client build failed:\n${build.stdout}${build.stderr}`)
 
   const port = await freePort()
@@ -51,7 +56,7 @@ export default async function setup(project: TestProject) {
       DATABASE_URL: url,
       PORT: String(port),
       SESSION_SECRET: 'kitwright-e2e-secret-0123456789abcdef',
-      CLIENT_DIST: path.join(root, 'client/dist'),
+      CLIENT_DIST: clientDist,
       LOG_LEVEL: 'warn',
       NODE_ENV: 'test',
     },
