@@ -1,4 +1,4 @@
-import type { Highs } from 'highs'
+import type { Highs, Solution } from 'highs'
 import { solveKnapsack } from './knapsack'
 import type { CuttingProblem, Pattern } from './problem'
 import { patternLoad } from './problem'
@@ -97,17 +97,19 @@ export function solveMasterLp(
     let value = Infinity
     let converged = false
     const maxCaps = problem.bins.map((b) => b.capacity)
+    let sol: Solution | null = null
     for (let iter = 0; iter < 5000; iter++) {
       model.run()
       if (model.getModelStatus() !== highs.constants.modelStatus.optimal) {
         throw new Error(`nesting: LP master ended with HiGHS status ${model.getModelStatus()}`)
       }
       value = model.getObjectiveValue()
-      const sol = model.getSolution()
-      itemDuals = Array.from(sol.rowDual.subarray(0, m), (d) => Math.max(0, d))
+      const now = model.getSolution()
+      sol = now
+      itemDuals = Array.from(now.rowDual.subarray(0, m), (d) => Math.max(0, d))
       binDuals = problem.bins.map((_, bi) => {
         const r = binRow[bi] ?? -1
-        return r >= 0 ? Math.min(0, sol.rowDual[r] ?? 0) : 0
+        return r >= 0 ? Math.min(0, now.rowDual[r] ?? 0) : 0
       })
       const answer = solveKnapsack(
         problem.items.map((it, i) => ({ weight: it.weight, value: itemDuals[i] ?? 0, bound: it.demand })),
@@ -128,8 +130,10 @@ export function solveMasterLp(
       }
       if (Date.now() > deadline) break
     }
-    const sol = model.getSolution()
-    const values = pool.map((_, j) => sol.colValue[m + j] ?? 0)
+    // Columns added after the last solve have LP value 0 (the stored solution predates them).
+    const last = sol
+    if (!last) throw new Error('nesting: LP master was never solved')
+    const values = pool.map((_, j) => last.colValue[m + j] ?? 0)
     let dualBound = 0
     problem.items.forEach((it, i) => (dualBound += it.demand * (itemDuals[i] ?? 0)))
     problem.bins.forEach((b, bi) => {
@@ -137,7 +141,7 @@ export function solveMasterLp(
     })
     // If an artificial column is still in use, the demand cannot be met even fractionally.
     let artificial = 0
-    for (let i = 0; i < m; i++) artificial += sol.colValue[i] ?? 0
+    for (let i = 0; i < m; i++) artificial += last.colValue[i] ?? 0
     if (converged && artificial > 1e-6) {
       throw new Error('nesting: not enough stock to cut every piece')
     }

@@ -195,12 +195,14 @@ export function normalizeSolution(problem: CuttingProblem, sol: PatternSolution)
   for (let i = 0; i < m; i++) {
     if ((excess[i] ?? 0) < 0) throw new Error(`nesting: plan misses ${-(excess[i] ?? 0)} piece(s) of length ${problem.items[i]?.length}`)
   }
-  // Remove extra pieces from the emptiest sticks first: their remnants grow, and a stick may empty out.
+  // Remove extra pieces from new sticks before offcuts (offcuts first), and from the emptiest
+  // sticks first: their remnants grow, and a stick may empty out altogether.
+  const isOffcut = (s: Pattern): number => (problem.bins[s.bin]?.kind === 'offcut' ? 1 : 0)
   for (let i = 0; i < m; i++) {
     let extra = excess[i] ?? 0
     if (extra === 0) continue
     const holders = sticks.filter((s) => (s.counts[i] ?? 0) > 0)
-    holders.sort((a, b) => patternLoad(problem, a.counts) - patternLoad(problem, b.counts))
+    holders.sort((a, b) => isOffcut(a) - isOffcut(b) || patternLoad(problem, a.counts) - patternLoad(problem, b.counts))
     for (const s of holders) {
       while (extra > 0 && (s.counts[i] ?? 0) > 0) {
         s.counts[i] = (s.counts[i] ?? 0) - 1
