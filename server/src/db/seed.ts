@@ -5,6 +5,7 @@ import type { Db } from './client'
 import { inches } from '@kitwright/shared/domain/units'
 import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
+import { seedDemoParts } from './seed-catalog'
 
 /**
  * The demo shop, Mistwell Tote Works, and its people are invented for the demo; any likeness to a
@@ -36,4 +37,5 @@ export async function seedDemo(db: Db) {
       })
       .onConflictDoNothing({ target: users.email })
   }
+  await seedDemoParts(db)
 }
