@@ -97,20 +97,24 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   const single = problem.bins.length === 1 ? problem.bins[0] : undefined
   const totalWeight = problem.items.reduce((s, it) => s + it.weight * it.demand, 0)
   let timedOut = false
-  // Hunt for a plan at the lower bound; when the search over a complete enumeration proves there is
-  // none, the bound rises by one and the hunt repeats.
-  while (lp.converged && (scaledCost(incumbent) > lowerBound || offcutCount > 0)) {
+  const exactCover = single !== undefined && single.kind === 'stock' && single.available === Infinity && (costs[0] ?? 0) > 0
+  // First hunt for a plan at the lower bound (few patterns to list). With one kind of stick, a
+  // failed exhaustive hunt raises the bound by one stick and repeats. Otherwise the next round
+  // lists every pattern of any plan no dearer than the best one found, so the MIP's optimum over
+  // them is the optimum (and, thanks to the offcut bonus, uses the most offcuts at that cost).
+  let aimAtBound = true
+  while (lp.converged) {
+    const current = scaledCost(incumbent)
+    if (current <= lowerBound && offcutCount === 0) break
     if (Date.now() > deadline) {
       timedOut = true
       break
     }
-    const target = scaledCost(incumbent) > lowerBound ? lowerBound : scaledCost(incumbent)
+    const target = aimAtBound && current > lowerBound ? lowerBound : current
     const gap = target - lp.dualBound
     const wasteLimit = problem.bins.map(() => Infinity)
-    if (single && single.available === Infinity && (costs[0] ?? 0) > 0) {
-      wasteLimit[0] = Math.floor(target / (costs[0] ?? 1) + 1e-9) * single.capacity - totalWeight
-    }
-    if (single && single.kind === 'stock' && single.available === Infinity && (costs[0] ?? 0) > 0) {
+    if (exactCover) wasteLimit[0] = Math.floor(target / (costs[0] ?? 1) + 1e-9) * (single?.capacity ?? 0) - totalWeight
+    if (exactCover) {
       // One kind of stick: search exact covers over every pattern that fits the budgets.
       const all = enumeratePatterns(problem, lp, costs, gap, wasteLimit, ENUMERATION_LIMIT, deadline, false)
       if (all.complete) {
@@ -133,9 +137,15 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
       timedOut = Date.now() > deadline
       break
     }
+    if (target === current) {
+      // The pool held every pattern of every plan no dearer than the incumbent: it is optimal.
+      lowerBound = Math.max(lowerBound, scaledCost(incumbent))
+      break
+    }
     if (scaledCost(incumbent) <= target) break
     // Complete enumeration, proven MIP optimum above the target: no plan costs `target`.
     lowerBound = target + 1
+    if (!exactCover) aimAtBound = false
   }
   return { solution: incumbent, costBound: lowerBound * g, lp, scale: g, timedOut }
 }
