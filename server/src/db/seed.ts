@@ -1,7 +1,9 @@
 import { z } from 'zod'
 import { RoleSchema } from '@kitwright/shared/roles'
 import demoUsers from './demo-users.json' with { type: 'json' }
+import { eq } from 'drizzle-orm'
 import type { Db } from './client'
+import { seedDemoKits } from './seed-kits'
 import { inches } from '@kitwright/shared/domain/units'
 import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
@@ -38,4 +40,6 @@ export async function seedDemo(db: Db) {
       .onConflictDoNothing({ target: users.email })
   }
   await seedDemoParts(db)
+  const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
+  await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
 }
