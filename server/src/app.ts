@@ -4,6 +4,7 @@ import helmet from 'helmet'
 import type { Deps } from './deps'
 import { authRouter } from './features/auth/auth.routes'
 import { healthRouter } from './features/health/health.routes'
+import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { usersRouter } from './features/users/users.routes'
 import { authenticate } from './lib/auth'
@@ -25,7 +26,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, kitsRouter, revisionsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
