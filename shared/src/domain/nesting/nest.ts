@@ -22,6 +22,8 @@ import type {
 const DEFAULT_TIME_LIMIT_MS = 10_000
 /** Most patterns listed per enumeration; past it the MIP runs as a heuristic over what was found. */
 const ENUMERATION_LIMIT = 40_000
+/** Same, for the quick search before any LP. */
+const QUICK_ENUMERATION_LIMIT = 5_000
 
 function gcd(a: number, b: number): number {
   while (b) [a, b] = [b, a % b]
@@ -81,6 +83,35 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   const costs = problem.bins.map((b) => (b.kind === 'offcut' ? -bonus : b.cost / g))
   const scaledCost = (s: PatternSolution): number => solutionCost(problem, s) / g
   let lowerBound = Math.ceil(sb.cost / g - 1e-9)
+  const single = problem.bins.length === 1 ? problem.bins[0] : undefined
+  const totalWeight = problem.items.reduce((s, it) => s + it.weight * it.demand, 0)
+  const exactCover = single !== undefined && single.kind === 'stock' && single.available === Infinity && (costs[0] ?? 0) > 0
+
+  if (exactCover && single) {
+    // Before any LP: the continuous bound's prices (a piece is worth its share of a stick) are
+    // dual feasible, so under them a pattern's reduced cost is its unused length / capacity. When
+    // few patterns waste no more than the bound allows, an exact-cover search settles the run.
+    const C = single.capacity
+    const cheap: MasterLp = {
+      value: totalWeight / C,
+      itemDuals: problem.items.map((it) => it.weight / C),
+      binDuals: [0],
+      pool: [],
+      values: [],
+      converged: true,
+      dualBound: totalWeight / C,
+    }
+    const target = lowerBound
+    const slack = target * C - totalWeight
+    const quick = Math.min(deadline, Date.now() + 250)
+    const all = enumeratePatterns(problem, cheap, costs, target - cheap.dualBound, [slack], QUICK_ENUMERATION_LIMIT, quick, false)
+    if (all.complete) {
+      const cover = searchExactCover(problem, cheap, costs, all.patterns, target, quick)
+      if (cover.solution && better(problem, cover.solution, incumbent)) incumbent = cover.solution
+      if (scaledCost(incumbent) <= lowerBound) return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false }
+      if (cover.exhausted) lowerBound = target + 1
+    }
+  }
 
   let highs
   try {
@@ -94,10 +125,7 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   const rounded = roundLp(problem, lp, costs)
   if (rounded && better(problem, rounded, incumbent)) incumbent = rounded
 
-  const single = problem.bins.length === 1 ? problem.bins[0] : undefined
-  const totalWeight = problem.items.reduce((s, it) => s + it.weight * it.demand, 0)
   let timedOut = false
-  const exactCover = single !== undefined && single.kind === 'stock' && single.available === Infinity && (costs[0] ?? 0) > 0
   // First hunt for a plan at the lower bound (few patterns to list). With one kind of stick, a
   // failed exhaustive hunt raises the bound by one stick and repeats. Otherwise the next round
   // lists every pattern of any plan no dearer than the best one found, so the MIP's optimum over
