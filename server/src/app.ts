@@ -5,6 +5,7 @@ import type { Deps } from './deps'
 import { authRouter } from './features/auth/auth.routes'
 import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
+import { partsRouter } from './features/parts/parts.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { usersRouter } from './features/users/users.routes'
 import { authenticate } from './lib/auth'
@@ -26,7 +27,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, kitsRouter, revisionsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

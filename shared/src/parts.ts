@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { MAX_LENGTH } from './domain/units'
+import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
 
 /** The three kinds of part a shop stocks. */
 export const PART_KINDS = ['stock_length', 'hardware', 'packaging'] as const
@@ -81,3 +82,54 @@ export const PartSchema = z.object({
 })
 /** A part as the API shows it. */
 export type Part = z.infer<typeof PartSchema>
+
+/** One page of parts. */
+export const PartsPageSchema = PageOf(PartSchema)
+/** One page of parts. */
+export type PartsPage = z.infer<typeof PartsPageSchema>
+
+/**
+ * A change to a part: any of its fields, and `active` to retire it from new kits or bring it back.
+ * The server applies the change to the stored part and checks the result with {@link PartInputSchema},
+ * so a change must still leave a valid part (pipe keeps its stick lengths, and so on).
+ */
+export const PartPatchSchema = z
+  // Stick lengths without their default, so a change that leaves them out keeps them.
+  .object({ ...PartInputSchema.shape, stickLengths: z.array(LengthSchema).max(6, 'At most 6 stick lengths'), active: z.boolean() })
+  .partial()
+  .strict()
+  .refine((v) => Object.keys(v).length > 0, 'Change at least one field')
+/** A change to a part. */
+export type PartPatch = z.infer<typeof PartPatchSchema>
+
+/** Columns the parts list sorts by. */
+export const PART_SORT_FIELDS = ['sku', 'name', 'kind', 'unitCost', 'supplier', 'shelfLocation'] as const
+/** A column the parts list sorts by. */
+export type PartSortField = (typeof PART_SORT_FIELDS)[number]
+
+/** Which parts the list shows by their active flag. */
+export const PART_ACTIVE_FILTERS = ['true', 'false', 'all'] as const
+
+/**
+ * The parts list query: page, sort, filters and a free-text search over SKU, name and supplier.
+ * The API parses it strictly (400 on bad values); the client reads its URL with
+ * `querySearchWithDefaults` from pagination.ts, so a bad link falls back to defaults.
+ */
+export const PartListQuerySchema = z
+  .object({
+    page: PageNumberSchema,
+    pageSize: PageSizeSchema,
+    sort: z.enum(PART_SORT_FIELDS, { error: `Sort by one of ${PART_SORT_FIELDS.join(', ')}` }).default('sku'),
+    dir: SortDirSchema.default('asc'),
+    kind: PartKindSchema.optional(),
+    active: z.enum(PART_ACTIVE_FILTERS, { error: 'Use true, false or all' }).default('true'),
+    q: z
+      .string()
+      .trim()
+      .max(100, 'Search for at most 100 characters')
+      .optional()
+      .transform((v) => (v ? v : undefined)),
+  })
+  .strict()
+/** The parts list query. */
+export type PartListQuery = z.infer<typeof PartListQuerySchema>

@@ -1,0 +1,31 @@
+import type { Part, PartInput } from '@kitwright/shared/parts'
+import type { PartRow } from '../../db/schema/index'
+
+export function toPart(row: PartRow): Part {
+  return {
+    id: row.id,
+    sku: row.sku,
+    name: row.name,
+    kind: row.kind,
+    unitOfMeasure: row.unitOfMeasure,
+    unitCostCents: row.unitCostCents,
+    weightGrams: row.weightGrams,
+    supplier: row.supplier,
+    leadTimeDays: row.leadTimeDays,
+    reorderPoint: row.reorderPoint,
+    reorderQuantity: row.reorderQuantity,
+    shelfLocation: row.shelfLocation,
+    nominalSize: row.nominalSize,
+    outsideDiameter: row.outsideDiameter,
+    stickLengths: row.stickLengths,
+    active: row.active,
+    createdAt: row.createdAt.toISOString(),
+    updatedAt: row.updatedAt.toISOString(),
+  }
+}
+
+/** The editable fields of a stored part, to apply a change to and check the result as a whole. */
+export function toPartInput(part: Part): PartInput {
+  const { id: _id, active: _active, createdAt: _c, updatedAt: _u, ...input } = part
+  return input
+}

@@ -1,0 +1,239 @@
+import { z } from 'zod'
+import { LENGTH_BASE_PER_FOOT, LENGTH_BASE_PER_INCH, LENGTH_BASE_PER_MM, parseLength, type Length, type LengthUnit } from './domain/units'
+import { PART_KINDS, PartInputSchema, type Part, type PartInput, type PartInputDraft } from './parts'
+
+/**
+ * The columns of a parts CSV, in the order export writes them. Import matches headers ignoring case
+ * and surrounding spaces, in any order; see docs/csv-parts.md for what each holds.
+ */
+export const PART_CSV_COLUMNS = [
+  'sku',
+  'name',
+  'kind',
+  'unit_of_measure',
+  'unit_cost',
+  'weight_g',
+  'supplier',
+  'lead_time_days',
+  'reorder_point',
+  'reorder_quantity',
+  'shelf_location',
+  'nominal_size',
+  'outside_diameter',
+  'stick_lengths',
+  'active',
+] as const
+/** A column of a parts CSV. */
+export type PartCsvColumn = (typeof PART_CSV_COLUMNS)[number]
+
+/** Columns an import file must have; the others may be left out (blank means "none" or the default). */
+export const REQUIRED_PART_CSV_COLUMNS: readonly PartCsvColumn[] = ['sku', 'name', 'kind', 'unit_cost', 'weight_g']
+
+/** The CSV column that holds each field of a part, for pointing errors at the right cell. */
+export const PART_FIELD_COLUMNS: Record<keyof PartInput, PartCsvColumn> = {
+  sku: 'sku',
+  name: 'name',
+  kind: 'kind',
+  unitOfMeasure: 'unit_of_measure',
+  unitCostCents: 'unit_cost',
+  weightGrams: 'weight_g',
+  supplier: 'supplier',
+  leadTimeDays: 'lead_time_days',
+  reorderPoint: 'reorder_point',
+  reorderQuantity: 'reorder_quantity',
+  shelfLocation: 'shelf_location',
+  nominalSize: 'nominal_size',
+  outsideDiameter: 'outside_diameter',
+  stickLengths: 'stick_lengths',
+}
+
+/** The body of an import or its preview: the file's text. */
+export const PartCsvBodySchema = z
+  .object({ csv: z.string().min(1, 'Choose or paste a CSV file').max(900_000, 'The file is too large; import at most about 5 000 parts at a time') })
+  .strict()
+/** The body of an import or its preview. */
+export type PartCsvBody = z.infer<typeof PartCsvBodySchema>
+
+/** Something to fix in an import file: row as in the file (the header is row 1), and the column if known. */
+export const PartCsvErrorSchema = z.object({ row: z.number().int().min(1), column: z.string().nullable(), message: z.string() })
+/** Something to fix in an import file. */
+export type PartCsvError = z.infer<typeof PartCsvErrorSchema>
+
+/** What importing a file would do, row by row; nothing is written while `errors` is not empty. */
+export const PartImportPreviewSchema = z.object({
+  rows: z.array(
+    z.object({
+      row: z.number().int().min(2),
+      sku: z.string(),
+      /** Create a new part, or update the part that has this SKU; null when the row has errors. */
+      action: z.enum(['create', 'update']).nullable(),
+      part: PartInputSchema.nullable(),
+    }),
+  ),
+  errors: z.array(PartCsvErrorSchema),
+  creates: z.number().int().min(0),
+  updates: z.number().int().min(0),
+})
+/** What importing a file would do, row by row. */
+export type PartImportPreview = z.infer<typeof PartImportPreviewSchema>
+
+/** What an import did. */
+export const PartImportResultSchema = z.object({ created: z.number().int().min(0), updated: z.number().int().min(0) })
+/** What an import did. */
+export type PartImportResult = z.infer<typeof PartImportResultSchema>
+
+/**
+ * The key of one row error in a 400 answer's `fields` (`rows.3.unit_cost`), and back. The import
+ * endpoint answers with the one error shape of the API, so row errors travel as fields.
+ */
+export function csvErrorKey(e: PartCsvError): string {
+  return `rows.${e.row}.${e.column ?? '_'}`
+}
+/** Reads row errors back from a 400 answer's `fields`; other keys are ignored. */
+export function csvErrorsFromFields(fields: Record<string, string>): PartCsvError[] {
+  const out: PartCsvError[] = []
+  for (const [key, message] of Object.entries(fields)) {
+    const m = /^rows\.(\d+)\.(.+)$/.exec(key)
+    if (m) out.push({ row: Number(m[1]), column: m[2] === '_' ? null : m[2]!, message })
+  }
+  return out.sort((a, b) => a.row - b.row)
+}
+
+// OWASP, CSV Injection: a cell starting with = + - @ tab or carriage return may run as a formula in a
+// spreadsheet; prefixing a single quote makes the spreadsheet show it as text.
+const FORMULA_START = /^[=+\-@\t\r]/
+
+/** A cell made safe to open in a spreadsheet: text that could start a formula gets a leading `'`. */
+export function neutraliseCsvCell(value: string): string {
+  return FORMULA_START.test(value) ? `'${value}` : value
+}
+
+/** Undoes {@link neutraliseCsvCell} on import, so an exported file imports back unchanged. */
+export function restoreCsvCell(value: string): string {
+  return value.startsWith("'") && FORMULA_START.test(value.slice(1)) ? value.slice(1) : value
+}
+
+/**
+ * A length written exactly, for files and for editing: whole feet as `10 ft`, else decimal inches
+ * (`0.84 in`) or millimetres (`21.336 mm`) with as many decimals as needed (at most 6, which is
+ * finer than one base unit, so {@link parseLength} reads back the very same length).
+ * Shops type 0.840 in for pipe; the stored length is that rounded to a base unit, and this writes the
+ * shortest text that reads back to it, so it shows 0.84 in again.
+ */
+export function exactLengthText(value: Length, unit: LengthUnit): string {
+  if (unit === 'in' && value % LENGTH_BASE_PER_FOOT === 0) return `${value / LENGTH_BASE_PER_FOOT} ft`
+  const amount = value / (unit === 'mm' ? LENGTH_BASE_PER_MM : LENGTH_BASE_PER_INCH)
+  // The fewest decimals that still read back to this very length (0.84 in is 34 137.6 base units,
+  // stored as 34 138, and still written 0.84 in).
+  for (let decimals = 0; decimals < 6; decimals++) {
+    const text = `${Number(amount.toFixed(decimals))} ${unit}`
+    const back = parseLength(text, unit)
+    if (back.ok && back.value === value) return text
+  }
+  return `${Number(amount.toFixed(6))} ${unit}`
+}
+
+/** A part as one CSV record (column → cell text, not yet neutralised), lengths in `unit`. */
+export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvColumn, string> {
+  return {
+    sku: part.sku,
+    name: part.name,
+    kind: part.kind,
+    unit_of_measure: part.unitOfMeasure,
+    unit_cost: (part.unitCostCents / 100).toFixed(2),
+    weight_g: String(part.weightGrams),
+    supplier: part.supplier ?? '',
+    lead_time_days: part.leadTimeDays === null ? '' : String(part.leadTimeDays),
+    reorder_point: String(part.reorderPoint),
+    reorder_quantity: String(part.reorderQuantity),
+    shelf_location: part.shelfLocation ?? '',
+    nominal_size: part.nominalSize ?? '',
+    outside_diameter: part.outsideDiameter === null ? '' : exactLengthText(part.outsideDiameter, unit),
+    stick_lengths: part.stickLengths.map((l) => exactLengthText(l, unit)).join('; '),
+    active: part.active ? 'yes' : 'no',
+  }
+}
+
+/** A record read from a CSV row: cells by column, blank or missing cells as ''. */
+export type PartCsvRecord = Partial<Record<PartCsvColumn, string>>
+
+/** The outcome of reading one CSV record as a part. */
+export type PartFromCsv =
+  | { ok: true; part: PartInput; active: boolean }
+  | { ok: false; errors: { column: PartCsvColumn | null; message: string }[] }
+
+/** Money as typed in a file: dollars with up to two decimals (`12.34`, `$0.65`, `3`), in cents. */
+export function parseDollars(text: string): number | null {
+  const m = /^\$?\s*(\d{1,9})(?:\.(\d{1,2}))?$/.exec(text.trim())
+  if (!m) return null
+  return Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0'))
+}
+
+const WHOLE = /^\d{1,9}$/
+
+/**
+ * Reads one CSV record as a part: human units in (`10 ft`, `0.840 in`, `12.34`, grams), the shared
+ * part rules applied, and every problem reported against its column. Bare lengths are read in `unit`.
+ */
+export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): PartFromCsv {
+  const errors: { column: PartCsvColumn | null; message: string }[] = []
+  const cell = (c: PartCsvColumn) => (record[c] ?? '').trim()
+  const whole = (c: PartCsvColumn, what: string, blank: number | null) => {
+    const v = cell(c)
+    if (v === '') return blank
+    if (!WHOLE.test(v)) errors.push({ column: c, message: `Write ${what} as a whole number, e.g. 12 (found "${v}")` })
+    return Number(v)
+  }
+  const length = (c: PartCsvColumn, text: string) => {
+    const r = parseLength(text, unit)
+    if (!r.ok) errors.push({ column: c, message: r.message })
+    return r.ok ? r.value : 0
+  }
+
+  const kindText = cell('kind').toLowerCase().replace(/[\s-]+/g, '_')
+  if (kindText === '') errors.push({ column: 'kind', message: `Enter the kind: ${PART_KINDS.join(', ')}` })
+  else if (!(PART_KINDS as readonly string[]).includes(kindText)) {
+    errors.push({ column: 'kind', message: `Unknown kind "${cell('kind')}"; use ${PART_KINDS.join(', ')}` })
+  }
+  const costText = cell('unit_cost')
+  const cost = parseDollars(costText)
+  if (cost === null) errors.push({ column: 'unit_cost', message: `Write the unit cost in dollars and cents, e.g. 12.34 (found "${costText}")` })
+  const weight = cell('weight_g') === '' ? null : whole('weight_g', 'the weight in grams', 0)
+  if (weight === null) errors.push({ column: 'weight_g', message: 'Enter the weight of one unit in grams, e.g. 730' })
+  const activeText = cell('active').toLowerCase()
+  const active = ['', 'yes', 'y', 'true', '1'].includes(activeText)
+  if (!active && !['no', 'n', 'false', '0'].includes(activeText)) {
+    errors.push({ column: 'active', message: `Write yes or no for active (found "${cell('active')}")` })
+  }
+  const od = cell('outside_diameter')
+  const sticks = cell('stick_lengths')
+
+  const draft: PartInputDraft = {
+    sku: cell('sku'),
+    name: cell('name'),
+    kind: (PART_KINDS as readonly string[]).includes(kindText) ? (kindText as PartInput['kind']) : 'hardware',
+    unitOfMeasure: cell('unit_of_measure') || 'each',
+    unitCostCents: cost ?? 0,
+    weightGrams: weight ?? 0,
+    supplier: cell('supplier'),
+    leadTimeDays: whole('lead_time_days', 'the lead time in days', null),
+    reorderPoint: whole('reorder_point', 'the reorder point', 0) ?? 0,
+    reorderQuantity: whole('reorder_quantity', 'the reorder quantity', 0) ?? 0,
+    shelfLocation: cell('shelf_location'),
+    nominalSize: cell('nominal_size'),
+    outsideDiameter: od === '' ? null : length('outside_diameter', od),
+    stickLengths: sticks === '' ? [] : sticks.split(/[;|]/).map((s) => s.trim()).filter(Boolean).map((s) => length('stick_lengths', s)),
+  }
+  const parsed = PartInputSchema.safeParse(draft)
+  if (!parsed.success) {
+    const done = new Set(errors.map((e) => e.column))
+    for (const issue of parsed.error.issues) {
+      const column = PART_FIELD_COLUMNS[issue.path[0] as keyof PartInput] ?? null
+      // A cell already reported (e.g. unreadable cost) is not reported again by the part rules.
+      if (!done.has(column)) errors.push({ column, message: issue.message })
+      done.add(column)
+    }
+  }
+  if (errors.length > 0 || !parsed.success) return { ok: false, errors }
+  return { ok: true, part: parsed.data, active }
+}
