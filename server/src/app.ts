@@ -7,6 +7,7 @@ import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
 import { partsRouter } from './features/parts/parts.routes'
 import { settingsRouter } from './features/settings/settings.routes'
+import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
 import { authenticate } from './lib/auth'
 import { errorHandler } from './lib/error-handler'
@@ -27,7 +28,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
