@@ -7,6 +7,8 @@ import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { PackingListPreviewSchema, StockLedgerSchema, StockMovesResultSchema, StockPageSchema, type StockRow } from '@kitwright/shared/stock'
 import { eq } from 'drizzle-orm'
 import { offcuts, stockMoves, type PartRow } from '../../server/src/db/schema/index'
+import { DEMO_PART_SKUS, seedDemoParts } from '../../server/src/db/seed-catalog'
+import { seedDemoStock } from '../../server/src/db/seed-stock'
 import { buildApp, signedInAs } from '../support/app'
 import { insertPart, TEST_PASSWORD } from '../support/factories'
 import { createTestDb, type TestDb } from '../support/test-db'
@@ -366,5 +368,21 @@ describe('reservations under concurrency', () => {
     expect(all.status).toBe(201)
     expect(StockMovesResultSchema.parse(all.body).moves.map((m) => [m.kind, m.quantity, m.workOrderId])).toEqual([['release', -4, workOrderId]])
     expect(await stockRowOf(agent, part.id)).toMatchObject({ onHand: 10, reserved: 2, available: 8 })
+  })
+})
+
+describe('demo stock', () => {
+  it('receives opening stock once, leaving the pump and the primer low and the rest above their reorder points', async () => {
+    const { agent } = await signedInAs(app, t, 'planner')
+    await seedDemoParts(t.db)
+    await seedDemoStock(t.db)
+    const count = (await t.db.select().from(stockMoves)).length
+    await seedDemoStock(t.db)
+    expect(await t.db.select().from(stockMoves)).toHaveLength(count) // idempotent
+    const page = StockPageSchema.parse((await agent.get('/api/stock').query({ pageSize: 100 })).body)
+    expect(page.items.filter((r) => r.low).map((r) => r.sku).sort()).toEqual([DEMO_PART_SKUS.primer, DEMO_PART_SKUS.pump].sort())
+    const pipe = page.items.find((r) => r.sku === DEMO_PART_SKUS.pipeHalfInch)!
+    expect(pipe.sticks.map((s) => [s.stickLength, s.onHand])).toEqual([[TEN_FT, 40], [TWENTY_FT, 12]])
+    expect(page.items.find((r) => r.sku === DEMO_PART_SKUS.collar)).toMatchObject({ onHand: 988 })
   })
 })

@@ -8,6 +8,7 @@ import { inches } from '@kitwright/shared/domain/units'
 import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
 import { seedDemoParts } from './seed-catalog'
+import { seedDemoStock } from './seed-stock'
 
 /**
  * The demo shop, Mistwell Tote Works, and its people are invented for the demo; any likeness to a
@@ -40,6 +41,7 @@ export async function seedDemo(db: Db) {
       .onConflictDoNothing({ target: users.email })
   }
   await seedDemoParts(db)
+  await seedDemoStock(db)
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
 }
