@@ -1,6 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query'
 import { useCallback } from 'react'
-import { formatLength, parseLength, type Length } from '@kitwright/shared/domain/units'
+import { formatLength, formatLengthForInput, parseLength, type Length } from '@kitwright/shared/domain/units'
 import { ShopSettingsSchema } from '@kitwright/shared/settings'
 import { apiFetch } from './api-client'
 
@@ -20,5 +20,7 @@ export function useLengthUnit() {
   const unit = data?.displayUnit ?? 'in'
   const format = useCallback((v: Length) => formatLength(v, unit), [unit])
   const parse = useCallback((text: string) => parseLength(text, unit), [unit])
-  return { unit, format, parse }
+  /** For input fields: parsing it back gives exactly the stored length. */
+  const formatInput = useCallback((v: Length) => formatLengthForInput(v, unit), [unit])
+  return { unit, format, formatInput, parse }
 }

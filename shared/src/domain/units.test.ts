@@ -6,6 +6,7 @@ import {
   LENGTH_BASE_PER_MM,
   MAX_LENGTH,
   formatLength,
+  formatLengthForInput,
   inches,
   isLength,
   millimetres,
@@ -230,5 +231,24 @@ describe('round trips (property tests)', () => {
         expect(formatLength(parsed(canonical), 'mm')).toBe(canonical)
       }),
     )
+  })
+})
+
+describe('formatLengthForInput', () => {
+  it('gives back exactly the stored length, in both units (property)', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 0, max: 20_000_000 }), fc.constantFrom<'in' | 'mm'>('in', 'mm'), (value, unit) => {
+        const parsed = parseLength(formatLengthForInput(value, unit), unit)
+        expect(parsed).toEqual({ ok: true, value })
+      }),
+    )
+  })
+
+  it('writes 64ths as fractions and anything else as decimals', () => {
+    // ASTM D1785: 1/2 in Schedule 40 PVC is 0.840 in outside; it is no whole number of 64ths.
+    expect(formatLengthForInput(inches(0.84), 'in')).toBe('0.84 in')
+    expect(formatLengthForInput(inches(4.25), 'in')).toBe('4-1/4"')
+    expect(formatLengthForInput(inches(1 / 64), 'in')).toBe('1/64"')
+    expect(formatLengthForInput(millimetres(108), 'mm')).toBe('108 mm')
   })
 })

@@ -306,3 +306,21 @@ export function formatLength(value: Length, unit: LengthUnit, opts: FormatLength
   const shownSign = text.match(/^0(\.0+)? mm$|^0"$/) ? '' : sign
   return (opts.markRounded && !exact ? '≈' : '') + shownSign + text
 }
+
+/**
+ * Formats a length for an input field so that parsing it back gives exactly the same length:
+ * a fraction when the length is a whole number of 64ths of an inch (`4-1/4"`), otherwise decimal
+ * inches with the fewest decimals that read back exactly (`0.84 in`); millimetres likewise
+ * (`108 mm`, `21.336 mm`). Five decimals are finer than the base unit in either unit, so the
+ * loop always ends with an exact text.
+ */
+export function formatLengthForInput(value: Length, unit: LengthUnit): string {
+  if (unit === 'in' && value % (LENGTH_BASE_PER_INCH / 64) === 0) return formatLength(value, 'in', { denominator: 64 })
+  const perUnit = unit === 'mm' ? LENGTH_BASE_PER_MM : LENGTH_BASE_PER_INCH
+  // The fewest decimals that still read back as this very length.
+  for (let decimals = 0; decimals < 5; decimals++) {
+    const text = (value / perUnit).toFixed(decimals)
+    if (Math.round(Number(text) * perUnit) === value) return `${Number(text)} ${unit}`
+  }
+  return `${Number((value / perUnit).toFixed(5))} ${unit}`
+}
