@@ -8,6 +8,10 @@ export const paths = {
   cutBench: { pattern: '/bench/cut', href: () => '/bench/cut' },
   buildBench: { pattern: '/bench/build', href: () => '/bench/build' },
   packBench: { pattern: '/bench/pack', href: () => '/bench/pack' },
+  parts: { pattern: '/catalog/parts', href: () => '/catalog/parts' },
+  partNew: { pattern: '/catalog/parts/new', href: () => '/catalog/parts/new' },
+  partsImport: { pattern: '/catalog/parts/import', href: () => '/catalog/parts/import' },
+  part: { pattern: '/catalog/parts/:partId', href: (partId: string) => `/catalog/parts/${partId}` },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */
