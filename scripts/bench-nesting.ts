@@ -2,12 +2,13 @@
 // 1. Every published instance in ../shared/benchmarks/binpacking (relative to the repo root):
 //    sticks used, best known, Martello–Toth L2, first-fit decreasing, seconds; then a summary.
 // 2. A shop batch from our demo grow-tote scenario: 500 units, 7 distinct cut lengths,
-//    1/8 in kerf, 10 ft sticks, lengths in 1/1000 in; checked against the LP bound rounded up.
+//    1/8 in kerf, 10 ft sticks, lengths in the app's base unit; checked against the LP bound rounded up.
 import { existsSync, readFileSync } from 'node:fs'
 import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { firstFitDecreasing, martelloTothL2, nest } from '@kitwright/shared/domain/nesting/index'
 import type { NestPlan } from '@kitwright/shared/domain/nesting/index'
+import { inches } from '@kitwright/shared/domain/units'
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..')
 const folder = join(root, '..', 'shared', 'benchmarks', 'binpacking')
@@ -78,23 +79,23 @@ async function benchInstances(): Promise<void> {
 
 async function benchShopBatch(): Promise<void> {
   // Invented demo scenario: one grow-tote frame per unit, cut from 10 ft PVC sticks.
-  // Base unit 1/1000 in; 10 ft = 120 000; kerf 1/8 in = 125.
+  // Lengths in the app's base unit (shared/src/domain/units.ts), as the server would pass them.
   const units = 500
   const perUnit = [
-    { length: 22_250, quantity: 2, cutPartRef: 'long rail' },
-    { length: 15_750, quantity: 2, cutPartRef: 'short rail' },
-    { length: 11_500, quantity: 1, cutPartRef: 'manifold spine' },
-    { length: 9_625, quantity: 2, cutPartRef: 'riser' },
-    { length: 6_375, quantity: 1, cutPartRef: 'drain leg' },
-    { length: 3_125, quantity: 4, cutPartRef: 'sprayer stub' },
-    { length: 2_500, quantity: 2, cutPartRef: 'coupling spacer' },
+    { length: inches(22.25), quantity: 2, cutPartRef: 'long rail' },
+    { length: inches(15.75), quantity: 2, cutPartRef: 'short rail' },
+    { length: inches(11.5), quantity: 1, cutPartRef: 'manifold spine' },
+    { length: inches(9.625), quantity: 2, cutPartRef: 'riser' },
+    { length: inches(6.375), quantity: 1, cutPartRef: 'drain leg' },
+    { length: inches(3.125), quantity: 4, cutPartRef: 'sprayer stub' },
+    { length: inches(2.5), quantity: 2, cutPartRef: 'coupling spacer' },
   ]
   const pieces = perUnit.map((p) => ({ ...p, quantity: p.quantity * units }))
   const t0 = performance.now()
-  const plan = await nest({ pieces, stock: [{ id: '10ft', length: 120_000 }], kerf: 125 })
+  const plan = await nest({ pieces, stock: [{ id: '10ft', length: inches(120) }], kerf: inches(1 / 8) })
   const seconds = (performance.now() - t0) / 1000
   const lp = plan.bounds.lpCost
-  const lpSticks = lp === null ? null : Math.ceil(lp / 120_000 - 1e-9)
+  const lpSticks = lp === null ? null : Math.ceil(lp / inches(120) - 1e-9)
   console.log('')
   console.log(`shop batch: ${units} units x ${perUnit.length} lengths (${pieces.reduce((s, p) => s + p.quantity, 0)} pieces), 1/8 in kerf, 10 ft sticks`)
   console.log(
