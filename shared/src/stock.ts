@@ -138,9 +138,11 @@ export const StockLedgerSchema = z.object({
 /** One part's ledger, newest first, with its balances. */
 export type StockLedger = z.infer<typeof StockLedgerSchema>
 
-const QuantitySchema = z.number({ error: 'Enter a quantity' }).int('Use a whole number').min(1, 'Must be at least 1').max(1_000_000, 'At most 1 000 000 at once')
+/** A quantity moved: a whole number from 1 up. */
+export const StockQuantitySchema = z.number({ error: 'Enter a quantity' }).int('Use a whole number').min(1, 'Must be at least 1').max(1_000_000, 'At most 1 000 000 at once')
 const StickLengthSchema = LengthSchema.nullish().transform((v) => v ?? null)
-const ReferenceSchema = z
+/** A packing-list number or other reference; blank becomes null. */
+export const StockReferenceSchema = z
   .string()
   .trim()
   .max(80, 'Use at most 80 characters')
@@ -152,9 +154,9 @@ export const ReceiveLineSchema = z
   .object({
     partId: uuid.optional(),
     sku: z.string().trim().min(1).max(40).optional(),
-    quantity: QuantitySchema,
+    quantity: StockQuantitySchema,
     stickLength: StickLengthSchema,
-    reference: ReferenceSchema,
+    reference: StockReferenceSchema,
   })
   .strict()
   .refine((l) => l.partId !== undefined || l.sku !== undefined, { message: 'Choose a part (its id or SKU)', path: ['partId'] })
@@ -194,7 +196,7 @@ export type AdjustStockInput = z.input<typeof AdjustStockSchema>
 
 /** One line to reserve or release: a part, how many, and for pipe optionally which stick length. */
 export const ReservationLineSchema = z
-  .object({ partId: uuid, quantity: QuantitySchema, stickLength: StickLengthSchema })
+  .object({ partId: uuid, quantity: StockQuantitySchema, stickLength: StickLengthSchema })
   .strict()
 /** One line to reserve or release. */
 export type ReservationLine = z.infer<typeof ReservationLineSchema>
@@ -238,7 +240,7 @@ export type StockMovesResult = z.infer<typeof StockMovesResultSchema>
 export const PackingListSchema = z
   .object({
     csv: z.string({ error: 'Paste or upload the packing list' }).min(1, 'The packing list is empty').max(500_000, 'The file is too large: at most 500 kB'),
-    defaultReference: ReferenceSchema,
+    defaultReference: StockReferenceSchema,
   })
   .strict()
 /** A supplier packing list as CSV text. */

@@ -12,6 +12,9 @@ export const paths = {
   partNew: { pattern: '/catalog/parts/new', href: () => '/catalog/parts/new' },
   partsImport: { pattern: '/catalog/parts/import', href: () => '/catalog/parts/import' },
   part: { pattern: '/catalog/parts/:partId', href: (partId: string) => `/catalog/parts/${partId}` },
+  stock: { pattern: '/catalog/stock', href: () => '/catalog/stock' },
+  stockReceive: { pattern: '/catalog/stock/receive', href: () => '/catalog/stock/receive' },
+  stockPart: { pattern: '/catalog/stock/:partId', href: (partId: string) => `/catalog/stock/${partId}` },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

@@ -1,0 +1,43 @@
+import { z } from 'zod'
+import type { ParseLengthResult } from '@kitwright/shared/domain/units'
+import { StockQuantitySchema, StockReferenceSchema, type ReceiveStock, type StockPartOption } from '@kitwright/shared/stock'
+
+/**
+ * The receiving form: the shared receipt contract, but with the stick length as typed in the shop's
+ * unit. Parsing turns it into the shared `ReceiveStock` the API takes; the server checks again.
+ */
+export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLength: (text: string) => ParseLengthResult) {
+  const byId = new Map(parts.map((p) => [p.id, p]))
+  return z
+    .object({
+      reference: StockReferenceSchema,
+      lines: z
+        .array(
+          z.object({
+            partId: z.string().min(1, 'Choose a part'),
+            quantity: StockQuantitySchema,
+            stickLength: z.string().trim(),
+          }),
+        )
+        .min(1, 'Add at least one line'),
+    })
+    .transform((form, ctx): ReceiveStock => {
+      const lines = form.lines.map((line, i) => {
+        const part = byId.get(line.partId)
+        let stickLength: number | null = null
+        if (part?.kind === 'stock_length') {
+          if (line.stickLength === '') ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: 'Pipe is received by the stick: give the stick length' })
+          else {
+            const parsed = parseLength(line.stickLength)
+            if (parsed.ok) stickLength = parsed.value
+            else ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: parsed.message })
+          }
+        }
+        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference }
+      })
+      return { lines }
+    })
+}
+
+/** The receiving form's values as typed. */
+export type ReceiveFormValues = z.input<ReturnType<typeof makeReceiveFormSchema>>
