@@ -10,6 +10,7 @@ import { cn } from '../../lib/cn'
 const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Home', href: paths.home.href(), roles: ['admin', 'planner'] },
   { label: 'Parts', href: paths.parts.href(), roles: ['admin', 'planner'] },
+  { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
