@@ -5,6 +5,7 @@ import type { Deps } from './deps'
 import { authRouter } from './features/auth/auth.routes'
 import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
+import { ordersRouter } from './features/orders/orders.routes'
 import { partsRouter } from './features/parts/parts.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
@@ -28,7 +29,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

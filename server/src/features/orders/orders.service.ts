@@ -1,8 +1,21 @@
-import type { NewOrder, OrderSource } from '@kitwright/shared/orders'
-import type { Tx } from '../../db/client'
+import type { NewOrder, OrderDetail, OrderListQuery, OrderSource, OrdersPage } from '@kitwright/shared/orders'
+import type { Db, Tx } from '../../db/client'
 import type { OrderEventRow, OrderRow } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
-import { insertOrderEvent, insertOrderIfNew, insertOrderLines, selectKitsForLines, selectOrderByNumber } from './orders.queries'
+import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
+import { writeOrdersCsv } from './orders.csv'
+import { toOrder, toOrderDetail } from './orders.mapper'
+import {
+  countOrders,
+  insertOrderEvent,
+  insertOrderIfNew,
+  insertOrderLines,
+  selectExportLines,
+  selectKitsForLines,
+  selectOrderByNumber,
+  selectOrdersPage,
+  selectOrderTree,
+} from './orders.queries'
 
 /** Who did something to an order; null when it was the store or the system. */
 export type OrderActor = Pick<SessionUser, 'id' | 'name'> | null
@@ -116,4 +129,89 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
     })
   }
   return { order, created: true }
+}
+
+function checkDateRange(q: Pick<OrderListQuery, 'from' | 'to'>) {
+  if (q.from && q.to && q.from > q.to) throw new BadRequest(`The "from" date ${q.from} is after the "to" date ${q.to}; swap them`, { from: 'After the "to" date' })
+}
+
+export async function listOrders(db: Db, q: OrderListQuery): Promise<OrdersPage> {
+  checkDateRange(q)
+  const rows = await selectOrdersPage(db, { ...q, limit: q.pageSize, offset: (q.page - 1) * q.pageSize })
+  // Past the last page the count still tells the client where the last page is.
+  const total = rows[0]?.total ?? (q.page > 1 ? await countOrders(db, q) : 0)
+  return { items: rows.map(toOrder), total, page: q.page, pageSize: q.pageSize }
+}
+
+export async function getOrder(db: Db | Tx, id: string): Promise<OrderDetail> {
+  const tree = await selectOrderTree(db, id)
+  if (!tree) throw new NotFound('No such order')
+  return toOrderDetail(tree)
+}
+
+function numberTaken(number: string) {
+  return new Conflict(`An order numbered ${number} already exists; open it, or give this order another number`, { number: 'Already in use' })
+}
+
+/** Kit SKUs a hand-entered or imported line names that match no kit, with the line's index. */
+export async function unknownKitSkus(db: Db | Tx, lines: NewOrder['lines']): Promise<{ index: number; sku: string }[]> {
+  const skus = lines.flatMap((l) => (l.kitSku ? [l.kitSku] : []))
+  const found = new Set((await selectKitsForLines(db, skus, [])).map((k) => k.sku.toLowerCase()))
+  return lines.flatMap((l, index) => (l.kitSku && !found.has(l.kitSku.toLowerCase()) ? [{ index, sku: l.kitSku }] : []))
+}
+
+/**
+ * A phone order typed in by a planner: refused (409, pointing at the number) when the number is
+ * taken, and (400) when a line names a kit SKU that does not exist, since the form offers only kits.
+ */
+export async function createPhoneOrder(db: Db, input: NewOrder, actor: NonNullable<OrderActor>): Promise<OrderDetail> {
+  const unknown = await unknownKitSkus(db, input.lines)
+  if (unknown.length > 0) {
+    const fields = Object.fromEntries(unknown.map((u) => [`lines.${u.index}.kitSku`, `No kit has the SKU ${u.sku}`]))
+    throw new BadRequest(`Line ${unknown[0]!.index + 1}: no kit has the SKU ${unknown[0]!.sku}; choose one of the kits`, fields)
+  }
+  return db.transaction(async (tx) => {
+    const { order, created } = await createOrder(tx, input, 'phone', actor)
+    if (!created) throw numberTaken(input.number)
+    return getOrder(tx, order.id)
+  })
+}
+
+const money = (cents: number) => (cents / 100).toFixed(2)
+
+/** Every line of the orders matching the list's filters (not just one page), as CSV. */
+export async function exportOrdersCsv(db: Db, q: Omit<OrderListQuery, 'page' | 'pageSize'>): Promise<string> {
+  checkDateRange(q)
+  const rows = await selectExportLines(db, q)
+  return writeOrdersCsv(
+    rows.map((r) => ({
+      record: {
+        order_number: r.number,
+        placed_at: (r.placedAt instanceof Date ? r.placedAt : new Date(r.placedAt)).toISOString(),
+        promised_ship_date: r.promisedShipDate ?? '',
+        customer_name: r.customerName,
+        customer_email: r.customerEmail,
+        customer_phone: r.customerPhone ?? '',
+        ship_name: r.shipName,
+        ship_line1: r.shipLine1,
+        ship_line2: r.shipLine2 ?? '',
+        ship_city: r.shipCity,
+        ship_region: r.shipRegion ?? '',
+        ship_postal_code: r.shipPostalCode,
+        ship_country: r.shipCountry,
+        currency: r.currency,
+        payment_status: r.paymentStatus,
+        note: r.note ?? '',
+        // A line that maps to no kit exports its store product, so it imports back the same way.
+        kit_sku: r.kitSku ?? (r.storeProductId ? '' : r.sku),
+        store_product_id: r.storeProductId ?? '',
+        description: r.description,
+        quantity: String(r.quantity),
+        unit_price: money(r.unitPriceCents),
+        status: r.status,
+        source: r.source,
+        line_total: money(r.quantity * r.unitPriceCents),
+      },
+    })),
+  )
 }

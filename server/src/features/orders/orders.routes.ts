@@ -1,0 +1,36 @@
+import { NewOrderSchema, OrderListQuerySchema } from '@kitwright/shared/orders'
+import { OrderCsvBodySchema } from '@kitwright/shared/orders-csv'
+import { IdParamsSchema } from '@kitwright/shared/users'
+import type { Deps } from '../../deps'
+import { currentUser } from '../../lib/auth'
+import type { RouteTable } from '../../lib/routes'
+import { importOrders, previewOrdersImport } from './orders-import.service'
+import { createPhoneOrder, exportOrdersCsv, getOrder, listOrders } from './orders.service'
+
+export function ordersRouter(deps: Deps, routes: RouteTable) {
+  const r = routes.router('/api/orders')
+  const planners = ['admin', 'planner'] as const
+  r.get('/', planners, async (req, res) => {
+    res.json(await listOrders(deps.db, OrderListQuerySchema.parse(req.query)))
+  })
+  r.get('/export.csv', planners, async (req, res) => {
+    const { page: _page, pageSize: _size, ...query } = OrderListQuerySchema.parse(req.query)
+    const csv = await exportOrdersCsv(deps.db, query)
+    const day = new Date().toISOString().slice(0, 10)
+    res.type('text/csv; charset=utf-8').attachment(`orders-${day}.csv`).send(csv)
+  })
+  r.post('/import/preview', planners, async (req, res) => {
+    res.json(await previewOrdersImport(deps.db, OrderCsvBodySchema.parse(req.body).csv))
+  })
+  r.post('/import', planners, async (req, res) => {
+    res.json(await importOrders(deps.db, OrderCsvBodySchema.parse(req.body).csv, currentUser(req)))
+  })
+  r.get('/:id', planners, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    res.json(await getOrder(deps.db, id))
+  })
+  r.post('/', planners, async (req, res) => {
+    res.status(201).json(await createPhoneOrder(deps.db, NewOrderSchema.parse(req.body), currentUser(req)))
+  })
+  return r
+}
