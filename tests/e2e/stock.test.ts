@@ -83,7 +83,7 @@ describe('the stock page, in Chromium', () => {
     await page.waitForURL(new RegExp(`q=${DEMO_PART_SKUS.pump}`))
     await stockRow(DEMO_PART_SKUS.pump).getByRole('cell', { name: `${before + 10} each`, exact: true }).waitFor()
     // Now above its reorder point: no longer low.
-    expect(await stockRow(DEMO_PART_SKUS.pump).getAttribute('data-low')).toBeNull()
+    await expect.poll(() => stockRow(DEMO_PART_SKUS.pump).getAttribute('data-low')).toBeNull()
 
     // The part's ledger explains the new figure, newest move first, with who received it.
     await stockRow(DEMO_PART_SKUS.pump).getByRole('link', { name: DEMO_PART_SKUS.pump }).click()

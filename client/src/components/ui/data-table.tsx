@@ -1,5 +1,4 @@
 import {
-  flexRender,
   getCoreRowModel,
   getFilteredRowModel,
   getSortedRowModel,
@@ -9,6 +8,7 @@ import {
 } from '@tanstack/react-table'
 import { useState } from 'react'
 import { Input } from './field'
+import { TableView } from './table-view'
 
 /**
  * A table for short lists that live wholly in the browser (sorting and search here). Long lists
@@ -39,49 +39,7 @@ export function DataTable<T>({ data, columns, searchLabel }: { data: T[]; column
           className="max-w-sm"
         />
       )}
-      <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
-        <table className="w-full text-left">
-          <thead className="bg-stone-50 text-sm text-stone-600">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted()
-                  return (
-                    <th key={header.id} className="px-3 py-2 font-bold" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                      {header.isPlaceholder ? null : header.column.getCanSort() ? (
-                        <button type="button" className="font-bold" onClick={header.column.getToggleSortingHandler()}>
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          {sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}
-                        </button>
-                      ) : (
-                        flexRender(header.column.columnDef.header, header.getContext())
-                      )}
-                    </th>
-                  )
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className="border-t border-stone-200">
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
-                ))}
-              </tr>
-            ))}
-            {table.getRowModel().rows.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-stone-500">
-                  Nothing to show
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
+      <TableView table={table} emptyText="Nothing to show" />
     </div>
   )
 }

@@ -1,9 +1,6 @@
-import { flexRender, getCoreRowModel, useReactTable, type SortingState, type Updater } from '@tanstack/react-table'
 import { useMemo } from 'react'
-import { pageCount, PAGE_SIZES } from '@kitwright/shared/pagination'
-import type { Part, PartListQuery, PartSortField } from '@kitwright/shared/parts'
-import { Button } from '../../../components/ui/button'
-import { Select } from '../../../components/ui/field'
+import type { Part, PartListQuery } from '@kitwright/shared/parts'
+import { ServerTable } from '../../../components/ui/server-table'
 import { useLengthUnit } from '../../../lib/shop-settings'
 import { getPartsColumns } from './parts-columns'
 
@@ -19,90 +16,18 @@ interface Props {
 export function PartsTable({ items, total, query, onQueryChange, loading }: Props) {
   const { format } = useLengthUnit()
   const columns = useMemo(() => getPartsColumns(format), [format])
-  const sorting: SortingState = [{ id: query.sort, desc: query.dir === 'desc' }]
-  const pages = pageCount(total, query.pageSize)
-  const table = useReactTable({
-    data: items,
-    columns,
-    state: { sorting, pagination: { pageIndex: query.page - 1, pageSize: query.pageSize } },
-    manualPagination: true,
-    manualSorting: true,
-    enableSortingRemoval: false,
-    pageCount: pages,
-    getRowId: (p) => p.id,
-    onSortingChange: (updater: Updater<SortingState>) => {
-      const next = typeof updater === 'function' ? updater(sorting) : updater
-      const first = next[0]
-      if (first) onQueryChange({ sort: first.id as PartSortField, dir: first.desc ? 'desc' : 'asc', page: 1 })
-    },
-    getCoreRowModel: getCoreRowModel(),
-  })
   return (
-    <div className="space-y-3">
-      <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white" aria-busy={loading}>
-        <table className="w-full text-left" aria-label="Parts">
-          <thead className="bg-stone-50 text-sm text-stone-600">
-            {table.getHeaderGroups().map((group) => (
-              <tr key={group.id}>
-                {group.headers.map((header) => {
-                  const sorted = header.column.getIsSorted()
-                  return (
-                    <th key={header.id} className="px-3 py-2 font-bold whitespace-nowrap" aria-sort={sorted === 'asc' ? 'ascending' : sorted === 'desc' ? 'descending' : undefined}>
-                      {header.column.getCanSort() ? (
-                        <button type="button" className="font-bold" onClick={header.column.getToggleSortingHandler()}>
-                          {flexRender(header.column.columnDef.header, header.getContext())}
-                          {sorted === 'asc' ? ' ▲' : sorted === 'desc' ? ' ▼' : ''}
-                        </button>
-                      ) : (
-                        flexRender(header.column.columnDef.header, header.getContext())
-                      )}
-                    </th>
-                  )
-                })}
-              </tr>
-            ))}
-          </thead>
-          <tbody>
-            {table.getRowModel().rows.map((row) => (
-              <tr key={row.id} className="border-t border-stone-200">
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-3 py-2 align-middle">
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
-                ))}
-              </tr>
-            ))}
-            {items.length === 0 && (
-              <tr>
-                <td colSpan={columns.length} className="px-3 py-6 text-center text-stone-500">
-                  {loading ? 'Loading parts…' : 'No parts match; clear the search or the filters'}
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
-      <div className="flex flex-wrap items-center gap-3">
-        <Button size="sm" variant="secondary" disabled={query.page <= 1} onClick={() => onQueryChange({ page: query.page - 1 })}>
-          Previous
-        </Button>
-        <span>
-          Page {Math.min(query.page, pages)} of {pages} · {total} {total === 1 ? 'part' : 'parts'}
-        </span>
-        <Button size="sm" variant="secondary" disabled={query.page >= pages} onClick={() => onQueryChange({ page: query.page + 1 })}>
-          Next
-        </Button>
-        <label className="ml-auto flex items-center gap-2 text-sm">
-          Per page
-          <Select className="h-9 w-24" value={query.pageSize} onChange={(e) => onQueryChange({ pageSize: Number(e.target.value), page: 1 })}>
-            {PAGE_SIZES.map((n) => (
-              <option key={n} value={n}>
-                {n}
-              </option>
-            ))}
-          </Select>
-        </label>
-      </div>
-    </div>
+    <ServerTable
+      label="Parts"
+      items={items}
+      total={total}
+      columns={columns}
+      query={query}
+      onQueryChange={onQueryChange}
+      loading={loading}
+      getRowId={(p) => p.id}
+      noun={['part', 'parts']}
+      emptyText="No parts match; clear the search or the filters"
+    />
   )
 }
