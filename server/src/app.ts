@@ -3,6 +3,8 @@ import express from 'express'
 import helmet from 'helmet'
 import type { Deps } from './deps'
 import { authRouter } from './features/auth/auth.routes'
+import { binsRouter } from './features/bins/bins.routes'
+import { cutRunsRouter } from './features/cut-runs/cut-runs.routes'
 import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
 import { ordersRouter } from './features/orders/orders.routes'
@@ -29,7 +31,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter, cutRunsRouter, binsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
