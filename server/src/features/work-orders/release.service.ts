@@ -1,0 +1,192 @@
+import type { ReleaseOrders, ReleaseResult, ReleasedOrder, ReleaseShortage } from '@kitwright/shared/work-orders'
+import { shortageFieldKey } from '@kitwright/shared/work-orders'
+import type { Db, Tx } from '../../db/client'
+import { Conflict, HttpError, NotFound } from '../../lib/http-errors'
+import { addOrderEvent } from '../orders/orders.service'
+import { reserveStock, type Actor } from '../stock/stock.service'
+import { lockParts, selectBuckets } from '../stock/stock.queries'
+import {
+  insertWorkOrders,
+  lockOrder,
+  mapLineToKit,
+  markReleased,
+  nextSerials,
+  selectBomLines,
+  selectKitsByStoreProduct,
+  selectLines,
+  selectNewestReleasedRevisions,
+  selectOrderNumbersById,
+  selectRevisionsWithCutParts,
+} from './release.queries'
+
+/** A unit's serial number as printed on its bin label and build record: `U-1001`. */
+export function formatSerial(n: number): string {
+  return `U-${n}`
+}
+
+/** Free stock per part (on hand − all reservations), read after the parts are locked. */
+async function lockedAvailable(tx: Tx, partIds: readonly string[]): Promise<Map<string, number>> {
+  await lockParts(tx, partIds)
+  const available = new Map<string, number>()
+  for (const b of await selectBuckets(tx, partIds)) available.set(b.partId, (available.get(b.partId) ?? 0) + b.onHand - b.reserved)
+  return available
+}
+
+/**
+ * Releases one order inside the caller's transaction: one work order per unit of each kit line, at
+ * the kit's newest released revision (frozen on the work order), serials from the shop's sequence,
+ * due on the promised ship date; the hardware and packaging of each unit's BOM reserved for its
+ * work order. Pipe is reserved later, when a cut run is published. A revision with no cut parts
+ * (a spare-parts pack) skips the benches and goes straight to packing.
+ *
+ * The order row is locked first, so two planners releasing the same order queue and the second is
+ * told it is released; parts are then locked in id order by the stock ledger, so concurrent
+ * releases never reserve more than is free. When stock is short, the release is refused (409,
+ * naming each short part) unless `allowShort`, which reserves what is free, unit by unit in serial
+ * order, and records the rest as a shortage on the timeline (the shortages page computes it live).
+ */
+export async function releaseOrder(tx: Tx, orderId: string, options: { allowShort: boolean }, actor: Actor): Promise<ReleasedOrder> {
+  const order = await lockOrder(tx, orderId)
+  if (!order) throw new NotFound('No such order')
+  if (order.status === 'cancelled') throw new Conflict(`Order ${order.number} is cancelled; a cancelled order cannot be released`)
+  if (order.status !== 'open') throw new Conflict(`Order ${order.number} is already released; its work orders are on the order page`)
+  if (order.source === 'store' && order.paymentStatus !== 'paid') {
+    throw new Conflict(`Order ${order.number} is not paid yet (payment ${order.paymentStatus}); release it when the store reports it paid`)
+  }
+
+  // A line that mapped to no kit when it came in may map now, if the planner has since set the store product on a kit.
+  const lines = await selectLines(tx, order.id)
+  const unmapped = lines.filter((l) => l.kitId === null)
+  const byProduct = new Map((await selectKitsByStoreProduct(tx, unmapped.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k]))
+  for (const line of unmapped) {
+    const kit = line.storeProductId ? byProduct.get(line.storeProductId) : undefined
+    if (!kit) {
+      throw new Conflict(`Order ${order.number}, line ${line.lineNo}: ${line.sku} (${line.description}) maps to no kit; set it as the store product of a kit, then release`, {
+        [`lines.${line.lineNo - 1}.kitId`]: 'Maps to no kit',
+      })
+    }
+    await mapLineToKit(tx, line.id, kit)
+    Object.assign(line, { kitId: kit.id, sku: kit.sku, description: kit.name })
+    await addOrderEvent(tx, { orderId: order.id, kind: 'note', message: `Line ${line.lineNo} now maps to kit ${kit.sku} (${kit.name})`, actor })
+  }
+
+  const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(lines.map((l) => l.kitId!))])).map((r) => [r.kitId, r]))
+  for (const line of lines) {
+    if (!revisions.has(line.kitId!)) {
+      throw new Conflict(`Order ${order.number}: kit ${line.sku} has no released revision; release one on the kits page, then release the order`, {
+        [`lines.${line.lineNo - 1}.kitId`]: 'No released revision',
+      })
+    }
+  }
+  const revisionIds = [...new Set([...revisions.values()].map((r) => r.id))]
+  const bom = await selectBomLines(tx, revisionIds)
+  const withCuts = await selectRevisionsWithCutParts(tx, revisionIds)
+
+  // What the whole order needs, against what is free once the parts are locked.
+  const needed = new Map<string, { sku: string; name: string; quantity: number }>()
+  for (const line of lines) {
+    const rev = revisions.get(line.kitId!)!
+    for (const b of bom.filter((x) => x.revisionId === rev.id)) {
+      const n = needed.get(b.partId) ?? { sku: b.sku, name: b.name, quantity: 0 }
+      needed.set(b.partId, { ...n, quantity: n.quantity + b.quantity * line.quantity })
+    }
+  }
+  const free = await lockedAvailable(tx, [...needed.keys()])
+  const short = [...needed.entries()].filter(([partId, n]) => n.quantity > Math.max(0, free.get(partId) ?? 0))
+  if (short.length > 0 && !options.allowShort) {
+    const words = short.map(([partId, n]) => `${n.sku} ${n.name}: needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`)
+    const fields = Object.fromEntries(short.map(([partId, n]) => [shortageFieldKey(n.sku), `Needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`]))
+    throw new Conflict(`Not enough stock to release order ${order.number}: ${words.join('; ')}. Receive stock, or release anyway with the shortage recorded.`, fields)
+  }
+
+  // One work order per unit, serials in line order.
+  const units = lines.flatMap((line) => Array.from({ length: line.quantity }, () => ({ line, rev: revisions.get(line.kitId!)! })))
+  const serials = (await nextSerials(tx, units.length)).sort((a, b) => a - b)
+  const created = await insertWorkOrders(
+    tx,
+    units.map(({ line, rev }, i) => ({
+      serial: formatSerial(serials[i]!),
+      orderId: order.id,
+      orderLineId: line.id,
+      kitRevisionId: rev.id,
+      status: withCuts.has(rev.id) ? ('waiting_cut' as const) : ('built' as const),
+      dueDate: order.promisedShipDate,
+    })),
+  )
+
+  // Reserve each unit's BOM for its work order; with allowShort, what is free goes to the lowest serials first.
+  const remaining = new Map([...needed.keys()].map((partId) => [partId, Math.max(0, free.get(partId) ?? 0)]))
+  const reservedByPart = new Map<string, number>()
+  for (const wo of created) {
+    const lines = bom
+      .filter((b) => b.revisionId === wo.kitRevisionId)
+      .map((b) => {
+        const quantity = Math.min(b.quantity, remaining.get(b.partId) ?? 0)
+        remaining.set(b.partId, (remaining.get(b.partId) ?? 0) - quantity)
+        reservedByPart.set(b.partId, (reservedByPart.get(b.partId) ?? 0) + quantity)
+        return { partId: b.partId, quantity, stickLength: null }
+      })
+      .filter((l) => l.quantity > 0)
+    if (lines.length > 0) await reserveStock(tx, { workOrderId: wo.id, lines, reason: `Order ${order.number}, unit ${wo.serial}` }, actor)
+  }
+
+  await markReleased(tx, order.id)
+  const shortages: ReleaseShortage[] = [...needed.entries()]
+    .map(([partId, n]) => ({ partId, sku: n.sku, name: n.name, needed: n.quantity, reserved: reservedByPart.get(partId) ?? 0, short: n.quantity - (reservedByPart.get(partId) ?? 0) }))
+    .filter((s) => s.short > 0)
+  const codes = [...new Set(units.map((u) => `${u.rev.kitSku} rev ${u.rev.code}`))].join(', ')
+  const range = created.length === 1 ? created[0]!.serial : `${created[0]!.serial} to ${created.at(-1)!.serial}`
+  const packs = created.filter((w) => w.status === 'built').length
+  await addOrderEvent(tx, {
+    orderId: order.id,
+    kind: 'released',
+    message:
+      `Released into ${created.length} work order${created.length === 1 ? '' : 's'} (${range}; ${codes}). Hardware and packaging reserved; pipe is reserved when a cut run is published.` +
+      (packs > 0 ? ` ${packs} spare-parts unit${packs === 1 ? ' goes' : 's go'} straight to packing.` : ''),
+    data: { workOrders: created.map((w) => w.serial) },
+    actor,
+  })
+  if (shortages.length > 0) {
+    await addOrderEvent(tx, {
+      orderId: order.id,
+      kind: 'shortage',
+      message: `Released with parts short: ${shortages.map((s) => `${s.sku} ${s.name} short ${s.short} of ${s.needed}`).join('; ')}. The units wait for parts; see the shortages page.`,
+      data: { shortages },
+      actor,
+    })
+  }
+  const bySerial = new Map(units.map((u, i) => [formatSerial(serials[i]!), u.rev]))
+  return {
+    orderId: order.id,
+    number: order.number,
+    workOrders: created.map((w) => ({ id: w.id, serial: w.serial, status: w.status, kitSku: bySerial.get(w.serial)!.kitSku, revisionCode: bySerial.get(w.serial)!.code })),
+    shortages,
+  }
+}
+
+/**
+ * Releases each order in its own transaction. The answer lists what was released and what was
+ * refused and why; when nothing could be released, the refusal itself is thrown (for one order,
+ * its own 409 or 404, naming what is short).
+ */
+export async function releaseOrders(db: Db, input: ReleaseOrders, actor: Actor): Promise<ReleaseResult> {
+  const result: ReleaseResult = { released: [], refused: [] }
+  const errors: HttpError[] = []
+  for (const orderId of [...new Set(input.orderIds)]) {
+    try {
+      result.released.push(await db.transaction((tx) => releaseOrder(tx, orderId, { allowShort: input.allowShort }, actor)))
+    } catch (err) {
+      if (!(err instanceof HttpError)) throw err
+      errors.push(err)
+      result.refused.push({ orderId, number: null, status: err.status, message: err.message })
+    }
+  }
+  const numbers = await selectOrderNumbersById(db, result.refused.map((r) => r.orderId))
+  for (const r of result.refused) r.number = numbers.get(r.orderId) ?? null
+  if (result.released.length === 0) {
+    if (errors.length === 1) throw errors[0]!
+    const fields = Object.fromEntries(result.refused.map((r) => [`orders.${r.orderId}`, r.message]))
+    throw new Conflict(`None of the ${errors.length} orders was released: ${result.refused.map((r) => r.message).join(' | ')}`, fields)
+  }
+  return result
+}

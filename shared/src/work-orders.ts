@@ -1,0 +1,106 @@
+import { z } from 'zod'
+import { PartKindSchema } from './parts'
+import { WorkOrderStatusSchema } from './orders'
+
+const uuid = z.string().uuid('Not a valid id')
+
+/**
+ * Release orders into work orders. Each order is released in its own transaction; with
+ * `allowShort`, an order whose hardware or packaging is short is released anyway, reserving what is
+ * available and leaving the rest as a shortage.
+ */
+export const ReleaseOrdersSchema = z
+  .object({
+    orderIds: z.array(uuid).min(1, 'Choose at least one order').max(100, 'Release at most 100 orders at once'),
+    allowShort: z.boolean().default(false),
+  })
+  .strict()
+/** Release orders into work orders. */
+export type ReleaseOrders = z.infer<typeof ReleaseOrdersSchema>
+/** Release orders into work orders, before defaults. */
+export type ReleaseOrdersInput = z.input<typeof ReleaseOrdersSchema>
+
+/** A part an order (or the open work orders) needs more of than there is free. */
+export const ReleaseShortageSchema = z.object({
+  partId: uuid,
+  sku: z.string(),
+  name: z.string(),
+  needed: z.number().int(),
+  reserved: z.number().int(),
+  /** How many were missing when the order was released. */
+  short: z.number().int(),
+})
+/** A part short at release. */
+export type ReleaseShortage = z.infer<typeof ReleaseShortageSchema>
+
+/** One order released: its new work orders and what it is short. */
+export const ReleasedOrderSchema = z.object({
+  orderId: uuid,
+  number: z.string(),
+  workOrders: z.array(
+    z.object({ id: uuid, serial: z.string(), status: WorkOrderStatusSchema, kitSku: z.string(), revisionCode: z.string() }),
+  ),
+  shortages: z.array(ReleaseShortageSchema),
+})
+/** One order released. */
+export type ReleasedOrder = z.infer<typeof ReleasedOrderSchema>
+
+/**
+ * What a release did, order by order. When no order could be released the API answers with the
+ * error instead (409 naming what is short, or why the order cannot be released).
+ */
+export const ReleaseResultSchema = z.object({
+  released: z.array(ReleasedOrderSchema),
+  refused: z.array(z.object({ orderId: uuid, number: z.string().nullable(), status: z.number().int(), message: z.string() })),
+})
+/** What a release did. */
+export type ReleaseResult = z.infer<typeof ReleaseResultSchema>
+
+/** The field key under which a release refused for shortage names a short part: `short.<SKU>`. */
+export function shortageFieldKey(sku: string): string {
+  return `short.${sku}`
+}
+
+/**
+ * One part on the shortages page. For hardware and packaging, in units: what the open work orders
+ * still need (their BOM × units, less what was consumed), what is reserved for them, what is free in
+ * stock, and `short` = needed − reserved − available when above zero. For pipe (kept by the stick and
+ * reserved only when a cut run is published), the same in sticks, estimated from the cut parts: the
+ * total cut length with kerf over the longest stick length, rounded up.
+ */
+export const ShortageRowSchema = z.object({
+  partId: uuid,
+  sku: z.string(),
+  name: z.string(),
+  kind: PartKindSchema,
+  unitOfMeasure: z.string(),
+  needed: z.number().int(),
+  reserved: z.number().int(),
+  available: z.number().int(),
+  short: z.number().int(),
+  /** Open work orders that need this part. */
+  workOrderCount: z.number().int(),
+  /** Pipe only: total length to cut (pieces + one kerf each), in base units. */
+  cutLength: z.number().int().nullable(),
+  /** Pipe only: the longest stick length the part is bought in, in base units. */
+  stickLength: z.number().int().nullable(),
+  supplier: z.string().nullable(),
+  leadTimeDays: z.number().int().nullable(),
+  reorderQuantity: z.number().int(),
+})
+/** One part on the shortages page. */
+export type ShortageRow = z.infer<typeof ShortageRowSchema>
+
+/** The shortages page: every part the open work orders need, short ones first. */
+export const ShortagesSchema = z.object({
+  rows: z.array(ShortageRowSchema),
+  /** Open work orders counted (not shipped, packed or cancelled). */
+  openWorkOrders: z.number().int(),
+})
+/** The shortages page. */
+export type Shortages = z.infer<typeof ShortagesSchema>
+
+/** Which parts the shortages page lists. */
+export const ShortagesQuerySchema = z.object({ only: z.enum(['short', 'all'], { error: 'Use short or all' }).default('short') }).strict()
+/** Which parts the shortages page lists. */
+export type ShortagesQuery = z.infer<typeof ShortagesQuerySchema>
