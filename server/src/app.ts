@@ -32,7 +32,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter, cutRunsRouter, binsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
