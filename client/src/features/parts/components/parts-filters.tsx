@@ -1,6 +1,7 @@
-import { useEffect, useState } from 'react'
+import { useCallback } from 'react'
 import { PART_KINDS, PART_KIND_LABELS, type PartListQuery } from '@kitwright/shared/parts'
-import { Input, Select } from '../../../components/ui/field'
+import { Select } from '../../../components/ui/field'
+import { SearchField } from '../../../components/ui/search-field'
 
 interface Props {
   query: PartListQuery
@@ -9,20 +10,10 @@ interface Props {
 
 /** Search and filters of the parts list; every change goes to the URL and back to page 1. */
 export function PartsFilters({ query, onQueryChange }: Props) {
-  const [search, setSearch] = useState(query.q ?? '')
-  // Follow the URL when it changes from outside (back button, a link).
-  useEffect(() => setSearch(query.q ?? ''), [query.q])
-  useEffect(() => {
-    if (search.trim() === (query.q ?? '')) return
-    const timer = setTimeout(() => onQueryChange({ q: search.trim() || undefined, page: 1 }), 250)
-    return () => clearTimeout(timer)
-  }, [search, query.q, onQueryChange])
+  const onSearch = useCallback((q: string | undefined) => onQueryChange({ q, page: 1 }), [onQueryChange])
   return (
     <div className="flex flex-wrap items-end gap-3">
-      <label className="block space-y-1">
-        <span className="block text-sm font-bold text-stone-700">Search</span>
-        <Input type="search" placeholder="SKU, name or supplier" value={search} onChange={(e) => setSearch(e.target.value)} className="w-72" />
-      </label>
+      <SearchField value={query.q} onSearch={onSearch} placeholder="SKU, name or supplier" />
       <label className="block space-y-1">
         <span className="block text-sm font-bold text-stone-700">Kind</span>
         <Select

@@ -1,7 +1,8 @@
-import { useEffect, useState } from 'react'
+import { useCallback } from 'react'
 import { PART_KINDS, PART_KIND_LABELS } from '@kitwright/shared/parts'
 import type { StockListQuery } from '@kitwright/shared/stock'
-import { Input, Select } from '../../../components/ui/field'
+import { Select } from '../../../components/ui/field'
+import { SearchField } from '../../../components/ui/search-field'
 
 interface Props {
   query: StockListQuery
@@ -10,19 +11,10 @@ interface Props {
 
 /** Search and filters of the stock page; every change goes to the URL and back to page 1. */
 export function StockFilters({ query, onQueryChange }: Props) {
-  const [search, setSearch] = useState(query.q ?? '')
-  useEffect(() => setSearch(query.q ?? ''), [query.q])
-  useEffect(() => {
-    if (search.trim() === (query.q ?? '')) return
-    const timer = setTimeout(() => onQueryChange({ q: search.trim() || undefined, page: 1 }), 250)
-    return () => clearTimeout(timer)
-  }, [search, query.q, onQueryChange])
+  const onSearch = useCallback((q: string | undefined) => onQueryChange({ q, page: 1 }), [onQueryChange])
   return (
     <div className="flex flex-wrap items-end gap-3">
-      <label className="block space-y-1">
-        <span className="block text-sm font-bold text-stone-700">Search</span>
-        <Input type="search" placeholder="SKU, name or shelf" value={search} onChange={(e) => setSearch(e.target.value)} className="w-72" />
-      </label>
+      <SearchField value={query.q} onSearch={onSearch} placeholder="SKU, name or shelf" />
       <label className="block space-y-1">
         <span className="block text-sm font-bold text-stone-700">Kind</span>
         <Select value={query.kind ?? ''} onChange={(e) => onQueryChange({ kind: (e.target.value || undefined) as StockListQuery['kind'], page: 1 })} className="w-48">
