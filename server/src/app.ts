@@ -7,16 +7,19 @@ import { binsRouter } from './features/bins/bins.routes'
 import { cutRunsRouter } from './features/cut-runs/cut-runs.routes'
 import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
+import { mailRouter } from './features/mail/mail.routes'
 import { ordersRouter } from './features/orders/orders.routes'
 import { partsRouter } from './features/parts/parts.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
+import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { authenticate } from './lib/auth'
 import { errorHandler } from './lib/error-handler'
 import { NotFound } from './lib/http-errors'
 import { requestLogger } from './lib/logger'
+import { keepRawBody } from './lib/raw-body'
 import { RouteTable } from './lib/routes'
 
 /** Builds the Express app; listens nowhere (index.ts does), so tests drive it with supertest. */
@@ -27,12 +30,12 @@ export function createApp(deps: Deps) {
   app.disable('x-powered-by')
   app.use(helmet())
   app.use(requestLogger(deps.logger))
-  app.use(express.json({ limit: '1mb' }))
+  app.use(express.json({ limit: '1mb', verify: keepRawBody }))
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -1,6 +1,7 @@
 import type pg from 'pg'
 import type { Db } from './db/client'
 import type { TokenConfig } from './lib/auth'
+import type { Jobs } from './lib/jobs'
 import type { Logger } from './lib/logger'
 
 /** Everything the app needs from outside; built from the environment in index.ts, by hand in tests. */
@@ -9,6 +10,12 @@ export interface Deps {
   pool: pg.Pool
   logger: Logger
   tokens: TokenConfig
+  /** The PostgreSQL-backed job queue (pg-boss): webhook processing and e-mail run through it. */
+  jobs: Jobs
+  /** Where customer e-mail goes out: an SMTP relay (or the local catcher) and the sender address. */
+  mail: { smtpUrl?: string; from: string }
+  /** Shared with the web store to sign webhook deliveries; without it the webhook refuses every delivery. */
+  storeWebhookSecret?: string
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

@@ -1,15 +1,24 @@
 import { createApp } from './app'
 import { createDb } from './db/client'
 import { readEnv } from './env'
+import { createJobs } from './lib/jobs'
 import { createLogger } from './lib/logger'
+import { startWorkers } from './workers'
 
 const env = readEnv()
 const logger = createLogger(env.LOG_LEVEL)
 const { db, pool } = createDb(env.DATABASE_URL)
+const jobs = createJobs({ connectionString: env.DATABASE_URL, logger })
+await jobs.start()
+const mail = { smtpUrl: env.SMTP_URL, from: env.MAIL_FROM }
+if (env.RUN_WORKERS === 'true') await startWorkers({ db, jobs, logger, mail })
 const { app } = createApp({
   db,
   pool,
   logger,
+  jobs,
+  mail,
+  storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
   tokens: {
     secret: new TextEncoder().encode(env.SESSION_SECRET),
     lifetimeSeconds: env.SESSION_MINUTES * 60,
@@ -24,8 +33,9 @@ const server = app.listen(env.PORT, env.HOST, () => {
 })
 
 function shutdown() {
-  server.close(() => void pool.end().then(() => process.exit(0)))
-  setTimeout(() => process.exit(0), 5000).unref()
+  // Running jobs get a few seconds to finish; an unfinished one is retried by the next process.
+  server.close(() => void jobs.stop().finally(() => pool.end().then(() => process.exit(0))))
+  setTimeout(() => process.exit(0), 15_000).unref()
 }
 process.on('SIGINT', shutdown)
 process.on('SIGTERM', shutdown)

@@ -23,6 +23,10 @@ beforeAll(async () => {
 })
 afterAll(() => t.drop())
 
+// Public routes that check a signature of their own (the store webhook) answer an unsigned call with
+// 401; that answer is theirs, not the access guard's, so for them only 403 and 5xx count as failures.
+const SIGNED_PUBLIC_ROUTES = new Set(['post /api/webhooks/store'])
+
 type Caller = Role | 'anonymous'
 const CALLERS: Caller[] = ['anonymous', ...ROLES]
 
@@ -65,7 +69,8 @@ describe('role matrix: every route, called as anonymous and as every role', () =
         if (caller !== 'anonymous') req = req.set('Cookie', cookies.get(caller)!)
         const res = await (route.method === 'get' ? req : req.send({}))
         const expected = expectedOutcome(route, caller)
-        const ok = expected === 'allowed' ? res.status !== 401 && res.status !== 403 && res.status < 500 : res.status === expected
+        const ownSignatureCheck = SIGNED_PUBLIC_ROUTES.has(`${route.method} ${route.path}`) && res.status === 401
+        const ok = expected === 'allowed' ? (res.status !== 401 || ownSignatureCheck) && res.status !== 403 && res.status < 500 : res.status === expected
         if (!ok) failures.push(`${route.method.toUpperCase()} ${route.path} as ${caller}: got ${res.status}, expected ${expected}`)
       }
     }

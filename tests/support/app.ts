@@ -2,6 +2,7 @@ import request from 'supertest'
 import type { Role } from '@kitwright/shared/roles'
 import { createApp } from '../../server/src/app'
 import type { Deps } from '../../server/src/deps'
+import { createJobs } from '../../server/src/lib/jobs'
 import { createLogger } from '../../server/src/lib/logger'
 import type { TestDb } from './test-db'
 import { insertUser, TEST_PASSWORD } from './factories'
@@ -12,8 +13,28 @@ export const TEST_TOKENS: Deps['tokens'] = {
   secureCookies: false,
 }
 
-export function buildApp(t: Pick<TestDb, 'db' | 'pool'>) {
-  return createApp({ db: t.db, pool: t.pool, logger: createLogger('silent'), tokens: TEST_TOKENS })
+/** The secret the tests' web store signs its webhook deliveries with. */
+export const TEST_STORE_SECRET = 'kitwright-test-store-secret-0123456789abcdef'
+
+/**
+ * The app over a test database. Its job queue shares the database's pool and starts on first use
+ * (most files never enqueue anything); `t.drop()` stops it. Workers run only where a test starts
+ * them (`startWorkers(built.deps)`).
+ */
+export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger'] } = {}) {
+  const logger = options.logger ?? createLogger('silent')
+  const jobs = createJobs({ pool: t.pool, logger, maintenance: false, retryDelaySeconds: 1, pollingIntervalSeconds: 0.5, stopTimeoutMs: 1000 })
+  t.onDrop?.(() => jobs.stop())
+  const deps: Deps = {
+    db: t.db,
+    pool: t.pool,
+    logger,
+    tokens: TEST_TOKENS,
+    jobs,
+    mail: { smtpUrl: process.env.SMTP_URL, from: 'orders@kitwright-test.example' },
+    storeWebhookSecret: TEST_STORE_SECRET,
+  }
+  return { ...createApp(deps), deps }
 }
 
 /** A supertest agent that keeps cookies, signed in as a new user of `role`. */

@@ -10,6 +10,8 @@ export interface TestDb {
   url: string
   /** Empties every table (keeps the schema), for a clean slate between tests. */
   truncate(): Promise<void>
+  /** Runs `stop` first thing in `drop()` (e.g. the job queue that polls this database). */
+  onDrop(stop: () => Promise<void>): void
   drop(): Promise<void>
 }
 
@@ -22,6 +24,7 @@ export async function createTestDb(): Promise<TestDb> {
   await admin.query(`create database ${databaseName(url)} template ${databaseName(template)}`)
   await admin.end()
   const { db, pool } = createDb(url)
+  const stops: (() => Promise<void>)[] = []
   return {
     db,
     pool,
@@ -32,7 +35,11 @@ export async function createTestDb(): Promise<TestDb> {
       )
       if (rows.length) await db.execute(sql.raw(`truncate ${rows.map((r) => r.name).join(', ')} cascade`))
     },
+    onDrop(stop) {
+      stops.push(stop)
+    },
     async drop() {
+      for (const stop of stops.splice(0).reverse()) await stop()
       await pool.end()
       const client = new pg.Client({ connectionString: adminUrl(template) })
       await client.connect()

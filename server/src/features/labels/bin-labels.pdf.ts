@@ -21,9 +21,11 @@ async function drawLabel(doc: PDFKit.PDFDocument, label: BinLabel, shopName: str
     doc.font('bold').fontSize(48).text(label.code, x + pad, y + 260, { width: w - 2 * pad, align: 'center' })
     return
   }
-  const textSize = Math.min(16, h * 0.22)
-  doc.image(png, x + pad, y + pad / 2, { fit: [w - 2 * pad, h - textSize - pad * 1.5], align: 'center', valign: 'center' })
-  doc.font('bold').fontSize(textSize).text(label.code, x, y + h - textSize - pad / 2, { width: w, align: 'center', lineBreak: false })
+  const textSize = Math.min(15, h * 0.2)
+  const lineHeight = textSize * 1.25
+  doc.image(png, x + pad, y + pad / 2, { fit: [w - 2 * pad, h - lineHeight - pad], align: 'center', valign: 'center' })
+  // Kept inside the label: pdfkit starts a new page when a line would cross the bottom.
+  doc.font('bold').fontSize(textSize).text(label.code, x, y + h - lineHeight - 1, { width: w, align: 'center', lineBreak: false })
 }
 
 /**

@@ -10,6 +10,17 @@ export const CUT_SHEET_CAUTIONS = [
   "Follow the saw maker's instructions and your shop's local safety practice; they come first.",
 ]
 
+/** Consecutive equal items merged into runs: [item, count]. */
+function runsOf<T>(items: readonly T[], same: (a: T, b: T) => boolean): [T, number][] {
+  const runs: [T, number][] = []
+  for (const item of items) {
+    const last = runs.at(-1)
+    if (last && same(last[0], item)) last[1] += 1
+    else runs.push([item, 1])
+  }
+  return runs
+}
+
 interface Pattern {
   index: number
   sticks: CutStick[]
@@ -70,7 +81,7 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
   doc.text(`${opts.shopName} · ${run.status} · planned ${run.createdAt.slice(0, 10)}${run.publishedBy ? ` · published by ${run.publishedBy}` : ''}`)
   doc.text(`Kerf ${len(run.kerf)} · end trim ${len(run.endTrim)} · keep offcuts of ${len(run.minOffcut)} or more`)
   const t = run.totals
-  doc.text(`${t.sticksUsed} sticks (${t.offcutsUsed} from offcuts) · pieces ${len(t.pieceLength)} · waste ${len(t.waste)} (${t.wastePercent.toFixed(1)} %) · ${t.offcutsMade} offcuts to stock`)
+  doc.text(`${t.sticksUsed} sticks (${t.offcutsUsed} from offcuts) · pieces ${len(t.pieceLength)} · waste ${len(t.waste)} (${t.wastePercent.toFixed(1)} %) · ${t.offcutsMade} offcut${t.offcutsMade === 1 ? '' : 's'} to stock`)
   doc.moveDown(0.5)
   const binOf = new Map(run.workOrders.map((w) => [w.id, w.bin?.code ?? null]))
 
@@ -90,7 +101,13 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
     const source = first.source === 'offcut' ? `offcut ${first.sourceOffcutCode} (${len(first.length)})` : `${len(first.length)} stick`
     doc.fillColor('#111111').font('bold').fontSize(13).text(`Pattern ${pattern.index + 1}: ${first.partSku}, ${source}`, margin, doc.y)
     doc.font('bold').fontSize(11).text(`Cut ${pattern.sticks.length} ${pattern.sticks.length === 1 ? 'time' : 'times'}${live.length < pattern.sticks.length ? ` (${pattern.sticks.length - live.length} damaged)` : ''}`)
-    doc.font('body').fontSize(10).text(`Cut order: ${first.cuts.map((c, i) => `${i + 1}. ${len(c.length)} ${c.label}`).join('   ')}`, { width })
+    let n = 0
+    const order = runsOf(first.cuts, (a, b) => a.length === b.length && a.label === b.label).map(([c, count]) => {
+      const from = n + 1
+      n += count
+      return `${count > 1 ? `${from}-${n}` : from}. ${len(c.length)} ${c.label}${count > 1 ? ` (${count}×)` : ''}`
+    })
+    doc.font('body').fontSize(10).text(`Cut order: ${order.join('   ')}`, { width })
     const remnantNote = first.remnant > 0 ? `${first.remnantIsOffcut ? 'Offcut to stock' : 'Waste'}: ${len(first.remnant)}` : 'No remnant'
     doc.text(`${first.trim > 0 ? `Square the end first (trim ${len(first.trim)}). ` : ''}${remnantNote}.`, { width })
     doc.y = drawStick(doc, first, margin, doc.y + 4, width, unit, run.kerf) + 8
@@ -98,7 +115,9 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
       room(30)
       const y = doc.y
       doc.save().lineWidth(0.75).rect(margin, y + 1, 9, 9).stroke().restore()
-      const pieces = stick.cuts.map((c) => `${len(c.length)} for WO ${c.serial}${binOf.get(c.workOrderId) ? ` (${binOf.get(c.workOrderId)})` : ''}`).join('   |   ')
+      const pieces = runsOf(stick.cuts, (a, b) => a.length === b.length && a.workOrderId === b.workOrderId)
+        .map(([c, count]) => `${count > 1 ? `${count} × ` : ''}${len(c.length)} for WO ${c.serial}${binOf.get(c.workOrderId) ? ` (${binOf.get(c.workOrderId)})` : ''}`)
+        .join('   |   ')
       const state = stick.status === 'damaged' ? ` [damaged: ${stick.damagedReason ?? ''}]` : ''
       doc.font('bold').fontSize(9.5).text(`Stick ${stick.position}${state}: `, margin + 14, y, { continued: true })
       doc.font('body').text(pieces, { width: width - 14 })

@@ -299,9 +299,10 @@ export function reserveStockNow(db: Db, input: ReserveStock, actor: Actor) {
 /**
  * Releases reserved stock inside the caller's transaction: for a work order, everything it still
  * holds when no lines are given, otherwise the lines given (from the work order, or from the manual
- * holds when `workOrderId` is null). Refuses to release more than is held.
+ * holds when `workOrderId` is null). Refuses to release more than is held. `actor` is null when the
+ * store or the system released it (a cancellation from the web store).
  */
-export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor): Promise<StockMovesResult> {
+export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor | null): Promise<StockMovesResult> {
   const lines = mergeLines(input.lines)
   const whose = input.workOrderId === null ? 'the manual holds have' : 'this work order holds'
   if (lines.length === 0) {
@@ -311,7 +312,7 @@ export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'work
     const current = await selectHeld(tx, input.workOrderId)
     const rows = await insertMoves(
       tx,
-      current.map((h): NewStockMoveRow => ({ partId: h.partId, kind: 'release', quantity: -h.reserved, stickLength: h.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor.id })),
+      current.map((h): NewStockMoveRow => ({ partId: h.partId, kind: 'release', quantity: -h.reserved, stickLength: h.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
     )
     return { moves: rows.map((r) => toStockMove(r, actor)) }
   }
@@ -332,7 +333,7 @@ export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'work
   if (problems.length > 0) throw new Conflict(`Cannot release more than is reserved: ${problems.join('; ')}`, fields)
   const rows = await insertMoves(
     tx,
-    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'release', quantity: -l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor.id })),
+    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'release', quantity: -l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }

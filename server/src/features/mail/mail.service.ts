@@ -1,0 +1,104 @@
+import { and, count, desc, eq, sql } from 'drizzle-orm'
+import type { MailListQuery, MailMessage, MailPage } from '@kitwright/shared/mail'
+import type { Db, Tx } from '../../db/client'
+import { mailMessages, orders } from '../../db/schema/index'
+import type { Deps } from '../../deps'
+import { NotFound } from '../../lib/http-errors'
+import type { JobContext, Jobs } from '../../lib/jobs'
+import { addOrderEvent } from '../orders/orders.service'
+import { getShopSettings } from '../settings/settings.service'
+import { toMailMessage, toMailSummary } from './mail.mapper'
+import { smtpTransport } from './mailer'
+
+export interface OutgoingMail {
+  to: string
+  subject: string
+  text: string
+  html?: string
+  orderId: string | null
+  /** Why it is sent, e.g. `order_received`; with the order, a purpose is sent at most once. */
+  purpose: string
+}
+
+/**
+ * Puts a message in the outbox and enqueues its sending, inside the caller's transaction. A second
+ * message for the same order and purpose is dropped: returns null.
+ */
+export async function queueMail(tx: Tx, jobs: Jobs, mail: OutgoingMail): Promise<string | null> {
+  const [row] = await tx
+    .insert(mailMessages)
+    .values({ to: mail.to, subject: mail.subject, text: mail.text, html: mail.html ?? null, orderId: mail.orderId, purpose: mail.purpose })
+    .onConflictDoNothing({ target: [mailMessages.orderId, mailMessages.purpose] })
+    .returning({ id: mailMessages.id })
+  if (!row) return null
+  await jobs.send('send-mail', { mailId: row.id }, { singletonKey: row.id, tx })
+  if (mail.orderId) {
+    await addOrderEvent(tx, { orderId: mail.orderId, kind: 'mail_queued', message: `E-mail queued to ${mail.to}: ${mail.subject}`, data: { mailId: row.id } })
+  }
+  return row.id
+}
+
+/**
+ * The `send-mail` job: sends one queued message over SMTP and marks it sent. While the relay is
+ * unreachable the message stays queued with the error and the queue retries it; after the last try
+ * it is marked failed. The row stays locked while sending, so two workers never send it twice.
+ */
+export async function deliverMail(deps: Pick<Deps, 'db' | 'mail'>, mailId: string, job: JobContext): Promise<void> {
+  let failure: Error | null = null
+  await deps.db.transaction(async (tx) => {
+    const [mail] = await tx.select().from(mailMessages).where(eq(mailMessages.id, mailId)).for('update')
+    if (!mail || mail.status === 'sent') return
+    const { shopName } = await getShopSettings(tx)
+    try {
+      await smtpTransport(deps.mail.smtpUrl).sendMail({
+        from: { name: shopName, address: deps.mail.from },
+        to: mail.to,
+        subject: mail.subject,
+        text: mail.text,
+        ...(mail.html ? { html: mail.html } : {}),
+        headers: { 'X-Kitwright-Mail-Id': mail.id },
+      })
+    } catch (err) {
+      failure = err instanceof Error ? err : new Error(String(err))
+      const last = job.retryCount >= job.retryLimit
+      await tx
+        .update(mailMessages)
+        .set({ attempts: sql`${mailMessages.attempts} + 1`, lastError: failure.message.slice(0, 1000), status: last ? 'failed' : 'queued' })
+        .where(eq(mailMessages.id, mail.id))
+      return
+    }
+    await tx.update(mailMessages).set({ status: 'sent', sentAt: new Date(), attempts: sql`${mailMessages.attempts} + 1`, lastError: null }).where(eq(mailMessages.id, mail.id))
+    if (mail.orderId) {
+      await addOrderEvent(tx, { orderId: mail.orderId, kind: 'mail_sent', message: `E-mail sent to ${mail.to}: ${mail.subject}`, data: { mailId: mail.id } })
+    }
+  })
+  if (failure) throw failure
+}
+
+/** The outbox, newest first, optionally one status only. */
+export async function listMail(db: Db, query: MailListQuery): Promise<MailPage> {
+  const where = query.status ? eq(mailMessages.status, query.status) : undefined
+  const [rows, [total]] = await Promise.all([
+    db
+      .select({ mail: mailMessages, orderNumber: orders.number })
+      .from(mailMessages)
+      .leftJoin(orders, eq(orders.id, mailMessages.orderId))
+      .where(where)
+      .orderBy(desc(mailMessages.createdAt), desc(mailMessages.id))
+      .limit(query.pageSize)
+      .offset((query.page - 1) * query.pageSize),
+    db.select({ n: count() }).from(mailMessages).where(where),
+  ])
+  return { items: rows.map((r) => toMailSummary(r.mail, r.orderNumber)), total: total?.n ?? 0, page: query.page, pageSize: query.pageSize }
+}
+
+/** One message with its bodies. */
+export async function getMail(db: Db, id: string): Promise<MailMessage> {
+  const [row] = await db
+    .select({ mail: mailMessages, orderNumber: orders.number })
+    .from(mailMessages)
+    .leftJoin(orders, eq(orders.id, mailMessages.orderId))
+    .where(and(eq(mailMessages.id, id)))
+  if (!row) throw new NotFound('No such message in the outbox')
+  return toMailMessage(row.mail, row.orderNumber)
+}
