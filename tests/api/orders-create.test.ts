@@ -42,8 +42,8 @@ describe('createOrder', () => {
 
     const again = await t.db.transaction((tx) => createOrder(tx, { ...input, note: 'changed' }, 'store', null))
     expect(again).toMatchObject({ created: false, order: { id: first.order.id, note: null } })
-    expect(await t.db.$count(orders)).toBe(1)
-    expect(await t.db.$count(orderLines)).toBe(3)
+    expect(await t.db.$count(orders, eq(orders.number, 'CO-1'))).toBe(1)
+    expect(await t.db.$count(orderLines, eq(orderLines.orderId, first.order.id))).toBe(3)
   })
 
   it('creates one order when the same number arrives in many transactions at once', async () => {

@@ -4,6 +4,7 @@ import demoUsers from './demo-users.json' with { type: 'json' }
 import { eq } from 'drizzle-orm'
 import type { Db } from './client'
 import { seedDemoKits } from './seed-kits'
+import { seedDemoOrders } from './seed-orders'
 import { inches } from '@kitwright/shared/domain/units'
 import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
@@ -44,4 +45,5 @@ export async function seedDemo(db: Db) {
   await seedDemoStock(db)
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
+  await seedDemoOrders(db, { id: owner!.id, name: owner!.name })
 }
