@@ -11,6 +11,12 @@ export class ApiError extends Error {
   }
 }
 
+/** Which screen a request comes from, for the audit trail: a bench page, or the office. */
+function benchOfPage(): string {
+  const m = /^\/bench\/(cut|build|pack)\b/.exec(window.location.pathname)
+  return m ? m[1]! : 'office'
+}
+
 /** The only caller of fetch: throws ApiError on a non-2xx and parses the JSON with `schema`. */
 export async function apiFetch<S extends z.ZodType>(
   path: string,
@@ -21,7 +27,7 @@ export async function apiFetch<S extends z.ZodType>(
   const res = await fetch(`/api${path}`, {
     credentials: 'same-origin',
     ...rest,
-    headers: { ...(body !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
+    headers: { 'x-kitwright-bench': benchOfPage(), ...(body !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
     body: body === undefined ? undefined : JSON.stringify(body),
   })
   if (!res.ok) {

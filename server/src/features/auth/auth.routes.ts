@@ -1,5 +1,7 @@
 import { SignInSchema } from '@kitwright/shared/auth'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
+import { HttpError } from '../../lib/http-errors'
 import { clearSessionCookie, currentUser, setSessionCookie } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { signIn } from './auth.service'
@@ -8,8 +10,18 @@ export function authRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/auth')
   r.post('/sign-in', 'public', async (req, res) => {
     const input = SignInSchema.parse(req.body)
-    const user = await signIn(deps.db, input, req.ip ?? 'unknown')
+    const how = 'pin' in input ? 'bench PIN' : 'password'
+    let user
+    try {
+      user = await signIn(deps.db, input, req.ip ?? 'unknown')
+    } catch (err) {
+      if (err instanceof HttpError && (err.status === 401 || err.status === 429)) {
+        await recordAudit(deps.db, auditContext(req), { action: 'auth.sign_in_refused', entityType: 'user', entityId: input.email, summary: `Sign-in refused for ${input.email} (${how}): ${err.message}` })
+      }
+      throw err
+    }
     await setSessionCookie(res, deps.tokens, user.id)
+    await recordAudit(deps.db, auditContext(req, user), { action: 'auth.sign_in', entityType: 'user', entityId: user.id, summary: `${user.name} signed in with a ${how}` })
     res.json(user)
   })
   r.post('/sign-out', 'public', (_req, res) => {

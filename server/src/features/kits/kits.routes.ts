@@ -2,6 +2,7 @@ import { z } from 'zod'
 import { CreateKitSchema, NewRevisionSchema, RevisionContentSchema } from '@kitwright/shared/kits'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { createKit, getKit, getRevision, listKits, newRevision, releaseRevision, retireRevision, saveRevision } from './kits.service'
@@ -15,7 +16,9 @@ export function kitsRouter(deps: Deps, routes: RouteTable) {
     res.json(await listKits(deps.db))
   })
   r.post('/', catalogEditors, async (req, res) => {
-    res.status(201).json(await createKit(deps.db, CreateKitSchema.parse(req.body)))
+    const kit = await createKit(deps.db, CreateKitSchema.parse(req.body))
+    await recordAudit(deps.db, auditContext(req), { action: 'kit.create', entityType: 'kit', entityId: kit.id, summary: `Added kit ${kit.sku} with draft revision A` })
+    res.status(201).json(kit)
   })
   r.get('/:id', 'signed-in', async (req, res) => {
     res.json(await getKit(deps.db, IdParamsSchema.parse(req.params).id))
@@ -23,7 +26,9 @@ export function kitsRouter(deps: Deps, routes: RouteTable) {
   r.post('/:id/revisions', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
     const { copyFrom } = NewRevisionSchema.parse(req.body ?? {})
-    res.status(201).json(await newRevision(deps.db, id, copyFrom))
+    const rev = await newRevision(deps.db, id, copyFrom)
+    await recordAudit(deps.db, auditContext(req), { action: 'kit_revision.create', entityType: 'kit_revision', entityId: rev.id, summary: `Started revision ${rev.code} of ${rev.kit.sku}` })
+    res.status(201).json(rev)
   })
   return r
 }
@@ -35,16 +40,22 @@ export function revisionsRouter(deps: Deps, routes: RouteTable) {
   })
   r.put('/:id', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await saveRevision(deps.db, id, RevisionContentSchema.parse(req.body)))
+    const rev = await saveRevision(deps.db, id, RevisionContentSchema.parse(req.body))
+    await recordAudit(deps.db, auditContext(req), { action: 'kit_revision.save', entityType: 'kit_revision', entityId: id, summary: `Saved draft revision ${rev.code} of ${rev.kit.sku}` })
+    res.json(rev)
   })
   r.post('/:id/release', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
     z.object({}).strict().parse(req.body ?? {})
-    res.json(await releaseRevision(deps.db, id, currentUser(req)))
+    const rev = await releaseRevision(deps.db, id, currentUser(req))
+    await recordAudit(deps.db, auditContext(req), { action: 'kit_revision.release', entityType: 'kit_revision', entityId: id, summary: `Released revision ${rev.code} of ${rev.kit.sku}` })
+    res.json(rev)
   })
   r.post('/:id/retire', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await retireRevision(deps.db, id))
+    const rev = await retireRevision(deps.db, id)
+    await recordAudit(deps.db, auditContext(req), { action: 'kit_revision.retire', entityType: 'kit_revision', entityId: id, summary: `Retired revision ${rev.code} of ${rev.kit.sku}` })
+    res.json(rev)
   })
   return r
 }

@@ -3,6 +3,7 @@ import { PartCsvBodySchema } from '@kitwright/shared/parts-csv'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
 import type { RouteTable } from '../../lib/routes'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { createPart, exportPartsCsv, getPart, importParts, listParts, previewPartsImport, updatePart } from './parts.service'
 
 export function partsRouter(deps: Deps, routes: RouteTable) {
@@ -21,18 +22,25 @@ export function partsRouter(deps: Deps, routes: RouteTable) {
     res.json(await previewPartsImport(deps.db, PartCsvBodySchema.parse(req.body).csv))
   })
   r.post('/import', editors, async (req, res) => {
-    res.json(await importParts(deps.db, PartCsvBodySchema.parse(req.body).csv))
+    const result = await importParts(deps.db, PartCsvBodySchema.parse(req.body).csv)
+    await recordAudit(deps.db, auditContext(req), { action: 'part.import', entityType: 'part', summary: 'Imported parts from a CSV file', data: result })
+    res.json(result)
   })
   r.get('/:id', 'signed-in', async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
     res.json(await getPart(deps.db, id))
   })
   r.post('/', editors, async (req, res) => {
-    res.status(201).json(await createPart(deps.db, PartInputSchema.parse(req.body)))
+    const part = await createPart(deps.db, PartInputSchema.parse(req.body))
+    await recordAudit(deps.db, auditContext(req), { action: 'part.create', entityType: 'part', entityId: part.id, summary: `Added part ${part.sku}` })
+    res.status(201).json(part)
   })
   r.patch('/:id', editors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await updatePart(deps.db, id, PartPatchSchema.parse(req.body)))
+    const change = PartPatchSchema.parse(req.body)
+    const part = await updatePart(deps.db, id, change)
+    await recordAudit(deps.db, auditContext(req), { action: 'part.update', entityType: 'part', entityId: id, summary: `Changed ${Object.keys(change).join(', ')} of part ${part.sku}`, data: change })
+    res.json(part)
   })
   return r
 }

@@ -1,5 +1,6 @@
 import { UpdateShopSettingsSchema } from '@kitwright/shared/settings'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import type { RouteTable } from '../../lib/routes'
 import { getShopSettings, updateShopSettings } from './settings.service'
 
@@ -10,7 +11,10 @@ export function settingsRouter(deps: Deps, routes: RouteTable) {
     res.json(await getShopSettings(deps.db))
   })
   r.patch('/', ['admin'], async (req, res) => {
-    res.json(await updateShopSettings(deps.db, UpdateShopSettingsSchema.parse(req.body)))
+    const change = UpdateShopSettingsSchema.parse(req.body)
+    const settings = await updateShopSettings(deps.db, change)
+    await recordAudit(deps.db, auditContext(req), { action: 'settings.update', entityType: 'settings', summary: `Changed shop settings: ${Object.keys(change).join(', ')}`, data: change })
+    res.json(settings)
   })
   return r
 }

@@ -1,3 +1,4 @@
+import type { Request } from 'express'
 import {
   AdjustStockSchema,
   PackingListSchema,
@@ -8,6 +9,7 @@ import {
   StockMovesQuerySchema,
 } from '@kitwright/shared/stock'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import {
@@ -27,6 +29,8 @@ export function stockRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/stock')
   // Every bench may look at stock; only the office changes it.
   const office = ['admin', 'planner'] as const
+  const audit = (req: Request, action: string, summary: string, data: unknown) =>
+    recordAudit(deps.db, auditContext(req), { action, entityType: 'stock', summary, data })
   r.get('/', 'signed-in', async (req, res) => {
     res.json(await listStock(deps.db, StockListQuerySchema.parse(req.query)))
   })
@@ -42,22 +46,36 @@ export function stockRouter(deps: Deps, routes: RouteTable) {
     res.json(await stockLedger(deps.db, StockMovesQuerySchema.parse(req.query)))
   })
   r.post('/receive', office, async (req, res) => {
-    res.status(201).json(await receiveStock(deps.db, ReceiveStockSchema.parse(req.body), currentUser(req)))
+    const input = ReceiveStockSchema.parse(req.body)
+    const result = await receiveStock(deps.db, input, currentUser(req))
+    await audit(req, 'stock.receive', `Received ${input.lines.length} line(s) into stock`, input)
+    res.status(201).json(result)
   })
   r.post('/receive/preview', office, async (req, res) => {
     res.json(await previewPackingList(deps.db, PackingListSchema.parse(req.body)))
   })
   r.post('/receive/csv', office, async (req, res) => {
-    res.status(201).json(await receivePackingList(deps.db, PackingListSchema.parse(req.body), currentUser(req)))
+    const result = await receivePackingList(deps.db, PackingListSchema.parse(req.body), currentUser(req))
+    await audit(req, 'stock.receive', `Received a supplier packing list (${result.moves.length} move(s))`, null)
+    res.status(201).json(result)
   })
   r.post('/adjust', office, async (req, res) => {
-    res.status(201).json(await adjustStock(deps.db, AdjustStockSchema.parse(req.body), currentUser(req)))
+    const input = AdjustStockSchema.parse(req.body)
+    const result = await adjustStock(deps.db, input, currentUser(req))
+    await audit(req, 'stock.adjust', `Adjusted stock: ${input.reason}`, input)
+    res.status(201).json(result)
   })
   r.post('/reserve', office, async (req, res) => {
-    res.status(201).json(await reserveStockNow(deps.db, ReserveStockSchema.parse(req.body), currentUser(req)))
+    const input = ReserveStockSchema.parse(req.body)
+    const result = await reserveStockNow(deps.db, input, currentUser(req))
+    await audit(req, 'stock.reserve', `Held ${input.lines.length} line(s) of stock`, input)
+    res.status(201).json(result)
   })
   r.post('/release', office, async (req, res) => {
-    res.status(201).json(await releaseReservationNow(deps.db, ReleaseStockSchema.parse(req.body), currentUser(req)))
+    const input = ReleaseStockSchema.parse(req.body)
+    const result = await releaseReservationNow(deps.db, input, currentUser(req))
+    await audit(req, 'stock.release', 'Released held stock', input)
+    res.status(201).json(result)
   })
   return r
 }

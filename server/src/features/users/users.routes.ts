@@ -1,5 +1,6 @@
 import { CreateUserSchema, IdParamsSchema, ResetCredentialsSchema, UpdateUserSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { createUser, listUsers, resetCredentials, updateUser } from './users.service'
@@ -11,15 +12,24 @@ export function usersRouter(deps: Deps, routes: RouteTable) {
     res.json(await listUsers(deps.db))
   })
   r.post('/', admin, async (req, res) => {
-    res.status(201).json(await createUser(deps.db, CreateUserSchema.parse(req.body)))
+    const user = await createUser(deps.db, CreateUserSchema.parse(req.body))
+    await recordAudit(deps.db, auditContext(req), { action: 'user.create', entityType: 'user', entityId: user.id, summary: `Added ${user.name} (${user.email}) as ${user.role}` })
+    res.status(201).json(user)
   })
   r.patch('/:id', admin, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await updateUser(deps.db, id, UpdateUserSchema.parse(req.body), currentUser(req)))
+    const change = UpdateUserSchema.parse(req.body)
+    const user = await updateUser(deps.db, id, change, currentUser(req))
+    await recordAudit(deps.db, auditContext(req), { action: 'user.update', entityType: 'user', entityId: id, summary: `Changed ${user.name}: ${JSON.stringify(change)}`, data: change })
+    res.json(user)
   })
   r.post('/:id/credentials', admin, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await resetCredentials(deps.db, id, ResetCredentialsSchema.parse(req.body)))
+    const input = ResetCredentialsSchema.parse(req.body)
+    const user = await resetCredentials(deps.db, id, input)
+    const what = [input.password !== undefined && 'password', input.pin !== undefined && (input.pin === null ? 'PIN removed' : 'PIN')].filter(Boolean).join(' and ')
+    await recordAudit(deps.db, auditContext(req), { action: 'user.credentials', entityType: 'user', entityId: id, summary: `Reset ${what} of ${user.name}` })
+    res.json(user)
   })
   return r
 }
