@@ -13,6 +13,7 @@ import { partsRouter } from './features/parts/parts.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
+import { buildRouter, unitsRouter } from './features/build/build.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { authenticate } from './lib/auth'
@@ -21,6 +22,7 @@ import { NotFound } from './lib/http-errors'
 import { requestLogger } from './lib/logger'
 import { keepRawBody } from './lib/raw-body'
 import { RouteTable } from './lib/routes'
+import { photoStoreDirectives } from './lib/storage'
 
 /** Builds the Express app; listens nowhere (index.ts does), so tests drive it with supertest. */
 export function createApp(deps: Deps) {
@@ -28,14 +30,14 @@ export function createApp(deps: Deps) {
   const routes = new RouteTable()
   app.set('trust proxy', 'loopback')
   app.disable('x-powered-by')
-  app.use(helmet())
+  app.use(helmet({ contentSecurityPolicy: { directives: photoStoreDirectives(deps.storage) } }))
   app.use(requestLogger(deps.logger))
   app.use(express.json({ limit: '1mb', verify: keepRawBody }))
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -3,6 +3,7 @@ import type { Db } from './db/client'
 import type { TokenConfig } from './lib/auth'
 import type { Jobs } from './lib/jobs'
 import type { Logger } from './lib/logger'
+import type { Storage } from './lib/storage'
 
 /** Everything the app needs from outside; built from the environment in index.ts, by hand in tests. */
 export interface Deps {
@@ -16,6 +17,8 @@ export interface Deps {
   mail: { smtpUrl?: string; from: string }
   /** Shared with the web store to sign webhook deliveries; without it the webhook refuses every delivery. */
   storeWebhookSecret?: string
+  /** The S3-compatible store of unit photos (browsers upload to it with presigned URLs). */
+  storage: Storage
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

@@ -3,6 +3,7 @@ import { createDb } from './db/client'
 import { readEnv } from './env'
 import { createJobs } from './lib/jobs'
 import { createLogger } from './lib/logger'
+import { createStorage, storageConfigFromEnv } from './lib/storage'
 import { startWorkers } from './workers'
 
 const env = readEnv()
@@ -18,6 +19,7 @@ const { app } = createApp({
   logger,
   jobs,
   mail,
+  storage: createStorage(storageConfigFromEnv(env)),
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
   tokens: {
     secret: new TextEncoder().encode(env.SESSION_SECRET),

@@ -4,6 +4,7 @@ import { createApp } from '../../server/src/app'
 import type { Deps } from '../../server/src/deps'
 import { createJobs } from '../../server/src/lib/jobs'
 import { createLogger } from '../../server/src/lib/logger'
+import { createStorage, type StorageConfig } from '../../server/src/lib/storage'
 import type { TestDb } from './test-db'
 import { insertUser, TEST_PASSWORD } from './factories'
 
@@ -21,7 +22,7 @@ export const TEST_STORE_SECRET = 'kitwright-test-store-secret-0123456789abcdef'
  * (most files never enqueue anything); `t.drop()` stops it. Workers run only where a test starts
  * them (`startWorkers(built.deps)`).
  */
-export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger'] } = {}) {
+export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig } = {}) {
   const logger = options.logger ?? createLogger('silent')
   const jobs = createJobs({ pool: t.pool, logger, maintenance: false, retryDelaySeconds: 1, pollingIntervalSeconds: 0.5, stopTimeoutMs: 1000 })
   t.onDrop?.(() => jobs.stop())
@@ -33,8 +34,16 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     jobs,
     mail: { smtpUrl: process.env.SMTP_URL, from: 'orders@kitwright-test.example' },
     storeWebhookSecret: TEST_STORE_SECRET,
+    storage: createStorage(options.storage ?? testStorageConfig()),
   }
   return { ...createApp(deps), deps }
+}
+
+/** The run's S3 stand-in (s3rver, started by `npm test`). */
+export function testStorageConfig(): StorageConfig {
+  const { S3_ENDPOINT, S3_BUCKET, S3_ACCESS_KEY_ID, S3_SECRET_ACCESS_KEY } = process.env
+  if (!S3_ENDPOINT || !S3_BUCKET || !S3_ACCESS_KEY_ID || !S3_SECRET_ACCESS_KEY) throw new Error('S3_* is not set: run the suite with `npm test`, which starts the S3 stand-in')
+  return { endpoint: S3_ENDPOINT, bucket: S3_BUCKET, accessKeyId: S3_ACCESS_KEY_ID, secretAccessKey: S3_SECRET_ACCESS_KEY, region: 'us-east-1' }
 }
 
 /** A supertest agent that keeps cookies, signed in as a new user of `role`. */

@@ -1,0 +1,59 @@
+import {
+  BuildLookupQuerySchema,
+  ConfirmPhotoSchema,
+  PresignPhotoSchema,
+  RecordLeakTestSchema,
+  SerialParamsSchema,
+  StepParamsSchema,
+  TickStepSchema,
+  WorkOrderParamsSchema,
+} from '@kitwright/shared/build'
+import type { Deps } from '../../deps'
+import { currentUser } from '../../lib/auth'
+import type { RouteTable } from '../../lib/routes'
+import { lookupForBuild, recordLeakTest, tickStep, undoTick } from './build.service'
+import { confirmPhoto, presignPhoto } from './photos.service'
+import { getUnitRecord } from './unit-record.service'
+
+const BENCH = ['admin', 'planner', 'assembler'] as const
+
+/** The build bench: scan a unit, tick its steps, photograph it, leak-test it. */
+export function buildRouter(deps: Deps, routes: RouteTable) {
+  const r = routes.router('/api/build')
+  r.get('/lookup', BENCH, async (req, res) => {
+    const { code } = BuildLookupQuerySchema.parse(req.query)
+    res.json(await lookupForBuild(deps.db, deps.storage, code))
+  })
+  r.post('/:workOrderId/steps/:stepId/tick', BENCH, async (req, res) => {
+    const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
+    res.json(await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req)))
+  })
+  r.post('/:workOrderId/steps/:stepId/undo', BENCH, async (req, res) => {
+    const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
+    res.json(await undoTick(deps.db, deps.storage, workOrderId, stepId, currentUser(req)))
+  })
+  r.post('/:workOrderId/photos/presign', BENCH, async (req, res) => {
+    const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
+    res.status(201).json(await presignPhoto(deps.db, deps.storage, workOrderId, PresignPhotoSchema.parse(req.body), currentUser(req)))
+  })
+  r.post('/:workOrderId/photos/confirm', BENCH, async (req, res) => {
+    const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
+    const { key } = ConfirmPhotoSchema.parse(req.body)
+    res.json(await confirmPhoto(deps.db, deps.storage, workOrderId, key, currentUser(req)))
+  })
+  r.post('/:workOrderId/leak-tests', BENCH, async (req, res) => {
+    const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
+    res.status(201).json(await recordLeakTest(deps.db, deps.storage, workOrderId, RecordLeakTestSchema.parse(req.body), currentUser(req)))
+  })
+  return r
+}
+
+/** The build record of a serial, read-only, for everyone who handles the unit. */
+export function unitsRouter(deps: Deps, routes: RouteTable) {
+  const r = routes.router('/api/units')
+  r.get('/:serial', ['admin', 'planner', 'assembler', 'packer'], async (req, res) => {
+    const { serial } = SerialParamsSchema.parse(req.params)
+    res.json(await getUnitRecord(deps.db, deps.storage, serial))
+  })
+  return r
+}

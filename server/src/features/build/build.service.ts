@@ -1,0 +1,218 @@
+import { and, eq, isNull } from 'drizzle-orm'
+import { BUILDABLE_STATUSES, type BuildPage, type RecordLeakTestSchema, type TickStep } from '@kitwright/shared/build'
+import { judgeLeakTest, toPascals } from '@kitwright/shared/domain/leak-test'
+import type { z } from 'zod'
+import type { Db, Tx } from '../../db/client'
+import { buildStepTicks, leakTests, reworkEntries, workOrders, type WorkOrderRow } from '../../db/schema/index'
+import type { SessionUser } from '../../lib/auth'
+import { BadRequest, Conflict, Forbidden, NotFound } from '../../lib/http-errors'
+import type { Storage } from '../../lib/storage'
+import { loadBuildPage, protocolOf, readinessOf } from './build-page'
+import {
+  confirmedPhotos,
+  findBinByCode,
+  findRevisionWithKit,
+  findStep,
+  findWorkOrderById,
+  findWorkOrderBySerial,
+  leakTestsOfWorkOrder,
+  lastAttempt,
+  lockWorkOrder,
+  namesOf,
+  standingTick,
+  stepsOfRevision,
+  ticksOfWorkOrder,
+} from './build.queries'
+
+type BuildableStatus = (typeof BUILDABLE_STATUSES)[number]
+
+/** Why a unit in this status cannot be worked on at the build bench, in the bench's words. */
+function notBuildableMessage(wo: WorkOrderRow): string {
+  switch (wo.status) {
+    case 'waiting_cut':
+      return `Unit ${wo.serial} has not been cut yet: its pieces are still to come from the cut bench`
+    case 'built':
+      return `Unit ${wo.serial} is already built and leak-tested; it goes to the pack bench`
+    case 'packed':
+      return `Unit ${wo.serial} is already packed`
+    case 'shipped':
+      return `Unit ${wo.serial} has already shipped`
+    case 'cancelled':
+      return `Unit ${wo.serial} was cancelled; do not build it`
+    default:
+      return `Unit ${wo.serial} is ${wo.status}`
+  }
+}
+
+function isBuildable(status: WorkOrderRow['status']): status is BuildableStatus {
+  return (BUILDABLE_STATUSES as readonly string[]).includes(status)
+}
+
+/** Refuses a unit that is not cut, in build or in rework. `fields.serial` lets the bench link its build record. */
+export function assertBuildable(wo: WorkOrderRow): void {
+  if (!isBuildable(wo.status)) throw new Conflict(notBuildableMessage(wo), { serial: wo.serial })
+}
+
+async function lockBuildable(tx: Tx, workOrderId: string): Promise<WorkOrderRow> {
+  const wo = await lockWorkOrder(tx, workOrderId)
+  if (!wo) throw new NotFound('No such work order')
+  assertBuildable(wo)
+  return wo
+}
+
+/** A scanned bin code or a typed serial → the unit's build page, if it may be built now. */
+export async function lookupForBuild(db: Db, storage: Storage, code: string): Promise<BuildPage> {
+  const wanted = code.trim().toUpperCase()
+  const bin = await findBinByCode(db, wanted)
+  let wo: WorkOrderRow | undefined
+  if (bin) {
+    if (!bin.workOrderId) throw new Conflict(`Bin ${bin.code} holds no unit (it is on the rack); scan the bin that came from the cut bench, or type the serial`)
+    wo = await findWorkOrderById(db, bin.workOrderId)
+  } else {
+    wo = await findWorkOrderBySerial(db, wanted)
+  }
+  if (!wo) throw new NotFound(`No bin or serial "${wanted}": check the label and scan again`)
+  assertBuildable(wo)
+  return loadBuildPage(db, storage, wo)
+}
+
+/**
+ * Moves the unit on once everything is done: every step ticked, the photos taken, the latest leak
+ * test passed (or none required) → built. Called after every change, inside its transaction.
+ */
+async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
+  const found = await findRevisionWithKit(tx, wo.kitRevisionId)
+  // One after another: a transaction is one connection, which runs one query at a time.
+  const steps = await stepsOfRevision(tx, wo.kitRevisionId)
+  const ticks = await ticksOfWorkOrder(tx, wo.id)
+  const photos = await confirmedPhotos(tx, wo.id)
+  const tests = await leakTestsOfWorkOrder(tx, wo.id)
+  const readiness = readinessOf(steps, ticks, photos, tests, found ? protocolOf(found.revision) !== null : false)
+  let status: WorkOrderRow['status'] = wo.status
+  if (readiness.ready) status = 'built'
+  else if (readiness.leakTest === 'failed') status = 'rework'
+  else if (ticks.length > 0 || tests.length > 0) status = 'building'
+  if (status !== wo.status) await tx.update(workOrders).set({ status, updatedAt: new Date() }).where(eq(workOrders.id, wo.id))
+}
+
+async function reload(db: Db, storage: Storage, workOrderId: string): Promise<BuildPage> {
+  const wo = await findWorkOrderById(db, workOrderId)
+  if (!wo) throw new NotFound('No such work order')
+  return loadBuildPage(db, storage, wo)
+}
+
+/**
+ * Ticks one step for one unit. A step that takes a measurement needs it (out of limits is flagged
+ * and still recorded); a step that needs a photo needs the photo first. The first tick starts the build.
+ */
+export async function tickStep(db: Db, storage: Storage, workOrderId: string, stepId: string, input: TickStep, actor: SessionUser): Promise<BuildPage> {
+  await db.transaction(async (tx) => {
+    const wo = await lockBuildable(tx, workOrderId)
+    const step = await findStep(tx, wo.kitRevisionId, stepId)
+    if (!step) throw new NotFound(`No such step in the revision unit ${wo.serial} is built to`)
+    const standing = await standingTick(tx, wo.id, step.id)
+    if (standing) {
+      const names = await namesOf(tx, [standing.tickedBy])
+      throw new Conflict(`Step ${step.position} is already ticked by ${names.get(standing.tickedBy) ?? 'someone'}; undo it first to tick it again`)
+    }
+    let outOfLimits = false
+    if (step.measurementRequired) {
+      if (input.measurement === null) {
+        const unit = step.measurementUnit ?? ''
+        throw new BadRequest(`Step ${step.position} needs a measurement in ${unit} before it can be ticked`, { measurement: `Enter the measurement in ${unit}` })
+      }
+      const min = step.measurementMin === null ? null : Number(step.measurementMin)
+      const max = step.measurementMax === null ? null : Number(step.measurementMax)
+      outOfLimits = (min !== null && input.measurement < min) || (max !== null && input.measurement > max)
+    } else if (input.measurement !== null) {
+      throw new BadRequest(`Step ${step.position} takes no measurement`, { measurement: 'Leave the measurement out for this step' })
+    }
+    if (step.photoRequired) {
+      const photos = await confirmedPhotos(tx, wo.id)
+      if (!photos.some((p) => p.buildStepId === step.id)) throw new Conflict(`Take the photo for step ${step.position} before ticking it`)
+    }
+    await tx.insert(buildStepTicks).values({
+      workOrderId: wo.id,
+      buildStepId: step.id,
+      tickedBy: actor.id,
+      measurement: input.measurement === null ? null : String(input.measurement),
+      outOfLimits,
+    })
+    await settle(tx, wo)
+  })
+  return reload(db, storage, workOrderId)
+}
+
+/** Undoes a step's standing tick: only the one who ticked it, or a planner or admin. The tick stays on record as undone. */
+export async function undoTick(db: Db, storage: Storage, workOrderId: string, stepId: string, actor: SessionUser): Promise<BuildPage> {
+  await db.transaction(async (tx) => {
+    const wo = await lockBuildable(tx, workOrderId)
+    const step = await findStep(tx, wo.kitRevisionId, stepId)
+    if (!step) throw new NotFound(`No such step in the revision unit ${wo.serial} is built to`)
+    const tick = await standingTick(tx, wo.id, step.id)
+    if (!tick) throw new Conflict(`Step ${step.position} is not ticked; there is nothing to undo`)
+    if (tick.tickedBy !== actor.id && actor.role !== 'planner' && actor.role !== 'admin') {
+      const names = await namesOf(tx, [tick.tickedBy])
+      throw new Forbidden(`Only ${names.get(tick.tickedBy) ?? 'the person who ticked it'} or a planner can undo step ${step.position}`)
+    }
+    await tx
+      .update(buildStepTicks)
+      .set({ undoneAt: new Date(), undoneBy: actor.id })
+      .where(and(eq(buildStepTicks.id, tick.id), isNull(buildStepTicks.undoneAt)))
+    await settle(tx, wo)
+  })
+  return reload(db, storage, workOrderId)
+}
+
+/**
+ * Records a leak test, judged on the server by the revision's protocol. A failure sends the unit to
+ * rework with the reason; a pass resolves open rework and, with every step done, makes it built.
+ * Each test is a new attempt, so first-pass yield can be counted.
+ */
+export async function recordLeakTest(
+  db: Db,
+  storage: Storage,
+  workOrderId: string,
+  input: z.infer<typeof RecordLeakTestSchema>,
+  actor: SessionUser,
+): Promise<BuildPage> {
+  await db.transaction(async (tx) => {
+    const wo = await lockBuildable(tx, workOrderId)
+    const found = await findRevisionWithKit(tx, wo.kitRevisionId)
+    const protocol = found ? protocolOf(found.revision) : null
+    if (!protocol) throw new Conflict(`Revision ${found?.revision.code ?? ''} of ${found?.kit.sku ?? 'this kit'} has no leak test protocol; there is no leak test to record`)
+    const startPressurePa = toPascals(input.startPressure, input.unit)
+    const endPressurePa = toPascals(input.endPressure, input.unit)
+    const verdict = judgeLeakTest(protocol, { startPressurePa, endPressurePa, holdMinutes: input.holdMinutes, leaks: input.leaks }, input.unit)
+    const attempt = (await lastAttempt(tx, wo.id)) + 1
+    const reason = verdict.passed ? null : verdict.reasons.join('; ')
+    const [test] = await tx
+      .insert(leakTests)
+      .values({
+        workOrderId: wo.id,
+        attempt,
+        startPressurePa,
+        endPressurePa,
+        holdMinutes: input.holdMinutes,
+        waterVolumeMl: input.waterVolumeMl,
+        leaks: [...new Set(input.leaks)],
+        leakNote: input.leakNote,
+        enteredUnit: input.unit,
+        passed: verdict.passed,
+        reason,
+        testedBy: actor.id,
+      })
+      .returning()
+    if (verdict.passed) {
+      await tx
+        .update(reworkEntries)
+        .set({ resolvedAt: new Date(), resolvedBy: actor.id })
+        .where(and(eq(reworkEntries.workOrderId, wo.id), isNull(reworkEntries.resolvedAt)))
+    } else {
+      const note = input.leakNote ? ` (${input.leakNote})` : ''
+      await tx.insert(reworkEntries).values({ workOrderId: wo.id, leakTestId: test!.id, reason: `Leak test ${attempt} failed: ${reason}${note}`, createdBy: actor.id })
+    }
+    await settle(tx, wo)
+  })
+  return reload(db, storage, workOrderId)
+}

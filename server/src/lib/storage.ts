@@ -1,0 +1,102 @@
+import { GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client } from '@aws-sdk/client-s3'
+import { getSignedUrl } from '@aws-sdk/s3-request-presigner'
+import { Unavailable } from './http-errors'
+
+/** Where the unit photos live: any S3-compatible store (s3rver locally). */
+export interface StorageConfig {
+  /** Omitted for AWS itself; set for any other S3-compatible store (and for s3rver). */
+  endpoint?: string
+  bucket: string
+  accessKeyId: string
+  secretAccessKey: string
+  region: string
+}
+
+/** What a HEAD found: the stored object's type and size. */
+export interface StoredObject {
+  contentType: string | null
+  size: number | null
+}
+
+/** The object store as the app uses it: presigned uploads and reads, and HEAD to confirm an upload. */
+export interface Storage {
+  /** The origin browsers talk to for uploads and thumbnails (for the page's content security policy). */
+  readonly origin: string | null
+  /**
+   * A URL the browser PUTs one object to, with the content type and length signed in: a PUT with
+   * another type or size is refused by the store.
+   */
+  presignPut(key: string, object: { contentType: string; size: number }, expiresInSeconds: number): Promise<{ url: string; headers: Record<string, string> }>
+  presignGet(key: string, expiresInSeconds: number): Promise<string>
+  /** The object's type and size, or null when there is no such object. Throws `Unavailable` when the store cannot be reached. */
+  head(key: string): Promise<StoredObject | null>
+}
+
+const UNREACHABLE = 'The photo store (S3) is not reachable right now; the ticks already made are kept. Try the photo again in a moment.'
+const NOT_CONFIGURED = 'No photo store is configured: set S3_BUCKET, S3_ACCESS_KEY_ID and S3_SECRET_ACCESS_KEY (and S3_ENDPOINT for a store other than AWS).'
+
+function httpStatus(err: unknown): number | undefined {
+  const meta = (err as { $metadata?: { httpStatusCode?: number } }).$metadata
+  return meta?.httpStatusCode
+}
+
+/** The S3 client per ../shared/STACK-NOTES.md: path-style, and checksums only when required (s3rver stores framed data otherwise). */
+export function createStorage(config: StorageConfig | null): Storage {
+  if (!config) {
+    const fail = () => Promise.reject(new Unavailable(NOT_CONFIGURED))
+    return { origin: null, presignPut: fail, presignGet: fail, head: fail }
+  }
+  const client = new S3Client({
+    region: config.region,
+    endpoint: config.endpoint,
+    forcePathStyle: true,
+    credentials: { accessKeyId: config.accessKeyId, secretAccessKey: config.secretAccessKey },
+    requestChecksumCalculation: 'WHEN_REQUIRED',
+    responseChecksumValidation: 'WHEN_REQUIRED',
+    maxAttempts: 2,
+    requestHandler: { connectionTimeout: 3000, requestTimeout: 10_000 },
+  })
+  const origin = config.endpoint ? new URL(config.endpoint).origin : `https://s3.${config.region}.amazonaws.com`
+  return {
+    origin,
+    async presignPut(key, object, expiresIn) {
+      const command = new PutObjectCommand({ Bucket: config.bucket, Key: key, ContentType: object.contentType, ContentLength: object.size })
+      // The presigner leaves content-type unsigned unless told; signing both binds the upload to what was promised.
+      const url = await getSignedUrl(client, command, { expiresIn, signableHeaders: new Set(['content-type', 'content-length']) })
+      return { url, headers: { 'content-type': object.contentType } }
+    },
+    presignGet(key, expiresIn) {
+      return getSignedUrl(client, new GetObjectCommand({ Bucket: config.bucket, Key: key }), { expiresIn })
+    },
+    async head(key) {
+      try {
+        const out = await client.send(new HeadObjectCommand({ Bucket: config.bucket, Key: key }))
+        return { contentType: out.ContentType ?? null, size: out.ContentLength ?? null }
+      } catch (err) {
+        if (httpStatus(err) === 404) return null
+        throw new Unavailable(UNREACHABLE)
+      }
+    },
+  }
+}
+
+/** The storage settings from the environment, or null when no bucket is configured. */
+export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_BUCKET?: string; S3_ACCESS_KEY_ID?: string; S3_SECRET_ACCESS_KEY?: string; S3_REGION: string }): StorageConfig | null {
+  if (!env.S3_BUCKET || !env.S3_ACCESS_KEY_ID || !env.S3_SECRET_ACCESS_KEY) return null
+  return {
+    endpoint: env.S3_ENDPOINT,
+    bucket: env.S3_BUCKET,
+    accessKeyId: env.S3_ACCESS_KEY_ID,
+    secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+    region: env.S3_REGION,
+  }
+}
+
+/**
+ * The page's content security policy lets the browser upload to and show photos from the store
+ * (helmet's defaults allow only the app's own origin).
+ */
+export function photoStoreDirectives(storage: Pick<Storage, 'origin'>) {
+  const store = storage.origin ? [storage.origin] : []
+  return { imgSrc: ["'self'", 'data:', 'blob:', ...store], connectSrc: ["'self'", ...store] }
+}
