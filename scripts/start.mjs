@@ -24,6 +24,8 @@ if (pg.startedHere) onCleanup(() => pg.stop())
 const env = {
   DATABASE_URL: process.env.DATABASE_URL ?? pg.url('kitwright'),
   SESSION_SECRET: process.env.SESSION_SECRET ?? localSecret('session'),
+  // The demo store (npm run demo:store) signs with the same file-kept secret.
+  STORE_WEBHOOK_SECRET: process.env.STORE_WEBHOOK_SECRET ?? localSecret('store-webhook'),
   S3_ENDPOINT: process.env.S3_ENDPOINT ?? `http://127.0.0.1:${localPorts.s3}`,
   S3_BUCKET: bucket,
   S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
