@@ -1,8 +1,10 @@
 import { sql } from 'drizzle-orm'
 import { check, integer, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
+import { DIM_WEIGHT_SYSTEMS } from '@kitwright/shared/domain/weights'
 import { updatedAt } from './columns'
 
 export const displayUnitEnum = pgEnum('display_unit', ['in', 'mm'])
+export const dimWeightSystemEnum = pgEnum('dim_weight_system', DIM_WEIGHT_SYSTEMS)
 
 /** The shop's settings: one row (id = 1). Lengths in base units. */
 export const shopSettings = pgTable(
@@ -14,6 +16,21 @@ export const shopSettings = pgTable(
     kerf: integer().notNull(),
     endTrim: integer().notNull(),
     minOffcut: integer().notNull(),
+    /** The carrier's dimensional-weight divisor (139 in³/lb is a common figure) and how it is expressed. */
+    dimWeightDivisor: integer().notNull().default(139),
+    dimWeightSystem: dimWeightSystemEnum().notNull().default('in3_per_lb'),
+    /** Ship-from address on labels and packing slips; null until the owner sets it. */
+    senderName: text(),
+    senderLine1: text(),
+    senderLine2: text(),
+    senderCity: text(),
+    senderRegion: text(),
+    senderPostalCode: text(),
+    senderCountry: text(),
+    senderPhone: text(),
+    /** The shop's GS1 Company Prefix for SSCCs (the demo's is invented), and the SSCC extension digit. */
+    gs1CompanyPrefix: text(),
+    ssccExtensionDigit: integer().notNull().default(0),
     updatedAt: updatedAt(),
   },
   (t) => [check('shop_settings_single_row', sql`${t.id} = 1`)],
