@@ -17,6 +17,11 @@ export const paths = {
   stock: { pattern: '/catalog/stock', href: () => '/catalog/stock' },
   stockReceive: { pattern: '/catalog/stock/receive', href: () => '/catalog/stock/receive' },
   stockPart: { pattern: '/catalog/stock/:partId', href: (partId: string) => `/catalog/stock/${partId}` },
+  orders: { pattern: '/orders', href: () => '/orders' },
+  orderNew: { pattern: '/orders/new', href: () => '/orders/new' },
+  ordersImport: { pattern: '/orders/import', href: () => '/orders/import' },
+  order: { pattern: '/orders/:orderId', href: (orderId: string) => `/orders/${orderId}` },
+  shortages: { pattern: '/shortages', href: () => '/shortages' },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

@@ -9,9 +9,11 @@ import { cn } from '../../lib/cn'
 
 const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Home', href: paths.home.href(), roles: ['admin', 'planner'] },
+  { label: 'Orders', href: paths.orders.href(), roles: ['admin', 'planner'] },
   { label: 'Parts', href: paths.parts.href(), roles: ['admin', 'planner'] },
   { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
+  { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
   { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },

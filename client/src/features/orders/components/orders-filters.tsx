@@ -1,0 +1,55 @@
+import { useQuery } from '@tanstack/react-query'
+import { useCallback } from 'react'
+import { ORDER_STATUS_LABELS, type OrderListQuery } from '@kitwright/shared/orders'
+import { ORDER_STATUSES } from '@kitwright/shared/orders-status'
+import { Input, Select } from '../../../components/ui/field'
+import { SearchField } from '../../../components/ui/search-field'
+import { orderKitsOptions } from '../api/order-queries'
+
+interface Props {
+  query: OrderListQuery
+  onQueryChange: (change: Partial<OrderListQuery>) => void
+}
+
+const labelText = 'block text-sm font-bold text-stone-700'
+
+/** Search and filters of the orders list; every change goes to the URL and back to page 1. */
+export function OrdersFilters({ query, onQueryChange }: Props) {
+  const kits = useQuery(orderKitsOptions())
+  const onSearch = useCallback((q: string | undefined) => onQueryChange({ q, page: 1 }), [onQueryChange])
+  return (
+    <div className="flex flex-wrap items-end gap-3">
+      <SearchField value={query.q} onSearch={onSearch} placeholder="Order number, customer or e-mail" />
+      <label className="block space-y-1">
+        <span className={labelText}>Status</span>
+        <Select value={query.status ?? ''} onChange={(e) => onQueryChange({ status: (e.target.value || undefined) as OrderListQuery['status'], page: 1 })} className="w-40">
+          <option value="">Any status</option>
+          {ORDER_STATUSES.map((s) => (
+            <option key={s} value={s}>
+              {ORDER_STATUS_LABELS[s]}
+            </option>
+          ))}
+        </Select>
+      </label>
+      <label className="block space-y-1">
+        <span className={labelText}>Kit</span>
+        <Select value={query.kitId ?? ''} onChange={(e) => onQueryChange({ kitId: e.target.value || undefined, page: 1 })} className="w-56">
+          <option value="">Any kit</option>
+          {(kits.data ?? []).map((k) => (
+            <option key={k.id} value={k.id}>
+              {k.sku} · {k.name}
+            </option>
+          ))}
+        </Select>
+      </label>
+      <label className="block space-y-1">
+        <span className={labelText}>Placed from</span>
+        <Input type="date" value={query.from ?? ''} max={query.to} onChange={(e) => onQueryChange({ from: e.target.value || undefined, page: 1 })} className="w-44" />
+      </label>
+      <label className="block space-y-1">
+        <span className={labelText}>Placed to</span>
+        <Input type="date" value={query.to ?? ''} min={query.from} onChange={(e) => onQueryChange({ to: e.target.value || undefined, page: 1 })} className="w-44" />
+      </label>
+    </div>
+  )
+}

@@ -1,0 +1,154 @@
+import { useState } from 'react'
+import { toast } from 'sonner'
+import { ORDER_CSV_COLUMNS, type OrderCsvError, type OrderImportPreview } from '@kitwright/shared/orders-csv'
+import { Button } from '../../../components/ui/button'
+import { ApiError } from '../../../lib/api-client'
+import { useImportOrders, usePreviewOrdersImport } from '../api/order-queries'
+import { formatMoney } from './format'
+
+function errorText(e: OrderCsvError) {
+  return `Row ${e.row}${e.column ? `, ${e.column}` : ''}: ${e.message}`
+}
+
+/** Row errors back from a refused import's `fields` (`rows.4.quantity`). */
+function errorsFromFields(fields: Record<string, string>): OrderCsvError[] {
+  return Object.entries(fields)
+    .flatMap(([key, message]) => {
+      const m = /^rows\.(\d+)\.(.+)$/.exec(key)
+      return m ? [{ row: Number(m[1]), column: m[2] === '_' ? null : m[2]!, message }] : []
+    })
+    .sort((a, b) => a.row - b.row)
+}
+
+const ACTION_WORDS = { create: 'Create', skip: 'Skip: already stored' } as const
+
+function PreviewTable({ preview }: { preview: OrderImportPreview }) {
+  return (
+    <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
+      <table className="w-full text-left" aria-label="Import preview">
+        <thead className="bg-stone-50 text-sm text-stone-600">
+          <tr>
+            {['Rows', 'Order', 'Customer', 'Lines', 'Units', 'Total', 'Will'].map((h) => (
+              <th key={h} className="px-3 py-2 font-bold">
+                {h}
+              </th>
+            ))}
+          </tr>
+        </thead>
+        <tbody>
+          {preview.orders.map((o) => (
+            <tr key={o.number} className={o.action === null ? 'border-t border-stone-200 bg-red-50' : 'border-t border-stone-200'}>
+              <td className="px-3 py-2 tabular-nums">{o.rows.join(', ')}</td>
+              <td className="px-3 py-2 font-bold">{o.number}</td>
+              <td className="px-3 py-2">{o.customerName || '—'}</td>
+              <td className="px-3 py-2 tabular-nums">{o.lineCount}</td>
+              <td className="px-3 py-2 tabular-nums">{o.units}</td>
+              <td className="px-3 py-2 tabular-nums">{formatMoney(o.totalCents)}</td>
+              <td className="px-3 py-2">{o.action ? ACTION_WORDS[o.action] : 'Fix its rows first'}</td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </div>
+  )
+}
+
+/** Choose or paste an orders CSV, see what it would do and what to fix, then import it all at once. */
+export function OrdersImport({ onImported }: { onImported: () => void }) {
+  const [csv, setCsv] = useState('')
+  const [checked, setChecked] = useState<{ csv: string; preview: OrderImportPreview } | null>(null)
+  const [importErrors, setImportErrors] = useState<OrderCsvError[]>([])
+  const preview = usePreviewOrdersImport()
+  const importOrders = useImportOrders()
+
+  const runPreview = (text: string) => {
+    setImportErrors([])
+    preview.mutate(text, {
+      onSuccess: (p) => setChecked({ csv: text, preview: p }),
+      onError: (err) => toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright'),
+    })
+  }
+  const current = checked && checked.csv === csv ? checked.preview : null
+  const canImport = !!current && current.errors.length === 0 && current.creates > 0 && !importOrders.isPending
+  const errors = importErrors.length ? importErrors : (current?.errors ?? [])
+
+  return (
+    <div className="space-y-4">
+      <div className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
+        <p className="text-stone-700">
+          One row per order line, the order's own fields repeated on each of its lines. Columns: <code className="text-sm">{ORDER_CSV_COLUMNS.join(', ')}</code>.
+          The header is row 1. Dates as 2026-03-01 (or 2026-03-01T14:30:00Z), prices in dollars (189.00), country as two letters (US). An order number
+          already stored is skipped, so the same file can be imported twice safely.
+        </p>
+        <label className="block space-y-1">
+          <span className="block text-sm font-bold text-stone-700">CSV file</span>
+          <input
+            type="file"
+            accept=".csv,text/csv"
+            className="block"
+            onChange={async (e) => {
+              const file = e.target.files?.[0]
+              if (!file) return
+              const text = await file.text()
+              setCsv(text)
+              runPreview(text)
+            }}
+          />
+        </label>
+        <label className="block space-y-1">
+          <span className="block text-sm font-bold text-stone-700">…or paste it here</span>
+          <textarea
+            value={csv}
+            onChange={(e) => setCsv(e.target.value)}
+            rows={6}
+            spellCheck={false}
+            className="w-full rounded-md border border-stone-300 p-2 font-mono text-sm focus:outline-2 focus:outline-brand-600"
+          />
+        </label>
+        <div className="flex flex-wrap gap-3">
+          <Button variant="secondary" disabled={csv.trim() === '' || preview.isPending} onClick={() => runPreview(csv)}>
+            Preview
+          </Button>
+          <Button
+            disabled={!canImport}
+            onClick={() =>
+              importOrders.mutate(csv, {
+                onSuccess: (r) => {
+                  toast.success(`Imported ${r.created.length} order${r.created.length === 1 ? '' : 's'}${r.skipped.length ? `; ${r.skipped.length} already stored, skipped` : ''}`)
+                  onImported()
+                },
+                onError: (err) => {
+                  if (err instanceof ApiError) setImportErrors(errorsFromFields(err.body.fields ?? {}))
+                  toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
+                },
+              })
+            }
+          >
+            Import
+          </Button>
+        </div>
+        {current && (
+          <p aria-live="polite" className="font-bold">
+            {current.creates} new, {current.skips} already stored
+            {current.errors.length > 0 ? ` · ${current.errors.length} to fix before importing; nothing is imported until every row is right` : ''}
+          </p>
+        )}
+      </div>
+      {errors.length > 0 && (
+        <ul role="alert" aria-label="Rows to fix" className="space-y-1 rounded-lg border border-red-300 bg-red-50 p-4 text-red-900">
+          {errors.map((e, i) => (
+            <li key={i}>{errorText(e)}</li>
+          ))}
+        </ul>
+      )}
+      {current && current.warnings.length > 0 && (
+        <ul aria-label="Worth knowing" className="space-y-1 rounded-lg border border-amber-300 bg-amber-50 p-4 text-amber-950">
+          {current.warnings.map((e, i) => (
+            <li key={i}>{errorText(e)}</li>
+          ))}
+        </ul>
+      )}
+      {current && current.orders.length > 0 && <PreviewTable preview={current} />}
+    </div>
+  )
+}

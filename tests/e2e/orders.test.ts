@@ -1,0 +1,129 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
+import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
+import { DEMO_USERS } from '../../server/src/db/seed'
+import { launchChromium, signIn } from '../support/browser'
+
+const baseUrl = inject('baseUrl')
+let browser: Browser
+let context: BrowserContext
+let page: Page
+
+const planner = DEMO_USERS.find((u) => u.role === 'planner')!
+
+beforeAll(async () => {
+  browser = await launchChromium()
+})
+afterAll(() => browser.close())
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 1366, height: 900 } })
+  page = await context.newPage()
+  await signIn(page, baseUrl, planner.email, planner.password)
+  await page.getByRole('heading', { name: /Good day/ }).waitFor()
+})
+afterEach(() => context.close())
+
+/** Keeps a picture of the page when KW_SHOTS names a folder (for a person to look at). */
+async function shot(name: string) {
+  if (process.env.KW_SHOTS) await page.screenshot({ path: `${process.env.KW_SHOTS}/${name}.png`, fullPage: true })
+}
+
+function ordersTable() {
+  return page.getByRole('table', { name: 'Orders' })
+}
+function orderRow(number: string) {
+  return ordersTable().getByRole('row').filter({ has: page.getByRole('link', { name: number, exact: true }) })
+}
+
+async function enterPhoneOrder(number: string, kitSku: string, quantity: number) {
+  await page.goto(`${baseUrl}/orders/new`)
+  await page.getByRole('heading', { name: 'New phone order' }).waitFor()
+  await page.getByLabel('Order number').fill(number)
+  await page.getByLabel('Promised ship date (optional)').fill('2031-06-30')
+  const customer = page.getByRole('group', { name: 'Customer' })
+  await customer.getByLabel('Name').fill('Bramble Okonkwo-Hart')
+  await customer.getByLabel('E-mail').fill('bramble@seedcellar.example')
+  const shipTo = page.getByRole('group', { name: 'Ship to' })
+  await shipTo.getByLabel('Name on the parcel').fill('Bramble Okonkwo-Hart')
+  await shipTo.getByLabel('Street address').fill('88 Nettlefold Lane')
+  await shipTo.getByLabel('City').fill('Wickham Cross')
+  await shipTo.getByLabel('Postal code').fill('30301')
+  await page.getByLabel('Kit, line 1').selectOption(kitSku)
+  await page.getByLabel('Quantity').fill(String(quantity))
+  await page.getByLabel('Unit price ($)').fill('129.00')
+  await page.getByRole('button', { name: 'Save order' }).click()
+}
+
+describe('orders, in Chromium', () => {
+  it('lets a planner filter the orders, open one, release it and see its work orders', async () => {
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Orders', exact: true }).click()
+    await page.getByRole('heading', { name: 'Orders', exact: true }).waitFor()
+    await orderRow('W-2401').waitFor()
+    // The demo's late order is flagged in the list.
+    expect(await orderRow('W-2395').getAttribute('data-late')).toBe('true')
+    await shot('orders-list')
+
+    await page.getByLabel('Status').selectOption('open')
+    await page.waitForURL(/status=open/)
+    await orderRow('W-2401').waitFor({ state: 'detached' })
+    await page.getByLabel('Search').fill('halloway')
+    await page.waitForURL(/q=halloway/)
+    await expect.poll(() => ordersTable().getByRole('link').allTextContents()).toEqual(['W-2404'])
+    // Filters live in the URL: a reload shows the same rows.
+    await page.reload()
+    await orderRow('W-2404').waitFor()
+    expect(await page.getByLabel('Status').inputValue()).toBe('open')
+
+    await orderRow('W-2404').getByRole('link', { name: 'W-2404' }).click()
+    await page.getByRole('heading', { name: 'Order W-2404' }).waitFor()
+    expect(await page.getByRole('table', { name: 'Order lines' }).getByRole('row').count()).toBe(4) // header, 2 lines, total
+    expect(await page.getByText('62 Cinderwick Avenue').isVisible()).toBe(true)
+    expect(await page.getByText('No work orders yet').isVisible()).toBe(true)
+    await shot('order-detail-open')
+
+    await page.getByRole('button', { name: 'Release into work orders' }).click()
+    const workOrders = page.getByRole('table', { name: 'Work orders' })
+    await workOrders.waitFor()
+    // 1 twelve-site kit and 2 cup packs: three units, three serials.
+    const serials = await workOrders.getByRole('row').filter({ hasNot: page.getByRole('columnheader') }).locator('td:first-child').allTextContents()
+    expect(serials).toHaveLength(3)
+    expect(new Set(serials).size).toBe(3)
+    for (const s of serials) expect(s).toMatch(/^U-\d+$/)
+    expect(await page.getByText('Released', { exact: true }).first().isVisible()).toBe(true)
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/Released into 3 work orders/).waitFor()
+    expect(await page.getByRole('button', { name: 'Release into work orders' }).count()).toBe(0)
+    await shot('order-detail-released')
+  })
+
+  it('enters a phone order through the form, and refuses its number a second time', async () => {
+    await enterPhoneOrder('P-E2E-1', 'MW-TOTE-6C', 1)
+    await page.getByRole('heading', { name: 'Order P-E2E-1' }).waitFor()
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/Entered as a phone order/).waitFor()
+    expect(await page.getByText(planner.name).first().isVisible()).toBe(true)
+
+    await enterPhoneOrder('P-E2E-1', 'MW-TOTE-6C', 1)
+    await page.getByText('Already in use').waitFor()
+    expect(page.url()).toMatch(/\/orders\/new$/)
+    await shot('order-form-duplicate')
+  })
+
+  it('names what is short, releases anyway on request, and shows it on the shortages page', async () => {
+    // More 12-site kits than the demo shop has pumps for (7 received).
+    await enterPhoneOrder('P-E2E-2', 'MW-TOTE-12', 9)
+    await page.getByRole('heading', { name: 'Order P-E2E-2' }).waitFor()
+    await page.getByRole('button', { name: 'Release into work orders' }).click()
+    const short = page.getByRole('list', { name: 'Short parts' })
+    await short.waitFor()
+    expect(await short.textContent()).toContain(DEMO_PART_SKUS.pump)
+    await shot('order-release-short')
+    await page.getByRole('button', { name: 'Release anyway with shortages' }).click()
+    await page.getByRole('table', { name: 'Work orders' }).waitFor()
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/Released with parts short/).waitFor()
+
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Shortages' }).click()
+    const pumpRow = page.getByRole('table', { name: 'Shortages' }).getByRole('row').filter({ hasText: DEMO_PART_SKUS.pump })
+    await pumpRow.waitFor()
+    expect(await pumpRow.getAttribute('data-short')).toBe('true')
+    await shot('shortages')
+  })
+})
