@@ -14,6 +14,9 @@ export const MAIL_STATUS_LABELS: Record<MailStatus, string> = {
   failed: 'Gave up',
 }
 
+/** The statuses the outbox filters by, in the order a message passes through them. */
+export const MAIL_STATUSES_FOR_FILTER: readonly MailStatus[] = MAIL_STATUSES
+
 /** One message as the outbox lists it. */
 export const MailSummarySchema = z.object({
   id: z.string().uuid(),

@@ -36,6 +36,7 @@ export const router = createBrowserRouter([
           { path: paths.ordersImport.pattern, lazy: () => import('./routes/orders/orders-import'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
           { path: paths.order.pattern, lazy: () => import('./routes/orders/order-detail'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
           { path: paths.shortages.pattern, lazy: () => import('./routes/shortages'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+          { path: paths.outbox.pattern, lazy: () => import('./routes/outbox'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
           { path: paths.cutBench.pattern, lazy: () => import('./routes/bench/cut'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'cutter']) },
           { path: paths.buildBench.pattern, lazy: () => import('./routes/bench/build'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler']) },
           { path: paths.packBench.pattern, lazy: () => import('./routes/bench/pack'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'packer']) },

@@ -22,6 +22,7 @@ export const paths = {
   ordersImport: { pattern: '/orders/import', href: () => '/orders/import' },
   order: { pattern: '/orders/:orderId', href: (orderId: string) => `/orders/${orderId}` },
   shortages: { pattern: '/shortages', href: () => '/shortages' },
+  outbox: { pattern: '/outbox', href: () => '/outbox' },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

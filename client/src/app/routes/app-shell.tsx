@@ -14,6 +14,7 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
+  { label: 'Outbox', href: paths.outbox.href(), roles: ['admin', 'planner'] },
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
   { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },
