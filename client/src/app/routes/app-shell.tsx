@@ -15,6 +15,8 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
   { label: 'Outbox', href: paths.outbox.href(), roles: ['admin', 'planner'] },
+  { label: 'Cut runs', href: paths.cutRuns.href(), roles: ['admin', 'planner'] },
+  { label: 'Bins', href: paths.bins.href(), roles: ['admin', 'planner'] },
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
   { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },
