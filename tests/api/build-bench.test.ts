@@ -397,7 +397,9 @@ describe('the build record', () => {
       { cutRunId: run!.id, stickId: stick!.id, position: 1, offset: inches(1 / 4), length: inches(20), workOrderId: s.wo.id, cutPartId: part!.id, status: 'cut', cutBy: cutter.user.id, cutAt: new Date() },
       { cutRunId: run!.id, stickId: stick!.id, position: 2, offset: inches(20.375), length: inches(20), workOrderId: s.wo.id, cutPartId: part!.id, status: 'replanned' },
     ])
-    const res = await s.assembler.get(`/api/units/${s.wo.serial}`)
+    // Scanning the unit's bin opens the same record.
+    const bin = await insertBin(t.db, s.wo.id)
+    const res = await s.assembler.get(`/api/units/${bin.code}`)
     const record = UnitRecordSchema.parse(res.body)
     expect(record.cutThroughKitwright).toBe(true)
     expect(record.pieces).toEqual([

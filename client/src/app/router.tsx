@@ -43,6 +43,7 @@ export const router = createBrowserRouter([
           { path: paths.cutBench.pattern, lazy: () => import('./routes/bench/cut'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'cutter']) },
           { path: paths.buildBench.pattern, lazy: () => import('./routes/bench/build'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler']) },
           { path: paths.packBench.pattern, lazy: () => import('./routes/bench/pack'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'packer']) },
+          { path: paths.unit.pattern, lazy: () => import('./routes/units/unit'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler', 'packer']) },
           { path: '*', element: <NotFoundPage /> },
         ],
       },

@@ -11,6 +11,7 @@ export const paths = {
   cutBench: { pattern: '/bench/cut', href: () => '/bench/cut' },
   buildBench: { pattern: '/bench/build', href: () => '/bench/build' },
   packBench: { pattern: '/bench/pack', href: () => '/bench/pack' },
+  unit: { pattern: '/units/:serial', href: (serial: string) => `/units/${encodeURIComponent(serial)}` },
   kits: { pattern: '/catalog/kits', href: () => '/catalog/kits' },
   revision: { pattern: '/catalog/revisions/:revisionId', href: (revisionId: string) => `/catalog/revisions/${revisionId}` },
   parts: { pattern: '/catalog/parts', href: () => '/catalog/parts' },

@@ -3,15 +3,18 @@ import type { Db } from '../../db/client'
 import { NotFound } from '../../lib/http-errors'
 import type { Storage } from '../../lib/storage'
 import { loadBuildPage } from './build-page'
-import { findWorkOrderBySerial, namesOf, orderNumberOf, piecesOfWorkOrder } from './build.queries'
+import { findBinByCode, findWorkOrderById, findWorkOrderBySerial, namesOf, orderNumberOf, piecesOfWorkOrder } from './build.queries'
 
 /**
- * The build record of one serial, whatever its status: the revision, where each pipe piece came
+ * The build record of one serial (or of the unit in a scanned bin), whatever its status: the revision, where each pipe piece came
  * from (when it was cut through a Kitwright cut run), every tick and undo, photos, leak tests, rework.
  */
-export async function getUnitRecord(db: Db, storage: Storage, serial: string): Promise<UnitRecord> {
-  const wo = await findWorkOrderBySerial(db, serial.trim())
-  if (!wo) throw new NotFound(`No unit with serial "${serial.trim()}"`)
+export async function getUnitRecord(db: Db, storage: Storage, serialOrBin: string): Promise<UnitRecord> {
+  const code = serialOrBin.trim()
+  // A scanned bin label works too, while the bin still travels with its unit.
+  const bin = await findBinByCode(db, code)
+  const wo = bin?.workOrderId ? await findWorkOrderById(db, bin.workOrderId) : await findWorkOrderBySerial(db, code)
+  if (!wo) throw new NotFound(`No unit with serial "${code}"${bin ? ` (bin ${bin.code} holds no unit)` : ''}`)
   const [page, orderNumber, pieces] = await Promise.all([loadBuildPage(db, storage, wo), orderNumberOf(db, wo.orderId), piecesOfWorkOrder(db, wo.id)])
   const names = await namesOf(db, pieces.map((p) => p.cutBy))
   return {

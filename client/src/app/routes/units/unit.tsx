@@ -1,0 +1,25 @@
+import { useQuery } from '@tanstack/react-query'
+import { useNavigate, useParams } from 'react-router-dom'
+import { BenchScanField } from '../../../features/build-bench/components/bench-scan-field'
+import { paths } from '../../../config/paths'
+import { unitRecordOptions } from '../../../features/build-bench/api/build-queries'
+import { BuildRecord } from '../../../features/build-bench/components/build-record'
+
+/** The build record of one serial; scanning another serial here opens its record. */
+export function Component() {
+  const { serial = '' } = useParams()
+  const navigate = useNavigate()
+  const record = useQuery(unitRecordOptions(serial))
+  return (
+    <div className="space-y-6">
+      <BenchScanField label="Scan or type a serial to open its build record" className="max-w-xl print:hidden" onScan={(code) => void navigate(paths.unit.href(code.toUpperCase()))} />
+      {record.isError && (
+        <p role="alert" className="text-2xl text-red-700">
+          {record.error.message}
+        </p>
+      )}
+      {record.isPending && <p className="text-xl">Loading the build record of {serial}…</p>}
+      {record.data && <BuildRecord record={record.data} />}
+    </div>
+  )
+}

@@ -1,0 +1,90 @@
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
+import {
+  BuildPageSchema,
+  PresignedPhotoSchema,
+  UnitRecordSchema,
+  type BuildPage,
+  type PhotoContentType,
+  type RecordLeakTestInput,
+} from '@kitwright/shared/build'
+import { apiFetch } from '../../../lib/api-client'
+import { putToPresignedUrl } from './put-to-presigned-url'
+
+export const buildKeys = {
+  all: ['build'] as const,
+  lookup: (code: string) => [...buildKeys.all, 'lookup', code.trim().toUpperCase()] as const,
+  units: () => [...buildKeys.all, 'unit'] as const,
+  unit: (serial: string) => [...buildKeys.units(), serial.toUpperCase()] as const,
+}
+
+/** The build page of a scanned bin or serial. Not refetched on focus: a built unit would answer 409 and hide the page. */
+export function buildLookupOptions(code: string) {
+  return queryOptions({
+    queryKey: buildKeys.lookup(code),
+    queryFn: ({ signal }) => apiFetch(`/build/lookup?${new URLSearchParams({ code })}`, BuildPageSchema, { signal }),
+    enabled: code.trim() !== '',
+    refetchOnWindowFocus: false,
+    retry: false,
+  })
+}
+
+/** The build record of one serial. */
+export function unitRecordOptions(serial: string) {
+  return queryOptions({
+    queryKey: buildKeys.unit(serial),
+    queryFn: ({ signal }) => apiFetch(`/units/${encodeURIComponent(serial)}`, UnitRecordSchema, { signal }),
+    retry: false,
+  })
+}
+
+/** Every build mutation answers with the whole page: put it where the scanned code's page is. */
+function useSetPage(code: string) {
+  const qc = useQueryClient()
+  return (page: BuildPage) => {
+    qc.setQueryData(buildKeys.lookup(code), page)
+    return qc.invalidateQueries({ queryKey: buildKeys.unit(page.workOrder.serial) })
+  }
+}
+
+export function useTickStep(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: ({ workOrderId, stepId, measurement }: { workOrderId: string; stepId: string; measurement: number | null }) =>
+      apiFetch(`/build/${workOrderId}/steps/${stepId}/tick`, BuildPageSchema, { method: 'POST', body: { measurement } }),
+    onSuccess: setPage,
+  })
+}
+
+export function useUndoTick(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: ({ workOrderId, stepId }: { workOrderId: string; stepId: string }) =>
+      apiFetch(`/build/${workOrderId}/steps/${stepId}/undo`, BuildPageSchema, { method: 'POST', body: {} }),
+    onSuccess: setPage,
+  })
+}
+
+/** Presign, PUT the file straight to the bucket, then have the server confirm it with a HEAD. */
+export function useUploadPhoto(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: async ({ workOrderId, stepId, file }: { workOrderId: string; stepId: string | null; file: File }) => {
+      const presigned = await apiFetch(`/build/${workOrderId}/photos/presign`, PresignedPhotoSchema, {
+        method: 'POST',
+        body: { contentType: file.type as PhotoContentType, size: file.size, stepId },
+      })
+      await putToPresignedUrl(presigned, file)
+      return apiFetch(`/build/${workOrderId}/photos/confirm`, BuildPageSchema, { method: 'POST', body: { key: presigned.key } })
+    },
+    onSuccess: setPage,
+  })
+}
+
+export function useRecordLeakTest(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: ({ workOrderId, ...input }: RecordLeakTestInput & { workOrderId: string }) =>
+      apiFetch(`/build/${workOrderId}/leak-tests`, BuildPageSchema, { method: 'POST', body: input }),
+    onSuccess: setPage,
+  })
+}

@@ -1,0 +1,79 @@
+import type { UnitRecord } from '@kitwright/shared/build'
+import { Button } from '../../../components/ui/button'
+import { Section } from '../../../components/ui/section'
+import './build-record.css'
+import { formatWhen } from './format'
+import { LeakTestList } from './leak-test-list'
+import { PhotoStrip } from './photo-strip'
+import { RecordPieces } from './record-pieces'
+import { RecordSteps } from './record-steps'
+
+const STATUS: Record<UnitRecord['workOrder']['status'], string> = {
+  waiting_cut: 'waiting for the cut bench',
+  cut: 'cut, not built yet',
+  building: 'being built',
+  rework: 'in rework',
+  built: 'built and leak-tested, ready to pack',
+  packed: 'packed',
+  shipped: 'shipped',
+  cancelled: 'cancelled',
+}
+
+/** Everything about one serial, read-only and printable. */
+export function BuildRecord({ record }: { record: UnitRecord }) {
+  const firstTest = record.leakTests[0]
+  return (
+    <article data-build-record className="space-y-5">
+      <div className="flex flex-wrap items-baseline gap-x-6 gap-y-2">
+        <h1 className="text-4xl font-bold">Build record · Unit {record.workOrder.serial}</h1>
+        <Button variant="secondary" className="ml-auto print:hidden" onClick={() => window.print()}>
+          Print
+        </Button>
+      </div>
+      <dl className="grid grid-cols-[auto_1fr] gap-x-6 gap-y-1 text-lg">
+        <dt className="font-bold">Kit</dt>
+        <dd>
+          {record.kit.sku} · {record.kit.name}
+        </dd>
+        <dt className="font-bold">Revision</dt>
+        <dd>{record.revision.code}</dd>
+        <dt className="font-bold">Order</dt>
+        <dd>{record.order.number}</dd>
+        <dt className="font-bold">Status</dt>
+        <dd data-testid="unit-status">{STATUS[record.workOrder.status]}</dd>
+        <dt className="font-bold">Leak test</dt>
+        <dd>
+          {firstTest
+            ? `${record.leakTests.length} test${record.leakTests.length === 1 ? '' : 's'}; ${firstTest.passed ? 'passed at the first attempt' : 'failed at the first attempt'}`
+            : record.leakTestProtocol
+              ? 'not run yet'
+              : 'none for this revision'}
+        </dd>
+      </dl>
+      <Section title="Pipe pieces and their sticks" id="record-pieces">
+        <RecordPieces record={record} />
+      </Section>
+      <Section title="Build steps" id="record-steps">
+        <RecordSteps record={record} />
+      </Section>
+      <Section title="Photos" id="record-photos">
+        {record.photos.length > 0 ? <PhotoStrip photos={record.photos} /> : <p className="text-lg">No photos.</p>}
+      </Section>
+      <Section title="Leak tests" id="record-leak-tests">
+        <LeakTestList tests={record.leakTests} />
+      </Section>
+      {record.rework.length > 0 && (
+        <Section title="Rework" id="record-rework">
+          <ul className="space-y-2">
+            {record.rework.map((r) => (
+              <li key={r.id} className="text-base">
+                {r.reason} — {r.by.name}, {formatWhen(r.at)}
+                {r.resolvedAt && r.resolvedBy && `; resolved by ${r.resolvedBy.name}, ${formatWhen(r.resolvedAt)}`}
+              </li>
+            ))}
+          </ul>
+        </Section>
+      )}
+    </article>
+  )
+}
