@@ -31,6 +31,7 @@ const env = {
   S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
   S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
   SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${localPorts.smtp}`,
+  CARRIER_URL: process.env.CARRIER_URL ?? `http://127.0.0.1:${localPorts.carrier}`,
 }
 
 try {
@@ -38,9 +39,9 @@ try {
     .then((child) => new Promise((resolve, reject) => child.once('exit', (c) => (c === 0 ? resolve() : reject(new Error('database set-up failed'))))))
   if (args.has('--only-migrate') || args.has('--only-seed')) await stopAll(0)
 
-  step('starting the local S3 and SMTP stand-ins')
+  step('starting the local S3, SMTP and carrier stand-ins')
   await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
-    env: { FAKE_DATA_DIR: dataDir, FAKE_S3_PORT: String(localPorts.s3), FAKE_SMTP_PORT: String(localPorts.smtp), S3_BUCKET: bucket },
+    env: { FAKE_DATA_DIR: dataDir, FAKE_S3_PORT: String(localPorts.s3), FAKE_SMTP_PORT: String(localPorts.smtp), FAKE_CARRIER_PORT: String(localPorts.carrier), S3_BUCKET: bucket },
     readyWhen: /^ready$/,
   })
 

@@ -21,15 +21,15 @@ if (pg.startedHere) onCleanup(() => pg.stop())
 
 // Every run gets its own databases, stand-in ports and folders, so two runs can share the cluster.
 const runId = `r${process.pid}`
-const testPorts = { s3: await freePort(), smtp: await freePort() }
+const testPorts = { s3: await freePort(), smtp: await freePort(), carrier: await freePort() }
 const testData = path.join(dataDir, 'test', runId)
 const testDbBase = `kitwright_test_${runId}`
 onCleanup(() => dropRunDatabases(pg.url('postgres'), testDbBase))
 onCleanup(() => rmSync(testData, { recursive: true, force: true }))
 
-step('starting the test S3 and SMTP stand-ins')
+step('starting the test S3, SMTP and carrier stand-ins')
 await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
-  env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), S3_BUCKET: bucket },
+  env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), FAKE_CARRIER_PORT: String(testPorts.carrier), S3_BUCKET: bucket },
   readyWhen: /^ready$/,
   quiet: true,
 })
@@ -44,6 +44,7 @@ const vitest = await startChild('vitest', path.join(root, 'node_modules/.bin/vit
     S3_ACCESS_KEY_ID: 'S3RVER',
     S3_SECRET_ACCESS_KEY: 'S3RVER',
     SMTP_URL: `smtp://127.0.0.1:${testPorts.smtp}`,
+    CARRIER_URL: `http://127.0.0.1:${testPorts.carrier}`,
     FAKE_MAIL_DIR: path.join(testData, 'mail'),
     TEST_RUN_DIR: testData,
     NO_COLOR: '1',

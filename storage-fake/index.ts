@@ -1,21 +1,24 @@
-// Starts the local stand-ins for the services a real shop would rent: S3 and an SMTP relay.
+// Starts the local stand-ins for the services a real shop would rent: S3, an SMTP relay and a carrier.
 // Prints "ready" once all listen; stops on SIGINT/SIGTERM.
 import path from 'node:path'
+import { startCarrierFake } from './carrier'
 import { startS3Fake } from './s3'
 import { startSmtpCatcher } from './smtp'
 
 const dir = process.env.FAKE_DATA_DIR ?? path.resolve('.data')
 const s3Port = Number(process.env.FAKE_S3_PORT ?? 54330)
 const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 54325)
+const carrierPort = Number(process.env.FAKE_CARRIER_PORT ?? 54331)
 const bucket = process.env.S3_BUCKET ?? 'kitwright'
 
 const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket })
 const smtp = await startSmtpCatcher({ port: smtpPort, directory: path.join(dir, 'mail') })
-console.log(`[storage-fake] S3 on http://127.0.0.1:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}`)
+const carrier = await startCarrierFake({ port: carrierPort })
+console.log(`[storage-fake] S3 on http://127.0.0.1:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}`)
 console.log('ready')
 
 async function stop() {
-  await Promise.allSettled([s3.close(), smtp.close()])
+  await Promise.allSettled([s3.close(), smtp.close(), carrier.close()])
   process.exit(0)
 }
 process.on('SIGINT', () => void stop())

@@ -7,6 +7,7 @@ export const localPorts = {
   postgres: num('KITWRIGHT_PG_PORT', 54329),
   s3: num('FAKE_S3_PORT', 54330),
   smtp: num('FAKE_SMTP_PORT', 54325),
+  carrier: num('FAKE_CARRIER_PORT', 54331),
 }
 
 export const bucket = process.env.S3_BUCKET ?? 'kitwright'

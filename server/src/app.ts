@@ -14,6 +14,7 @@ import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
 import { buildRouter, unitsRouter } from './features/build/build.routes'
+import { packRouter, shipmentsRouter } from './features/pack/pack.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { authenticate } from './lib/auth'
@@ -37,7 +38,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -1,5 +1,6 @@
 import type pg from 'pg'
 import type { Db } from './db/client'
+import type { Carrier } from './features/shipping/carrier'
 import type { TokenConfig } from './lib/auth'
 import type { Jobs } from './lib/jobs'
 import type { Logger } from './lib/logger'
@@ -19,6 +20,10 @@ export interface Deps {
   storeWebhookSecret?: string
   /** The S3-compatible store of unit photos (browsers upload to it with presigned URLs). */
   storage: Storage
+  /** The carrier that sells shipping labels; without one the pack bench cannot buy a label. */
+  carrier?: Carrier | null
+  /** The app's public URL, for links in customer e-mail; http://localhost:3000 when unset. */
+  appUrl?: string
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

@@ -1,4 +1,5 @@
 import { createApp } from './app'
+import { carrierFromEnv } from './features/shipping/carrier'
 import { createDb } from './db/client'
 import { readEnv } from './env'
 import { createJobs } from './lib/jobs'
@@ -21,6 +22,8 @@ const { app } = createApp({
   mail,
   storage: createStorage(storageConfigFromEnv(env)),
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
+  carrier: carrierFromEnv(env.CARRIER_URL),
+  appUrl: env.APP_URL,
   tokens: {
     secret: new TextEncoder().encode(env.SESSION_SECRET),
     lifetimeSeconds: env.SESSION_MINUTES * 60,

@@ -1,6 +1,7 @@
 import request from 'supertest'
 import type { Role } from '@kitwright/shared/roles'
 import { createApp } from '../../server/src/app'
+import { carrierFromEnv } from '../../server/src/features/shipping/carrier'
 import type { Deps } from '../../server/src/deps'
 import { createJobs } from '../../server/src/lib/jobs'
 import { createLogger } from '../../server/src/lib/logger'
@@ -34,6 +35,9 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     jobs,
     mail: { smtpUrl: process.env.SMTP_URL, from: 'orders@kitwright-test.example' },
     storeWebhookSecret: TEST_STORE_SECRET,
+    // The run's carrier stand-in (started by `npm test`).
+    carrier: carrierFromEnv(process.env.CARRIER_URL),
+    appUrl: 'http://localhost:3000',
     storage: createStorage(options.storage ?? testStorageConfig()),
   }
   return { ...createApp(deps), deps }

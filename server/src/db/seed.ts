@@ -10,6 +10,7 @@ import { shopSettings, users } from './schema/index'
 import { hashSecret } from '../features/users/users.service'
 import { seedDemoParts } from './seed-catalog'
 import { seedDemoStock } from './seed-stock'
+import { seedDemoShipping } from './seed-shipping'
 
 /**
  * The demo shop, Mistwell Tote Works, and its people are invented for the demo; any likeness to a
@@ -42,6 +43,7 @@ export async function seedDemo(db: Db) {
       .onConflictDoNothing({ target: users.email })
   }
   await seedDemoParts(db)
+  await seedDemoShipping(db)
   await seedDemoStock(db)
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })

@@ -1,0 +1,101 @@
+import { RevisionFrameSchema } from '@kitwright/shared/kits'
+import { depthForVolume } from '@kitwright/shared/domain/reservoir'
+import { formatWeight } from '@kitwright/shared/domain/weights'
+import type { Db } from '../../db/client'
+import type { OrderRow, ShopSettingsRow } from '../../db/schema/index'
+import { Conflict, NotFound } from '../../lib/http-errors'
+import { packingSlipPdf, type PackingSlip } from '../labels/packing-slip.pdf'
+import { shippingLabelPdf } from '../labels/shipping-label.pdf'
+import { loadPackData, shippingSplit } from './pack-view'
+import { findShipment, parcelsOf } from './pack.queries'
+
+function addressLines(a: { name: string; line1: string; line2: string | null; city: string; region: string | null; postalCode: string; country: string }) {
+  return [a.name, a.line1, ...(a.line2 ? [a.line2] : []), `${a.city}${a.region ? `, ${a.region}` : ''} ${a.postalCode}`, a.country]
+}
+
+function shipToLines(o: OrderRow) {
+  return addressLines({ name: o.shipName, line1: o.shipLine1, line2: o.shipLine2, city: o.shipCity, region: o.shipRegion, postalCode: o.shipPostalCode, country: o.shipCountry })
+}
+
+function senderLines(s: ShopSettingsRow) {
+  if (!s.senderName || !s.senderLine1 || !s.senderCity || !s.senderPostalCode || !s.senderCountry) return []
+  return addressLines({ name: s.senderName, line1: s.senderLine1, line2: s.senderLine2, city: s.senderCity, region: s.senderRegion, postalCode: s.senderPostalCode, country: s.senderCountry })
+}
+
+async function shipmentData(db: Db, shipmentId: string) {
+  const shipment = await findShipment(db, shipmentId)
+  if (!shipment) throw new NotFound('No such shipment')
+  return loadPackData(db, shipment.orderId, shipment.id)
+}
+
+/**
+ * The packing slip of a shipment: the units going (with an approved partial shipment, those
+ * confirmed; after shipping, those in its parcels), their bags, and each revision's fill line from
+ * the reservoir calculator (the tote's shape and the revision's water volume).
+ */
+export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 'a4'): Promise<Buffer> {
+  const data = await shipmentData(db, shipmentId)
+  const shipment = data.shipment!
+  const recorded = shipment.status === 'packing' ? [] : await parcelsOf(db, shipment.id)
+  const going = new Set(recorded.length ? recorded.flatMap((p) => p.workOrderIds) : shippingSplit(data).shipping)
+  const units = data.units.filter((u) => going.has(u.workOrder.id))
+  const lines: PackingSlip['lines'] = []
+  for (const u of units) {
+    const bags = data.items.filter((i) => i.workOrderId === u.workOrder.id && i.kind === 'bag')
+    const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit') || u.revision.frameInputs !== null
+    lines.push({
+      title: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`,
+      detail: built ? `Revision ${u.revision.code}, assembled and leak-tested${bags.length ? `; with ${bags.map((b) => b.description.split(' of loose')[0]!.toLowerCase()).join(', ')} of loose parts` : ''}` : `Spare-parts pack, revision ${u.revision.code}`,
+    })
+  }
+  const fillLines: PackingSlip['fillLines'] = []
+  for (const rev of new Map(units.map((u) => [u.revision.id, u])).values()) {
+    const frame = RevisionFrameSchema.safeParse(rev.revision.frameInputs)
+    const ml = rev.revision.leakTestWaterVolumeMl
+    if (!frame.success || !frame.data.tote || ml === null) continue
+    const depth = depthForVolume(frame.data.tote, ml / 1000, 'L')
+    if (depth.ok) fillLines.push({ kit: `${rev.kitName} (${rev.kitSku} rev ${rev.revision.code})`, depth: depth.depth, litres: ml / 1000 })
+  }
+  const placed = data.order.placedAt.toISOString().slice(0, 10)
+  const backOrdered = data.units.filter((u) => !going.has(u.workOrder.id) && u.workOrder.status !== 'shipped').map((u) => u.workOrder.serial)
+  return packingSlipPdf(
+    {
+      shopName: data.settings.shopName,
+      sender: senderLines(data.settings),
+      orderNumber: data.order.number,
+      placedAt: placed,
+      customerName: data.order.customerName,
+      shipTo: shipToLines(data.order),
+      trackingNumber: shipment.trackingNumber,
+      lines,
+      backOrdered: shipment.partialApprovedAt || shipment.status !== 'packing' ? backOrdered : [],
+      fillLines,
+    },
+    paper,
+  )
+}
+
+/** The 4 × 6 in label of a labelled (or shipped) shipment, one page per parcel. */
+export async function shippingLabel(db: Db, shipmentId: string): Promise<Buffer> {
+  const data = await shipmentData(db, shipmentId)
+  const shipment = data.shipment!
+  if (shipment.status === 'packing' || !shipment.trackingNumber) throw new Conflict('No label is bought for this shipment yet')
+  const recorded = await parcelsOf(db, shipment.id)
+  const serialOf = new Map(data.units.map((u) => [u.workOrder.id, u.workOrder.serial]))
+  const routing = (shipment.labelData as { routingCode?: unknown } | null)?.routingCode
+  return shippingLabelPdf({
+    from: senderLines(data.settings),
+    to: shipToLines(data.order),
+    carrier: shipment.carrier ?? '',
+    service: shipment.service ?? '',
+    trackingNumber: shipment.trackingNumber,
+    routingCode: typeof routing === 'string' ? routing : '',
+    orderNumber: data.order.number,
+    companyPrefixLength: data.settings.gs1CompanyPrefix?.length ?? 7,
+    parcels: recorded.map((p) => ({
+      sscc: p.sscc,
+      weight: formatWeight(p.billableGrams, data.settings.displayUnit),
+      contents: p.workOrderIds.map((id) => serialOf.get(id) ?? '?').join(', '),
+    })),
+  })
+}
