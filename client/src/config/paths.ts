@@ -4,7 +4,9 @@ import type { Role } from '@kitwright/shared/roles'
 export const paths = {
   signIn: { pattern: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
   home: { pattern: '/', href: () => '/' },
+  scan: { pattern: '/scan', href: () => '/scan' },
   users: { pattern: '/admin/users', href: () => '/admin/users' },
+  audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
   cutRuns: { pattern: '/planning/cut-runs', href: () => '/planning/cut-runs' },
   cutRun: { pattern: '/planning/cut-runs/:runId', href: (runId: string) => `/planning/cut-runs/${runId}` },
   bins: { pattern: '/admin/bins', href: () => '/admin/bins' },

@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState } from 'react'
 import { cn } from '../../lib/cn'
+import { CameraScanner } from './camera-scanner'
 
 /**
  * The bench scan field: a keyboard-wedge scanner types the code and presses Enter. The field takes
@@ -29,26 +30,29 @@ export function ScanField({ label, onScan, disabled, className }: { label: strin
     }
   }, [])
   return (
-    <label className={cn('block', className)}>
-      <span className="mb-1 block text-lg font-bold">{label}</span>
-      <input
-        ref={ref}
-        value={value}
-        disabled={disabled}
-        autoComplete="off"
-        autoCapitalize="characters"
-        spellCheck={false}
-        onChange={(e) => setValue(e.target.value)}
-        onKeyDown={(e) => {
-          if (e.key !== 'Enter') return
-          e.preventDefault()
-          const code = value.trim()
-          setValue('')
-          if (code) onScan(code)
-        }}
-        className="h-16 w-full rounded-lg border-4 border-brand-600 bg-white px-4 font-mono text-2xl tracking-wider focus:outline-4 focus:outline-brand-600"
-        placeholder="Scan or type a code, then Enter"
-      />
-    </label>
+    <div className={cn('space-y-2', className)}>
+      <label className="block">
+        <span className="mb-1 block text-lg font-bold">{label}</span>
+        <input
+          ref={ref}
+          value={value}
+          disabled={disabled}
+          autoComplete="off"
+          autoCapitalize="characters"
+          spellCheck={false}
+          onChange={(e) => setValue(e.target.value)}
+          onKeyDown={(e) => {
+            if (e.key !== 'Enter') return
+            e.preventDefault()
+            const code = value.trim()
+            setValue('')
+            if (code) onScan(code)
+          }}
+          className="h-16 w-full rounded-lg border-4 border-brand-600 bg-white px-4 font-mono text-2xl tracking-wider focus:outline-4 focus:outline-brand-600"
+          placeholder="Scan or type a code, then Enter"
+        />
+      </label>
+      {!disabled && <CameraScanner onScan={onScan} />}
+    </div>
   )
 }

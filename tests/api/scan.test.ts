@@ -1,0 +1,72 @@
+import { eq } from 'drizzle-orm'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { inches } from '@kitwright/shared/domain/units'
+import { ApiErrorBodySchema } from '@kitwright/shared/errors'
+import { ScanResultSchema } from '@kitwright/shared/scan'
+import { orders, workOrders } from '../../server/src/db/schema/index'
+import { seedDemo } from '../../server/src/db/seed'
+import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
+import { buildApp, signedInAs } from '../support/app'
+import { insertBin } from '../support/build-factories'
+import { insertOffcut } from '../support/cut-run-factories'
+import { createTestDb, type TestDb } from '../support/test-db'
+
+let t: TestDb
+let cutter: Awaited<ReturnType<typeof signedInAs>>['agent']
+
+beforeAll(async () => {
+  t = await createTestDb()
+  const { app } = buildApp(t)
+  await seedDemo(t.db)
+  cutter = (await signedInAs(app, t, 'cutter')).agent
+})
+afterAll(() => t.drop())
+
+async function scan(code: string) {
+  const res = await cutter.get(`/api/scan/${encodeURIComponent(code)}`)
+  expect(res.status).toBe(200)
+  return ScanResultSchema.parse(res.body)
+}
+
+describe('GET /api/scan/:code resolves every kind of Kitwright code', () => {
+  it('a bin holding a unit: the unit and where it goes next', async () => {
+    const [wo] = await t.db.select().from(workOrders).where(eq(workOrders.status, 'waiting_cut')).limit(1)
+    await t.db.update(workOrders).set({ status: 'cut' }).where(eq(workOrders.id, wo!.id))
+    const bin = await insertBin(t.db, wo!.id)
+    const result = await scan(bin.code.toLowerCase()) // scanners and hands type either case
+    expect(result).toMatchObject({ kind: 'bin', code: bin.code, workOrderSerial: wo!.serial, status: 'cut', next: { place: 'build' } })
+    expect(result.title).toContain(wo!.serial)
+  })
+
+  it('an empty bin: fill it at the cut bench', async () => {
+    const bin = await insertBin(t.db, null)
+    expect(await scan(bin.code)).toMatchObject({ kind: 'bin', next: { place: 'cut' } })
+  })
+
+  it("a unit's serial", async () => {
+    const [wo] = await t.db.select().from(workOrders).where(eq(workOrders.status, 'waiting_cut')).limit(1)
+    expect(await scan(wo!.serial)).toMatchObject({ kind: 'work_order', workOrderSerial: wo!.serial, next: { place: 'cut' } })
+  })
+
+  it('an order number', async () => {
+    const [order] = await t.db.select().from(orders).limit(1)
+    expect(await scan(order!.number)).toMatchObject({ kind: 'order', orderId: order!.id })
+  })
+
+  it('an offcut label, with its length in the shop unit', async () => {
+    const offcut = await insertOffcut(t.db, DEMO_PART_SKUS.pipeHalfInch, inches(14.5))
+    const result = await scan(`OC-${offcut.id.slice(0, 8).toUpperCase()}`)
+    expect(result).toMatchObject({ kind: 'offcut', status: 'in_stock', next: { place: 'stock' } })
+    expect(result.title).toContain('14-1/2"')
+  })
+
+  it("a part's SKU, with its shelf", async () => {
+    expect(await scan(DEMO_PART_SKUS.sprayer)).toMatchObject({ kind: 'part', next: { place: 'stock', message: 'Shelf A2-01' } })
+  })
+
+  it('an unknown code: 404 with a message that says what to do', async () => {
+    const res = await cutter.get('/api/scan/NOT-A-CODE-42')
+    expect(res.status).toBe(404)
+    expect(ApiErrorBodySchema.parse(res.body).error.message).toMatch(/No bin, unit, order, offcut or part has the code "NOT-A-CODE-42"/)
+  })
+})

@@ -1,0 +1,34 @@
+import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { afterAll, afterEach, beforeAll, beforeEach, describe, inject, it } from 'vitest'
+import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
+import { DEMO_USERS } from '../../server/src/db/seed'
+import { launchChromium, signIn } from '../support/browser'
+
+const baseUrl = inject('baseUrl')
+let browser: Browser
+let context: BrowserContext
+let page: Page
+
+beforeAll(async () => {
+  browser = await launchChromium()
+})
+afterAll(() => browser.close())
+beforeEach(async () => {
+  context = await browser.newContext({ viewport: { width: 1024, height: 768 } })
+  page = await context.newPage()
+})
+afterEach(() => context.close())
+
+describe('the scan page', () => {
+  it('tells a packer what a scanned part is and where it is shelved, and says plainly when a code is unknown', async () => {
+    const packer = DEMO_USERS.find((u) => u.role === 'packer')!
+    await signIn(page, baseUrl, packer.email, packer.password)
+    await page.getByRole('link', { name: 'Scan', exact: true }).click()
+    await page.getByLabel('Bin, unit serial, order, offcut or part').waitFor()
+    // A keyboard-wedge scanner types the code and Enter into the focused field.
+    await page.keyboard.type(`${DEMO_PART_SKUS.sprayer}\n`)
+    await page.getByRole('region', { name: 'Scanned' }).getByText('Shelf A2-01').waitFor()
+    await page.keyboard.type('NOPE-123\n')
+    await page.getByRole('alert').getByText(/No bin, unit, order, offcut or part has the code "NOPE-123"/).waitFor()
+  })
+})
