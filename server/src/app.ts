@@ -2,6 +2,7 @@ import cookieParser from 'cookie-parser'
 import express from 'express'
 import helmet from 'helmet'
 import type { Deps } from './deps'
+import { auditRouter } from './features/audit/audit.routes'
 import { authRouter } from './features/auth/auth.routes'
 import { binsRouter } from './features/bins/bins.routes'
 import { cutRunsRouter } from './features/cut-runs/cut-runs.routes'
@@ -10,6 +11,7 @@ import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
 import { mailRouter } from './features/mail/mail.routes'
 import { ordersRouter } from './features/orders/orders.routes'
 import { partsRouter } from './features/parts/parts.routes'
+import { scanRouter } from './features/scan/scan.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
@@ -38,7 +40,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
