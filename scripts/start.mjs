@@ -51,7 +51,7 @@ try {
       env: { ...env, PORT: String(localPorts.api), LOG_LEVEL: 'warn' },
       readyWhen: /listening on/,
     })
-    await startChild('vite', path.join(root, 'node_modules/.bin/vite'), ['--port', String(localPorts.app), '--strictPort'], {
+    await startChild('vite', path.join(root, 'node_modules/.bin/vite'), ['client', '--port', String(localPorts.app), '--strictPort'], {
       env: { KITWRIGHT_API: `http://127.0.0.1:${localPorts.api}` },
       readyWhen: /Local:/,
     })
