@@ -12,7 +12,7 @@ export const ELECTRICAL_CAUTIONS = [
 ]
 
 export const CARE_NOTES = [
-  'Fill with clean water to the fill line below, never above: the pump must stay covered, and the manifold must stay above the water.',
+  'Fill with clean water to the fill line above, never higher: the pump must stay covered, and the manifold must stay above the water.',
   'Check the water level every few days; top up to the fill line.',
   'Change the nutrient solution as its maker directs, and rinse the sprayers if the mist weakens.',
 ]

@@ -29,8 +29,9 @@ export async function packingSlipPdf(slip: PackingSlip, paper: 'letter' | 'a4'):
   doc.addPage({ size: PAPER[paper], margin })
   doc.fillColor('#111111').font('bold').fontSize(22).text(slip.shopName, margin, margin, { width: width - 200 })
   doc.font('body').fontSize(9.5).fillColor('#333333')
-  for (const line of slip.sender) doc.text(line, { width: width - 200 })
-  doc.image(await code128Png(slip.orderNumber, 12), pw - margin - 190, margin - 6, { fit: [190, 60], align: 'right' })
+  // The sender's name is usually the shop's: print it once.
+  for (const line of slip.sender.filter((l, i) => i > 0 || l !== slip.shopName)) doc.text(line, { width: width - 200 })
+  doc.image(await code128Png(slip.orderNumber, 12), pw - margin - 190, margin - 6, { fit: [190, 60], align: 'center' })
   doc.font('bold').fontSize(12).fillColor('#111111').text(`Order ${slip.orderNumber}`, pw - margin - 190, margin + 58, { width: 190, align: 'center' })
 
   doc.y = Math.max(doc.y, margin + 90)
