@@ -19,6 +19,7 @@ import { buildRouter, unitsRouter } from './features/build/build.routes'
 import { packRouter, shipmentsRouter } from './features/pack/pack.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
+import { reportsRouter } from './features/reports/reports.routes'
 import { authenticate } from './lib/auth'
 import { errorHandler } from './lib/error-handler'
 import { NotFound } from './lib/http-errors'
@@ -40,7 +41,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter, reportsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
