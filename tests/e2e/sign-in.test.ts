@@ -47,7 +47,7 @@ describe('signing in, in Chromium', () => {
     await signIn(page, baseUrl, packer.email, packer.password)
     await page.getByRole('heading', { name: 'Pack bench' }).waitFor()
     expect(new URL(page.url()).pathname).toBe('/bench/pack')
-    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Pack bench'])
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Pack bench', 'Scan'])
     // A packer who types the users page's address is sent back to their bench.
     await page.goto(`${baseUrl}/admin/users`)
     await page.getByRole('heading', { name: 'Pack bench' }).waitFor()
