@@ -1,6 +1,5 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
-import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { DEMO_USERS } from '../../server/src/db/seed'
 import { launchChromium, signIn } from '../support/browser'
 
@@ -68,14 +67,15 @@ describe('orders, in Chromium', () => {
     await orderRow('W-2401').waitFor({ state: 'detached' })
     await page.getByLabel('Search').fill('halloway')
     await page.waitForURL(/q=halloway/)
-    await expect.poll(() => ordersTable().getByRole('link').allTextContents()).toEqual(['W-2404'])
+    await expect.poll(() => ordersTable().getByRole('link').allTextContents()).toEqual(['W-2407', 'W-2404'])
     // Filters live in the URL: a reload shows the same rows.
     await page.reload()
-    await orderRow('W-2404').waitFor()
+    await orderRow('W-2407').waitFor()
     expect(await page.getByLabel('Status').inputValue()).toBe('open')
 
-    await orderRow('W-2404').getByRole('link', { name: 'W-2404' }).click()
-    await page.getByRole('heading', { name: 'Order W-2404' }).waitFor()
+    // Her spare-parts order: released without touching the pump stock other tests count.
+    await orderRow('W-2407').getByRole('link', { name: 'W-2407' }).click()
+    await page.getByRole('heading', { name: 'Order W-2407' }).waitFor()
     expect(await page.getByRole('table', { name: 'Order lines' }).getByRole('row').count()).toBe(4) // header, 2 lines, total
     expect(await page.getByText('62 Cinderwick Avenue').isVisible()).toBe(true)
     expect(await page.getByText('No work orders yet').isVisible()).toBe(true)
@@ -84,7 +84,7 @@ describe('orders, in Chromium', () => {
     await page.getByRole('button', { name: 'Release into work orders' }).click()
     const workOrders = page.getByRole('table', { name: 'Work orders' })
     await workOrders.waitFor()
-    // 1 twelve-site kit and 2 cup packs: three units, three serials.
+    // 1 sprayer pack and 2 cup packs: three units, three serials.
     const serials = await workOrders.getByRole('row').filter({ hasNot: page.getByRole('columnheader') }).locator('td:first-child').allTextContents()
     expect(serials).toHaveLength(3)
     expect(new Set(serials).size).toBe(3)
@@ -108,22 +108,38 @@ describe('orders, in Chromium', () => {
   })
 
   it('names what is short, releases anyway on request, and shows it on the shortages page', async () => {
-    // More 12-site kits than the demo shop has pumps for (7 received).
-    await enterPhoneOrder('P-E2E-2', 'MW-TOTE-12', 9)
+    // A pack kit of our own whose one part has 2 in stock, so the demo stock other tests read stays as it is.
+    const api = page.request
+    const post = async (path: string, data: unknown, method: 'post' | 'put' = 'post') => {
+      const res = await api[method](`${baseUrl}/api${path}`, { data })
+      expect(res.status(), await res.text()).toBeLessThan(300)
+      return (await res.json()) as { id: string; revisions: { id: string }[] }
+    }
+    const part = await post('/parts', { sku: 'E2E-FLOAT-1', name: 'Float valve (test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 20 })
+    await post('/stock/receive', { lines: [{ partId: part.id, quantity: 2 }] })
+    const kit = await post('/kits', { sku: 'E2E-PACK-FLOAT', name: 'Float valve pack (test)', storeProductId: null, description: null })
+    const rev = kit.revisions[0]!.id
+    const step = { text: 'Bag the valve.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null }
+    await post(`/revisions/${rev}`, { notes: null, frame: null, leakTest: null, bomLines: [{ partId: part.id, quantity: 1, note: null }], cutParts: [], buildSteps: [step] }, 'put')
+    await post(`/revisions/${rev}/release`, {})
+
+    await enterPhoneOrder('P-E2E-2', 'E2E-PACK-FLOAT', 3)
     await page.getByRole('heading', { name: 'Order P-E2E-2' }).waitFor()
     await page.getByRole('button', { name: 'Release into work orders' }).click()
     const short = page.getByRole('list', { name: 'Short parts' })
     await short.waitFor()
-    expect(await short.textContent()).toContain(DEMO_PART_SKUS.pump)
+    expect(await short.textContent()).toBe('E2E-FLOAT-1: Needs 3, 2 free')
     await shot('order-release-short')
     await page.getByRole('button', { name: 'Release anyway with shortages' }).click()
     await page.getByRole('table', { name: 'Work orders' }).waitFor()
-    await page.getByRole('list', { name: 'Timeline' }).getByText(/Released with parts short/).waitFor()
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/Released with parts short: E2E-FLOAT-1 Float valve \(test\) short 1 of 3/).waitFor()
 
     await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Shortages' }).click()
-    const pumpRow = page.getByRole('table', { name: 'Shortages' }).getByRole('row').filter({ hasText: DEMO_PART_SKUS.pump })
-    await pumpRow.waitFor()
-    expect(await pumpRow.getAttribute('data-short')).toBe('true')
+    const row = page.getByRole('table', { name: 'Shortages' }).getByRole('row').filter({ hasText: 'E2E-FLOAT-1' })
+    await row.waitFor()
+    expect(await row.getAttribute('data-short')).toBe('true')
+    // Needed 3, reserved 2, free 0: short 1.
+    expect((await row.getByRole('cell').allTextContents()).slice(1, 5)).toEqual(['3 each', '2', '0', '1 each'])
     await shot('shortages')
   })
 })

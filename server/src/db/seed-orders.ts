@@ -33,8 +33,8 @@ const DEMO_ORDERS: DemoOrder[] = [
       customer: { name: 'Marigold Thistlewood', email: 'marigold@sprouthouse.example' },
       shipTo: ship('Marigold Thistlewood', '41 Quillon Lane', 'Ashgrove', 'OR', '97019', 'US'),
       lines: [
-        { storeProductId: 'mw-store-1012', quantity: 1, unitPriceCents: 18900 },
         { storeProductId: 'mw-store-2006', quantity: 1, unitPriceCents: 1450 },
+        { storeProductId: 'mw-store-2012', quantity: 1, unitPriceCents: 2400 },
       ],
     },
   },
@@ -47,7 +47,7 @@ const DEMO_ORDERS: DemoOrder[] = [
       paymentStatus: 'paid',
       customer: { name: 'Oren Bellwether', email: 'oren.b@kettlemail.example' },
       shipTo: ship('Oren Bellwether', '8 Pebblestone Court', 'Little Fenwick', 'VT', '05089', 'US'),
-      lines: [{ storeProductId: 'mw-store-1006', quantity: 1, unitPriceCents: 12900 }],
+      lines: [{ storeProductId: 'mw-store-2012', quantity: 2, unitPriceCents: 2400 }],
     },
   },
   {
@@ -127,6 +127,21 @@ const DEMO_ORDERS: DemoOrder[] = [
       ],
     },
   },
+  {
+    source: 'store',
+    placedDaysAgo: 0,
+    draft: {
+      number: 'W-2407',
+      paymentStatus: 'paid',
+      note: 'Second order from this customer this month.',
+      customer: { name: 'Ines Halloway', email: 'ines.halloway@cinderwick.example' },
+      shipTo: ship('Ines Halloway', '62 Cinderwick Avenue', 'Brackenridge', 'CO', '80421', 'US'),
+      lines: [
+        { storeProductId: 'mw-store-2006', quantity: 1, unitPriceCents: 1450 },
+        { storeProductId: 'mw-store-2012', quantity: 2, unitPriceCents: 2400 },
+      ],
+    },
+  },
 ]
 
 function isoDay(date: Date) {
@@ -136,7 +151,8 @@ function isoDay(date: Date) {
 /**
  * Seeds the demo orders: some open, two released through the release service (so their work orders
  * and reservations are real; short parts are recorded, not refused), one late, one cancelled, one
- * with a gift-card line that maps to no kit. Orders already stored are left as they are, so running
+ * with a gift-card line that maps to no kit. The released ones are spare-parts packs: they reserve
+ * no pump and wait for no cutting, so the demo's pump stock and cut-run candidates start untouched. Orders already stored are left as they are, so running
  * it twice changes nothing.
  */
 export async function seedDemoOrders(db: Db, owner: Actor) {
