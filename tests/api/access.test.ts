@@ -1,9 +1,18 @@
+import { randomBytes, randomUUID } from 'node:crypto'
+import { eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { BUILDABLE_STATUSES, PresignedPhotoSchema } from '@kitwright/shared/build'
+import { ApiErrorBodySchema } from '@kitwright/shared/errors'
+import { WORK_ORDER_STATUSES } from '@kitwright/shared/orders-status'
 import { ROLES, type Role } from '@kitwright/shared/roles'
+import { auditEvents, mailMessages, unitPhotos } from '../../server/src/db/schema/index'
+import { recordAudit } from '../../server/src/lib/audit'
 import { SESSION_COOKIE } from '../../server/src/lib/auth'
+import { declaredRoutes, expressRoutes, undeclaredRoutes } from '../../server/src/lib/route-inventory'
 import type { RouteRecord } from '../../server/src/lib/routes'
 import { buildApp } from '../support/app'
+import { insertBuildRevision, insertBuildWorkOrder } from '../support/build-factories'
 import { insertUser, TEST_PASSWORD } from '../support/factories'
 import { createTestDb, type TestDb } from '../support/test-db'
 
@@ -37,27 +46,13 @@ function expectedOutcome(route: RouteRecord, caller: Caller): 'allowed' | 401 | 
   return route.access.includes(caller) ? 'allowed' : 403
 }
 
-/** Every route Express actually has, read from its router stack (not from our own records). */
-function expressRoutes(app: ReturnType<typeof buildApp>['app']): string[] {
-  type Layer = { route?: { path: string; methods: Record<string, boolean> }; handle?: { stack?: Layer[] }; matchers?: unknown }
-  const found: string[] = []
-  const walk = (stack: Layer[]) => {
-    for (const layer of stack) {
-      if (layer.route) for (const m of Object.keys(layer.route.methods)) found.push(`${m} ${layer.route.path}`)
-      else if (layer.handle?.stack) walk(layer.handle.stack)
-    }
-  }
-  walk((app as unknown as { router: { stack: Layer[] } }).router.stack)
-  return found
-}
-
 describe('role matrix: every route, called as anonymous and as every role', () => {
   it('declares an access rule for every route Express has', () => {
-    const declared = built.routes.records.map((r) => `${r.method} ${r.path.replace(/^\/api\/[^/]+/, '') || '/'}`)
     const actual = expressRoutes(built.app).filter((r) => !r.endsWith(' /*splat') && !r.startsWith('get /.*'))
     expect(actual.length).toBeGreaterThan(0)
     // The SPA fallback is not an API route; everything else must have been added through the route table.
-    expect(actual.sort()).toEqual(declared.sort())
+    expect(actual.sort()).toEqual(declaredRoutes(built.routes).sort())
+    expect(undeclaredRoutes(built.app, built.routes)).toEqual([])
   })
 
   it('answers 401 to anonymous, 403 to the wrong role, and lets the right roles through', async () => {
@@ -82,5 +77,88 @@ describe('role matrix: every route, called as anonymous and as every role', () =
     const adminOnly = built.routes.records.filter((r) => r.path.startsWith('/api/users'))
     expect(adminOnly.length).toBeGreaterThan(0)
     for (const r of adminOnly) expect(r.access).toEqual(['admin'])
+  })
+})
+
+describe('object level: guessing ids opens nothing', () => {
+  it('answers the benches without a trace of admin data, whatever id they put in any route', async () => {
+    // Admin data with a mark no other row carries: an owner, a customer e-mail in the outbox, an audit entry.
+    const mark = `zq${randomBytes(4).toString('hex')}`
+    const owner = await insertUser(t.db, { role: 'admin', email: `${mark}-owner@mistwell.example`, name: `Owner ${mark}` })
+    const [mail] = await t.db.insert(mailMessages).values({ to: `${mark}@buyer.example`, subject: `Order ${mark}`, text: `Hello ${mark}`, purpose: `probe-${mark}` }).returning()
+    await recordAudit(t.db, { actorId: owner.id, actorEmail: owner.email, bench: null, address: null }, { action: 'user.update', entityType: 'user', entityId: owner.id, summary: `Changed ${mark}` })
+    const [audit] = await t.db.select().from(auditEvents).where(eq(auditEvents.entityId, owner.id))
+    const ids = [owner.id, mail!.id, audit!.id]
+
+    const leaks: string[] = []
+    let calls = 0
+    for (const caller of ['cutter', 'assembler', 'packer'] as const) {
+      for (const route of built.routes.records) {
+        for (const id of ids) {
+          const path = route.path.replace(/:[a-zA-Z]+/g, id)
+          let req = request(built.app)[route.method](path).query({ id, entityId: id, q: mark, actorId: owner.id }).set('Cookie', cookies.get(caller)!)
+          const res = await (route.method === 'get' ? req : req.send({ id }))
+          calls++
+          const expected = expectedOutcome(route, caller)
+          const text = res.text ?? ''
+          if (expected === 403 && res.status !== 403) leaks.push(`${route.method} ${path} as ${caller}: ${res.status}, expected 403`)
+          if (text.includes(mark)) leaks.push(`${route.method} ${path} as ${caller}: the answer (${res.status}) shows admin data`)
+          if (res.status >= 500) leaks.push(`${route.method} ${path} as ${caller}: ${res.status}`)
+          if (!route.path.includes(':')) break // one call is enough where no id goes into the path
+        }
+      }
+    }
+    console.log(`[access] ${calls} id-guessing calls by the bench roles; ${leaks.length} leaks`)
+    expect(leaks).toEqual([])
+    // The same ids do open the data for the admin: the probe would have seen a leak.
+    const asAdmin = await request(built.app).get(`/api/mail/${mail!.id}`).set('Cookie', cookies.get('admin')!)
+    expect(asAdmin.text).toContain(mark)
+    const trail = await request(built.app).get('/api/audit').query({ q: mark }).set('Cookie', cookies.get('admin')!)
+    expect(trail.status).toBe(200)
+  })
+})
+
+describe('object level: photo uploads', () => {
+  const PRESIGN = 'post /api/build/:workOrderId/photos/presign'
+
+  it('presigns only for a role of the build bench, and only on a unit that may be built now', async () => {
+    const route = built.routes.records.find((r) => `${r.method} ${r.path}` === PRESIGN)
+    expect(route, 'the presign route is in the route table').toBeDefined()
+    const rev = await insertBuildRevision(t.db)
+    const units = await Promise.all(WORK_ORDER_STATUSES.map((status) => insertBuildWorkOrder(t.db, rev.revision.id, rev.kit.id, status)))
+    const before = await t.db.select({ id: unitPhotos.id }).from(unitPhotos)
+    const wrong: string[] = []
+    let issued = 0
+    for (const wo of [...units, { id: randomUUID(), status: 'none' as const }]) {
+      for (const caller of CALLERS) {
+        let req = request(built.app).post(`/api/build/${wo.id}/photos/presign`)
+        if (caller !== 'anonymous') req = req.set('Cookie', cookies.get(caller)!)
+        const res = await req.send({ contentType: 'image/jpeg', size: 2048 })
+        const access = expectedOutcome(route!, caller)
+        const expected = access !== 'allowed' ? access : wo.status === 'none' ? 404 : (BUILDABLE_STATUSES as readonly string[]).includes(wo.status) ? 201 : 409
+        if (res.status !== expected) wrong.push(`${caller} on a ${wo.status} unit: ${res.status}, expected ${expected}`)
+        if (res.status === 201) issued++
+        else expect(ApiErrorBodySchema.safeParse(res.body).success, JSON.stringify(res.body)).toBe(true)
+      }
+    }
+    expect(wrong).toEqual([])
+    // Only the granted presigns left a (still unconfirmed) photo row, each on a buildable unit.
+    const rows = await t.db.select({ workOrderId: unitPhotos.workOrderId }).from(unitPhotos)
+    expect(rows.length - before.length).toBe(issued)
+    const buildable = new Set(units.filter((u) => (BUILDABLE_STATUSES as readonly string[]).includes(u.status)).map((u) => u.id))
+    expect(rows.every((r) => buildable.has(r.workOrderId))).toBe(true)
+    expect(issued).toBe(BUILDABLE_STATUSES.length * CALLERS.filter((c) => expectedOutcome(route!, c) === 'allowed').length)
+  })
+
+  it('confirms a photo only on the unit it was presigned for', async () => {
+    const rev = await insertBuildRevision(t.db)
+    const [a, b] = [await insertBuildWorkOrder(t.db, rev.revision.id, rev.kit.id), await insertBuildWorkOrder(t.db, rev.revision.id, rev.kit.id)]
+    const assembler = cookies.get('assembler')!
+    const res = await request(built.app).post(`/api/build/${a.id}/photos/presign`).set('Cookie', assembler).send({ contentType: 'image/png', size: 16 })
+    expect(res.status).toBe(201)
+    const { key } = PresignedPhotoSchema.parse(res.body)
+    const other = await request(built.app).post(`/api/build/${b.id}/photos/confirm`).set('Cookie', assembler).send({ key })
+    expect(other.status).toBe(400)
+    expect(ApiErrorBodySchema.parse(other.body).error.fields).toEqual({ key: 'Unknown key' })
   })
 })

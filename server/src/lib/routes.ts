@@ -1,5 +1,5 @@
 import { Router, type RequestHandler } from 'express'
-import type { Role } from '@kitwright/shared/roles'
+import { ROLES, type Role } from '@kitwright/shared/roles'
 import { Forbidden, Unauthenticated } from './http-errors'
 
 /**
@@ -24,6 +24,13 @@ export function accessGuard(access: Access): RequestHandler {
   }
 }
 
+/** Refuses, at registration, a route whose access rule is missing or names no known role. */
+export function assertAccess(access: unknown, where: string): asserts access is Access {
+  if (access === 'public' || access === 'signed-in') return
+  if (Array.isArray(access) && access.length > 0 && access.every((r) => (ROLES as readonly unknown[]).includes(r))) return
+  throw new Error(`Route ${where} declares no access rule: give 'public', 'signed-in' or a list of roles`)
+}
+
 export class RouteTable {
   readonly records: RouteRecord[] = []
 
@@ -33,6 +40,7 @@ export class RouteTable {
     const add =
       (method: RouteRecord['method']) =>
       (path: string, access: Access, ...handlers: RequestHandler[]) => {
+        assertAccess(access, `${method.toUpperCase()} ${base}${path}`)
         this.records.push({ method, path: base + (path === '/' ? '' : path), access })
         router[method](path, accessGuard(access), ...handlers)
       }
