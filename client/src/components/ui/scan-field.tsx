@@ -19,7 +19,8 @@ export function ScanField({ label, onScan, disabled, className }: { label: strin
       setTimeout(() => {
         const active = document.activeElement
         const typing = active instanceof HTMLInputElement || active instanceof HTMLTextAreaElement || active instanceof HTMLSelectElement
-        if (!typing && !input.disabled) input.focus()
+        // Without scrolling: a tap lower on the page must not jump it to the top mid-tap.
+        if (!typing && !input.disabled) input.focus({ preventScroll: true })
       }, 0)
     }
     input.addEventListener('blur', refocus)

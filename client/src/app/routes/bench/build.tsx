@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link, useSearchParams } from 'react-router-dom'
-import { BenchScanField } from '../../../features/build-bench/components/bench-scan-field'
+import { ScanField } from '../../../components/ui/scan-field'
 import { paths } from '../../../config/paths'
 import { buildLookupOptions } from '../../../features/build-bench/api/build-queries'
 import { BuildUnit } from '../../../features/build-bench/components/build-unit'
@@ -16,7 +16,7 @@ export function Component() {
     <div className="space-y-6">
       <div className="flex flex-wrap items-end gap-4">
         <h1 className="text-4xl font-bold">Build bench</h1>
-        <BenchScanField label="Scan the bin, or type the serial" className="min-w-72 flex-1" onScan={(scanned) => setSearch({ code: scanned })} />
+        <ScanField label="Scan the bin, or type the serial" className="min-w-72 flex-1" onScan={(scanned) => setSearch({ code: scanned })} />
       </div>
       {code === '' && <p className="text-2xl text-stone-700">Scan the bin the unit came in from the cut bench to see its build steps.</p>}
       {lookup.isPending && code !== '' && <p className="text-2xl">Looking up {code}…</p>}

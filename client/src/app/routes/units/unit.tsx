@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { useNavigate, useParams } from 'react-router-dom'
-import { BenchScanField } from '../../../features/build-bench/components/bench-scan-field'
+import { ScanField } from '../../../components/ui/scan-field'
 import { paths } from '../../../config/paths'
 import { unitRecordOptions } from '../../../features/build-bench/api/build-queries'
 import { BuildRecord } from '../../../features/build-bench/components/build-record'
@@ -12,7 +12,7 @@ export function Component() {
   const record = useQuery(unitRecordOptions(serial))
   return (
     <div className="space-y-6">
-      <BenchScanField label="Scan or type a serial to open its build record" className="max-w-xl print:hidden" onScan={(code) => void navigate(paths.unit.href(code.toUpperCase()))} />
+      <ScanField label="Scan or type a serial to open its build record" className="max-w-xl print:hidden" onScan={(code) => void navigate(paths.unit.href(code.toUpperCase()))} />
       {record.isError && (
         <p role="alert" className="text-2xl text-red-700">
           {record.error.message}
