@@ -87,6 +87,8 @@ export const ShortageRowSchema = z.object({
   supplier: z.string().nullable(),
   leadTimeDays: z.number().int().nullable(),
   reorderQuantity: z.number().int(),
+  /** What to buy when short: the shortfall, or the part's reorder quantity when that is more; 0 when not short. */
+  suggestedOrder: z.number().int(),
 })
 /** One part on the shortages page. */
 export type ShortageRow = z.infer<typeof ShortageRowSchema>

@@ -155,7 +155,7 @@ describe('releasing an order into work orders', () => {
     expect(after.events.map((e) => e.kind)).toEqual(['received', 'released', 'shortage'])
 
     const shortages = ShortagesSchema.parse((await planner.get('/api/shortages')).body)
-    expect(shortages.rows.find((r) => r.partId === part.id)).toMatchObject({ needed: 4, reserved: 3, available: 0, short: 1, workOrderCount: 2 })
+    expect(shortages.rows.find((r) => r.partId === part.id)).toMatchObject({ needed: 4, reserved: 3, available: 0, short: 1, workOrderCount: 2, suggestedOrder: 1 })
   })
 
   it('will not release a cancelled order, an unpaid store order, an order released already, or an unmapped line', async () => {
@@ -242,7 +242,7 @@ describe('the shortages page', () => {
     const longest = Math.max(...pipe!.stickLengths)
     const row = page.rows.find((r) => r.partId === pipe!.id)!
     expect(cut).toBeGreaterThan(0)
-    expect(row).toMatchObject({ kind: 'stock_length', cutLength: cut, stickLength: longest, needed: Math.ceil(cut / longest), reserved: 0, short: 0 })
+    expect(row).toMatchObject({ kind: 'stock_length', cutLength: cut, stickLength: longest, needed: Math.ceil(cut / longest), reserved: 0, short: 0, suggestedOrder: 0 })
     expect(page.openWorkOrders).toBe(await t.db.$count(workOrders, inArray(workOrders.status, ['waiting_cut', 'cut', 'building', 'rework', 'built'])))
   })
 

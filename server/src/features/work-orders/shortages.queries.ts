@@ -21,6 +21,7 @@ export interface ShortageRecord extends Record<string, unknown> {
   supplier: string | null
   leadTimeDays: number | null
   reorderQuantity: number
+  suggestedOrder: number
 }
 
 /** Work orders still to be packed: they still need their parts. */
@@ -33,7 +34,8 @@ const OPEN = sql.raw(OPEN_WORK_ORDER_STATUSES.map((s) => `'${s}'`).join(', '))
  * available = on hand − every reservation. Pipe (reserved only when a cut run is published): the
  * cut parts of work orders still waiting for cutting, each piece plus one kerf, over the longest
  * stick the part comes in, rounded up to whole sticks; offcuts in stock are not counted (an estimate
- * that errs towards buying). short = needed − reserved − available, when above zero.
+ * that errs towards buying). short = needed − reserved − available, when above zero; the suggested
+ * order is the shortfall, or the part's reorder quantity when that is more.
  */
 export async function selectShortages(db: Conn, q: ShortagesQuery): Promise<ShortageRecord[]> {
   const onlyShort = q.only === 'short' ? sql`where r."short" > 0` : sql``
@@ -89,7 +91,7 @@ export async function selectShortages(db: Conn, q: ShortagesQuery): Promise<Shor
       left join balances bal on bal.part_id = p.id
       where bn.part_id is not null or pn.part_id is not null
     )
-    select r.*
+    select r.*, (case when r."short" > 0 then greatest(r."short", r."reorderQuantity") else 0 end)::int as "suggestedOrder"
     from (select *, greatest(coalesce("needed", 0) - "reserved" - "available", 0)::int as "short" from rows) r
     ${onlyShort}
     order by r."short" desc, r.sku asc

@@ -26,7 +26,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
             <th className={th}>Short</th>
             <th className={th}>Work orders</th>
             <th className={th}>Supplier · lead time</th>
-            <th className={th}>Reorder qty</th>
+            <th className={th}>Suggest buying</th>
           </tr>
         </thead>
         <tbody>
@@ -52,7 +52,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
                 {r.supplier ?? '—'}
                 {r.leadTimeDays !== null ? ` · ${r.leadTimeDays} days` : ''}
               </td>
-              <td className={td}>{r.reorderQuantity || '—'}</td>
+              <td className={cn(td, r.suggestedOrder > 0 && 'font-bold')}>{r.suggestedOrder > 0 ? `${r.suggestedOrder} ${unitWord(r)}` : '—'}</td>
             </tr>
           ))}
           {rows.length === 0 && (
