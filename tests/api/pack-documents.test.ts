@@ -101,7 +101,7 @@ describe('the packing slip', () => {
       pages.forEach((p, i) => writeFileSync(path.join(shots, `packing-slip-${paper}-${i + 1}.png`), p))
       // The order number's Code 128 in the top right corner (page width less 260 pt, top 120 pt), read by ZXing at 203 dpi.
       const px = (pt: number) => Math.round((pt * 203) / 72)
-      expect(decodeCode128(pages[0]!, { x: px(size[0] - 260), y: 0, w: px(260) - 1, h: px(120) })).toBe(labelled.order.number)
+      expect(decodeCode128(pages[0]!, { x: px(size[0]! - 260), y: 0, w: px(260) - 1, h: px(120) })).toBe(labelled.order.number)
       removeDir(dir)
       expect(words).toContain('Mistwell Tote Works')
       expect(words).toContain(`Order ${labelled.order.number}`)

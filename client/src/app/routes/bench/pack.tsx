@@ -1,5 +1,104 @@
-import { BenchNotReady } from '../../../components/layout/bench-not-ready'
+import { useQuery } from '@tanstack/react-query'
+import { useEffect, useState } from 'react'
+import { useSearchParams } from 'react-router-dom'
+import type { ShipResult } from '@kitwright/shared/pack'
+import { Button } from '../../../components/ui/button'
+import { ScanField } from '../../../components/ui/scan-field'
+import { Caution } from '../../../components/ui/section'
+import { meOptions } from '../../../features/auth/api/auth-queries'
+import { packOrderOptions, useLookup, useScanItem } from '../../../features/pack-bench/api/pack-queries'
+import { LabelledPanel } from '../../../features/pack-bench/components/labelled-panel'
+import { OrderHeader } from '../../../features/pack-bench/components/order-header'
+import { PackingList } from '../../../features/pack-bench/components/packing-list'
+import { ParcelsPanel } from '../../../features/pack-bench/components/parcels-panel'
+import { PartialApproval } from '../../../features/pack-bench/components/partial-approval'
+import { PrintLinks } from '../../../features/pack-bench/components/print-links'
 
 export function Component() {
-  return <BenchNotReady bench="Pack bench" what="scan a bin, check the contents, print the packing slip and label, and ship" />
+  const [params, setParams] = useSearchParams()
+  const orderId = params.get('order')
+  const me = useQuery(meOptions())
+  const order = useQuery({ ...packOrderOptions(orderId ?? ''), enabled: orderId !== null })
+  const lookup = useLookup()
+  const scanItem = useScanItem()
+  const [problem, setProblem] = useState<string | null>(null)
+  const [shipped, setShipped] = useState<ShipResult | null>(null)
+  const view = orderId ? order.data : undefined
+  const office = me.data?.role === 'admin' || me.data?.role === 'planner'
+  // A problem shown stays until the view changes (an action went through) or the next scan.
+  useEffect(() => setProblem(null), [order.dataUpdatedAt])
+
+  function onScan(code: string) {
+    setProblem(null)
+    const open = view && !shipped
+    if (open) {
+      scanItem.mutate({ orderId: view.order.id, code }, { onError: (e) => setProblem(e.message) })
+    } else {
+      lookup.mutate(code, {
+        onSuccess: (v) => {
+          setShipped(null)
+          setParams({ order: v.order.id })
+          // The scan that opened the order also puts its unit in the box, when it may go.
+          const item = v.items.find((i) => i.binCode === code.toUpperCase() || (i.serial === code.toUpperCase() && i.kind !== 'bag'))
+          if (item && !item.check && !item.problem) scanItem.mutate({ orderId: v.order.id, code }, { onError: (e) => setProblem(e.message) })
+        },
+        onError: (e) => setProblem(e.message),
+      })
+    }
+  }
+
+  const packing = view && (view.shipment === null || view.shipment.status === 'packing')
+  return (
+    <div className="space-y-4 text-lg">
+      <h1 className="text-4xl font-bold">Pack bench</h1>
+      <ScanField label={view && !shipped ? `Scan each unit's bin or serial for order ${view.order.number}` : 'Scan a bin or serial to open its order'} onScan={onScan} />
+      {problem && (
+        <p role="alert" className="rounded-lg border-4 border-red-700 bg-red-50 p-4 text-2xl font-bold text-red-900">
+          {problem}
+        </p>
+      )}
+      {shipped && (
+        <div role="status" className="space-y-2 rounded-lg border-4 border-green-700 bg-green-50 p-4 text-2xl">
+          <p className="font-bold">
+            Order {shipped.view.order.number} shipped · tracking <span className="font-mono">{shipped.view.shipment?.trackingNumber}</span>
+          </p>
+          <p>{shipped.mailQueued ? `The shipped e-mail is queued to ${shipped.view.order.customerName}.` : 'The shipped e-mail was already sent.'}</p>
+          {shipped.view.backOrderedSerials.length + shipped.view.items.length > 0 && <p>Still to ship later: {[...new Set(shipped.view.items.map((i) => i.serial))].join(', ')}</p>}
+          <Button
+            size="bench"
+            onClick={() => {
+              setShipped(null)
+              setParams({})
+            }}
+          >
+            Next order
+          </Button>
+        </div>
+      )}
+      {!orderId && !shipped && <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">Scan the bin of a unit that passed its leak test, or type a serial, to open its order.</p>}
+      {order.isError && <p role="alert" className="text-xl text-red-700">{order.error.message}</p>}
+      {view && !shipped && (
+        <>
+          <OrderHeader view={view} />
+          {packing && view.blockers.length > 0 && (
+            <div aria-label="Before the label" className="rounded-lg border-2 border-amber-600 bg-amber-50 p-3">
+              <p className="text-xl font-bold">Before the label can be bought:</p>
+              <ul className="list-disc pl-6">
+                {view.blockers.map((b) => (
+                  <li key={b}>{b}</li>
+                ))}
+              </ul>
+            </div>
+          )}
+          <PackingList view={view} onError={setProblem} />
+          {office && packing && view.shipment && !view.canLabel && <PartialApproval view={view} onError={setProblem} />}
+          {!office && view.shipment?.partialApproval && <p className="text-lg">Partial shipment approved by {view.shipment.partialApproval.by.name}: {view.shipment.partialApproval.note}</p>}
+          <PrintLinks view={view} />
+          <Caution>The slip carries the customer's care and safety sheet (fill line, ground-fault protected outlet, drip loop): put it in the box on top.</Caution>
+          {packing && view.canLabel && <ParcelsPanel key={`${view.shipment?.id}-${view.shippingSerials.join()}`} view={view} onError={setProblem} />}
+          {view.shipment?.status === 'labelled' && <LabelledPanel view={view} onShipped={(r) => { setProblem(null); setShipped(r) }} onError={setProblem} />}
+        </>
+      )}
+    </div>
+  )
 }

@@ -1,0 +1,47 @@
+import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
+import { z } from 'zod'
+import { PackViewSchema, QuoteSchema, ShipResultSchema, type BuyLabel, type PackView, type QuoteRequest } from '@kitwright/shared/pack'
+import { apiFetch } from '../../../lib/api-client'
+
+export const packKeys = {
+  all: ['pack-bench'] as const,
+  order: (orderId: string) => [...packKeys.all, 'order', orderId] as const,
+}
+
+/** The pack view of one order; refreshed now and then, as a planner may approve a partial shipment meanwhile. */
+export function packOrderOptions(orderId: string) {
+  return queryOptions({ queryKey: packKeys.order(orderId), queryFn: ({ signal }) => apiFetch(`/pack/orders/${orderId}`, PackViewSchema, { signal }), refetchInterval: 20_000 })
+}
+
+/** Every bench action answers with the whole view: show it at once. */
+function useViewAction<V>(request: (v: V) => Promise<PackView>) {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: request,
+    onSuccess: (view: PackView) => qc.setQueryData(packKeys.order(view.order.id), view),
+  })
+}
+
+/** A scan with no order open: the order the bin or serial belongs to. */
+export const useLookup = () => useViewAction((code: string) => apiFetch(`/pack/lookup?code=${encodeURIComponent(code)}`, PackViewSchema))
+export const useScanItem = () => useViewAction((v: { orderId: string; code: string }) => apiFetch(`/pack/orders/${v.orderId}/scan`, PackViewSchema, { method: 'POST', body: { code: v.code } }))
+export const useTickItem = () => useViewAction((v: { orderId: string; itemKey: string }) => apiFetch(`/pack/orders/${v.orderId}/tick`, PackViewSchema, { method: 'POST', body: { itemKey: v.itemKey } }))
+export const useUndoItem = () => useViewAction((v: { orderId: string; itemKey: string }) => apiFetch(`/pack/orders/${v.orderId}/undo`, PackViewSchema, { method: 'POST', body: { itemKey: v.itemKey } }))
+export const useApprovePartial = () =>
+  useViewAction((v: { orderId: string; note: string }) => apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }))
+export const useBuyLabel = () => useViewAction((v: BuyLabel & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/label`, PackViewSchema, { method: 'POST', body: { service: v.service, parcels: v.parcels } }))
+
+export function useQuote() {
+  return useMutation({ mutationFn: (v: QuoteRequest & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/quote`, z.array(QuoteSchema), { method: 'POST', body: { parcels: v.parcels } }) })
+}
+
+export function useShip() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: (orderId: string) => apiFetch(`/pack/orders/${orderId}/ship`, ShipResultSchema, { method: 'POST', body: {} }),
+    onSuccess: (result) => qc.invalidateQueries({ queryKey: packKeys.order(result.view.order.id) }),
+  })
+}
+
+export const packingSlipHref = (shipmentId: string, paper: 'letter' | 'a4') => `/api/shipments/${shipmentId}/packing-slip.pdf?paper=${paper}`
+export const shippingLabelHref = (shipmentId: string) => `/api/shipments/${shipmentId}/label.pdf`
