@@ -2,7 +2,9 @@ import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { AuditPageSchema } from '@kitwright/shared/audit'
 import { inches } from '@kitwright/shared/domain/units'
+import { seedDemo } from '../../server/src/db/seed'
 import { buildApp, signedInAs } from '../support/app'
+import { buildNewOrder } from '../support/order-factories'
 import { insertUser, TEST_PASSWORD } from '../support/factories'
 import { createTestDb, type TestDb } from '../support/test-db'
 
@@ -13,6 +15,7 @@ let owner: Awaited<ReturnType<typeof signedInAs>>
 beforeAll(async () => {
   t = await createTestDb()
   app = buildApp(t).app
+  await seedDemo(t.db)
   owner = await signedInAs(app, t, 'admin')
 })
 afterAll(() => t.drop())
@@ -54,6 +57,18 @@ describe('the audit trail', () => {
       expect(e.actorId).toBe(owner.user.id)
     }
     expect(items.find((e) => e.action === 'stock.adjust')!.summary).toMatch(/Found in the back/)
+  })
+
+  it('records phone orders and releases into work orders, naming the serials', async () => {
+    const order = await owner.agent.post('/api/orders').send(buildNewOrder({ lines: [{ kitSku: 'MW-SPARE-SPR6', quantity: 2, unitPriceCents: 900 }] }))
+    expect(order.status).toBe(201)
+    const release = await owner.agent.post('/api/orders/release').send({ orderIds: [order.body.id] })
+    expect(release.status, JSON.stringify(release.body)).toBe(200)
+    const { items } = await trail('&action=order.')
+    expect(items.find((e) => e.action === 'order.create')?.entityId).toBe(order.body.id)
+    const released = items.find((e) => e.action === 'order.release')!
+    expect(released.entityId).toBe(order.body.id)
+    expect(released.summary).toMatch(/into 2 work order\(s\): U-\d+, U-\d+/)
   })
 
   it('filters by kind of change and by words', async () => {

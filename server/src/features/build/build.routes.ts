@@ -8,7 +8,9 @@ import {
   TickStepSchema,
   WorkOrderParamsSchema,
 } from '@kitwright/shared/build'
+import type { Request } from 'express'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { lookupForBuild, recordLeakTest, tickStep, undoTick } from './build.service'
@@ -20,17 +22,23 @@ const BENCH = ['admin', 'planner', 'assembler'] as const
 /** The build bench: scan a unit, tick its steps, photograph it, leak-test it. */
 export function buildRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/build')
+  const audit = (req: Request, action: string, workOrderId: string, summary: string) =>
+    recordAudit(deps.db, auditContext(req), { action, entityType: 'work_order', entityId: workOrderId, summary })
   r.get('/lookup', BENCH, async (req, res) => {
     const { code } = BuildLookupQuerySchema.parse(req.query)
     res.json(await lookupForBuild(deps.db, deps.storage, code))
   })
   r.post('/:workOrderId/steps/:stepId/tick', BENCH, async (req, res) => {
     const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
-    res.json(await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req)))
+    const page = await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req))
+    await audit(req, 'build.tick', workOrderId, `Ticked a build step of ${page.workOrder.serial}`)
+    res.json(page)
   })
   r.post('/:workOrderId/steps/:stepId/undo', BENCH, async (req, res) => {
     const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
-    res.json(await undoTick(deps.db, deps.storage, workOrderId, stepId, currentUser(req)))
+    const page = await undoTick(deps.db, deps.storage, workOrderId, stepId, currentUser(req))
+    await audit(req, 'build.undo', workOrderId, `Undid a build step of ${page.workOrder.serial}`)
+    res.json(page)
   })
   r.post('/:workOrderId/photos/presign', BENCH, async (req, res) => {
     const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
@@ -43,7 +51,10 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:workOrderId/leak-tests', BENCH, async (req, res) => {
     const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
-    res.status(201).json(await recordLeakTest(deps.db, deps.storage, workOrderId, RecordLeakTestSchema.parse(req.body), currentUser(req)))
+    const page = await recordLeakTest(deps.db, deps.storage, workOrderId, RecordLeakTestSchema.parse(req.body), currentUser(req))
+    const latest = page.leakTests.at(-1)
+    await audit(req, 'build.leak_test', workOrderId, `Leak test ${latest ? `attempt ${latest.attempt} ${latest.passed ? 'passed' : 'failed'}` : 'recorded'} on ${page.workOrder.serial}`)
+    res.status(201).json(page)
   })
   return r
 }

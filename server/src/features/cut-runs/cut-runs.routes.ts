@@ -10,7 +10,9 @@ import {
   RunStickParamsSchema,
   CutRunStatusSchema,
 } from '@kitwright/shared/cut-runs'
+import type { Request } from 'express'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { getShopSettings } from '../settings/settings.service'
@@ -30,6 +32,8 @@ const ListQuerySchema = z.object({
 
 export function cutRunsRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/cut-runs')
+  const audit = (req: Request, action: string, runId: string, summary: string) =>
+    recordAudit(deps.db, auditContext(req), { action, entityType: 'cut_run', entityId: runId, summary })
   // The office plans and publishes; the cutter works the published run at the bench.
   const office = ['admin', 'planner'] as const
   const bench = ['admin', 'planner', 'cutter'] as const
@@ -43,16 +47,24 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
     res.json(await loadPipeStock(deps.db))
   })
   r.post('/', office, async (req, res) => {
-    res.status(201).json(await planCutRun(deps.db, PlanCutRunSchema.parse(req.body), currentUser(req)))
+    const run = await planCutRun(deps.db, PlanCutRunSchema.parse(req.body), currentUser(req))
+    await audit(req, 'cut_run.plan', run.id, 'Planned a cut run')
+    res.status(201).json(run)
   })
   r.get('/:id', bench, async (req, res) => {
     res.json(await getCutRun(deps.db, IdParamsSchema.parse(req.params).id))
   })
   r.post('/:id/publish', office, async (req, res) => {
-    res.json(await publishCutRun(deps.db, IdParamsSchema.parse(req.params).id, currentUser(req)))
+    const { id } = IdParamsSchema.parse(req.params)
+    const run = await publishCutRun(deps.db, id, currentUser(req))
+    await audit(req, 'cut_run.publish', id, 'Published a cut run; its sticks and offcuts are reserved')
+    res.json(run)
   })
   r.post('/:id/cancel', office, async (req, res) => {
-    res.json(await cancelCutRun(deps.db, IdParamsSchema.parse(req.params).id, currentUser(req)))
+    const { id } = IdParamsSchema.parse(req.params)
+    const run = await cancelCutRun(deps.db, id, currentUser(req))
+    await audit(req, 'cut_run.cancel', id, 'Cancelled a cut run')
+    res.json(run)
   })
   r.get('/:id/cut-sheet.pdf', bench, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
@@ -64,15 +76,22 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:id/cuts/:cutId/tick', bench, async (req, res) => {
     const { id, cutId } = RunCutParamsSchema.parse(req.params)
-    res.json(await tickCut(deps.db, id, cutId, currentUser(req)))
+    const run = await tickCut(deps.db, id, cutId, currentUser(req))
+    await audit(req, 'cut.tick', id, `Ticked cut ${cutId}`)
+    res.json(run)
   })
   r.post('/:id/cuts/:cutId/undo', bench, async (req, res) => {
     const { id, cutId } = RunCutParamsSchema.parse(req.params)
-    res.json(await undoCut(deps.db, id, cutId, currentUser(req)))
+    const run = await undoCut(deps.db, id, cutId, currentUser(req))
+    await audit(req, 'cut.undo', id, `Undid cut ${cutId}`)
+    res.json(run)
   })
   r.post('/:id/sticks/:stickId/damage', bench, async (req, res) => {
     const { id, stickId } = RunStickParamsSchema.parse(req.params)
-    res.json(await damageStick(deps.db, id, stickId, DamageStickSchema.parse(req.body), currentUser(req)))
+    const input = DamageStickSchema.parse(req.body)
+    const run = await damageStick(deps.db, id, stickId, input, currentUser(req))
+    await audit(req, 'cut.damage', id, `Marked stick ${stickId} damaged: ${input.reason}`)
+    res.json(run)
   })
   r.get('/:id/sticks/:stickId/offcut-label.pdf', bench, async (req, res) => {
     const { id, stickId } = RunStickParamsSchema.parse(req.params)
@@ -81,7 +100,10 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:id/bins', bench, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await assignRunBin(deps.db, id, AssignBinSchema.parse(req.body)))
+    const input = AssignBinSchema.parse(req.body)
+    const result = await assignRunBin(deps.db, id, input)
+    await audit(req, 'cut.bin', id, `Put work order ${input.workOrderId} in bin ${input.code}`)
+    res.json(result)
   })
   return r
 }

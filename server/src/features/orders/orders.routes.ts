@@ -2,6 +2,7 @@ import { NewOrderSchema, OrderListQuerySchema } from '@kitwright/shared/orders'
 import { OrderCsvBodySchema } from '@kitwright/shared/orders-csv'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { importOrders, previewOrdersImport } from './orders-import.service'
@@ -23,14 +24,18 @@ export function ordersRouter(deps: Deps, routes: RouteTable) {
     res.json(await previewOrdersImport(deps.db, OrderCsvBodySchema.parse(req.body).csv))
   })
   r.post('/import', planners, async (req, res) => {
-    res.json(await importOrders(deps.db, OrderCsvBodySchema.parse(req.body).csv, currentUser(req)))
+    const result = await importOrders(deps.db, OrderCsvBodySchema.parse(req.body).csv, currentUser(req))
+    await recordAudit(deps.db, auditContext(req), { action: 'order.import', entityType: 'order', summary: 'Imported orders from a CSV file' })
+    res.json(result)
   })
   r.get('/:id', planners, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
     res.json(await getOrder(deps.db, id))
   })
   r.post('/', planners, async (req, res) => {
-    res.status(201).json(await createPhoneOrder(deps.db, NewOrderSchema.parse(req.body), currentUser(req)))
+    const order = await createPhoneOrder(deps.db, NewOrderSchema.parse(req.body), currentUser(req))
+    await recordAudit(deps.db, auditContext(req), { action: 'order.create', entityType: 'order', entityId: order.id, summary: `Entered phone order ${order.number}` })
+    res.status(201).json(order)
   })
   return r
 }

@@ -1,5 +1,6 @@
 import { ReleaseOrdersSchema, ShortagesQuerySchema } from '@kitwright/shared/work-orders'
 import type { Deps } from '../../deps'
+import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { releaseOrders } from './release.service'
@@ -9,7 +10,12 @@ import { listShortages } from './shortages.service'
 export function releaseRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/orders')
   r.post('/release', ['admin', 'planner'], async (req, res) => {
-    res.json(await releaseOrders(deps.db, ReleaseOrdersSchema.parse(req.body), currentUser(req)))
+    const result = await releaseOrders(deps.db, ReleaseOrdersSchema.parse(req.body), currentUser(req))
+    for (const order of result.released) {
+      const serials = order.workOrders.map((w) => w.serial).join(', ')
+      await recordAudit(deps.db, auditContext(req), { action: 'order.release', entityType: 'order', entityId: order.orderId, summary: `Released order ${order.number} into ${order.workOrders.length} work order(s): ${serials}` })
+    }
+    res.json(result)
   })
   return r
 }
