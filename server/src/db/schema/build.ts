@@ -31,6 +31,8 @@ export const buildStepTicks = pgTable(
   },
   (t) => [
     index().on(t.workOrderId),
+    // Units built per day (reports): the standing ticks of a range, read from the index alone.
+    index('build_step_ticks_standing_at').on(t.tickedAt, t.workOrderId).where(sql`${t.undoneAt} is null`),
     uniqueIndex('build_step_ticks_one_standing').on(t.workOrderId, t.buildStepId).where(sql`${t.undoneAt} is null`),
     check('build_step_ticks_undo_has_who', sql`(${t.undoneAt} is null) = (${t.undoneBy} is null)`),
   ],
@@ -84,7 +86,12 @@ export const leakTests = pgTable(
     testedBy: uuid().notNull().references(() => users.id),
     testedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
   },
-  (t) => [unique().on(t.workOrderId, t.attempt), check('leak_tests_attempt_positive', sql`${t.attempt} > 0`)],
+  (t) => [
+    unique().on(t.workOrderId, t.attempt),
+    // Units built per day and first-pass yield (reports): the tests of a range.
+    index().on(t.testedAt, t.workOrderId),
+    check('leak_tests_attempt_positive', sql`${t.attempt} > 0`),
+  ],
 )
 export type LeakTestRow = typeof leakTests.$inferSelect
 

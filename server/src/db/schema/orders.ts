@@ -98,7 +98,11 @@ export const orderEvents = pgTable(
     actorId: uuid().references(() => users.id),
     createdAt: createdAt(),
   },
-  (t) => [index().on(t.orderId, t.createdAt)],
+  (t) => [
+    index().on(t.orderId, t.createdAt),
+    // When an order that came in unpaid was paid (lead-time report): the few payment events only.
+    index('order_events_payment').on(t.orderId, t.createdAt).where(sql`${t.kind} = 'payment'`),
+  ],
 )
 export type OrderEventRow = typeof orderEvents.$inferSelect
 

@@ -69,6 +69,8 @@ export const shipments = pgTable(
   },
   (t) => [
     index().on(t.orderId),
+    // Units shipped per day (reports).
+    index().on(t.shippedAt),
     uniqueIndex('shipments_one_open_per_order').on(t.orderId).where(sql`${t.status} <> 'shipped'`),
     check('shipments_labelled_has_tracking', sql`${t.status} = 'packing' or ${t.trackingNumber} is not null`),
   ],

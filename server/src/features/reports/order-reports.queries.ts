@@ -64,9 +64,9 @@ export async function selectLeadTimes(db: Conn, range: ReportRange): Promise<Pic
       select o.id, o.shipped_at,
         extract(epoch from o.shipped_at - coalesce(p.paid_at, o.placed_at)) / 86400.0 as days
       from orders o
-      left join lateral (
-        select min(e.created_at) as paid_at from order_events e where e.order_id = o.id and e.kind = 'payment'
-      ) p on true
+      left join (
+        select e.order_id, min(e.created_at) as paid_at from order_events e where e.kind = 'payment' group by e.order_id
+      ) p on p.order_id = o.id
       where o.status = 'shipped' and ${inRange(sql`o.shipped_at`, range)}
     ),
     per_week as (

@@ -39,7 +39,9 @@ export async function selectWip(db: Conn, stuckDays: number): Promise<WipReport[
 /**
  * Units built and units shipped on each day of the range (UTC), every day listed. A unit is built
  * at its last standing step tick or leak test (a built unit takes no more of either), counted when
- * it is built, packed or shipped now; spare packs, which skip the benches, are not built here.
+ * it is built, packed or shipped now; spare packs, which skip the benches, are not built here. Only
+ * events from the range's first day on are read: a unit built in the range has its last event
+ * there, and the latest of its events from that day on is that last event.
  * Shipped units are the work orders in the parcels of shipments shipped that day.
  */
 export async function selectThroughput(db: Conn, range: ReportRange): Promise<ThroughputReport['rows']> {
@@ -53,18 +55,16 @@ export async function selectThroughput(db: Conn, range: ReportRange): Promise<Th
       where s.status = 'shipped' and ${inRange(sql`s.shipped_at`, range)}
       group by 1
     ),
-    recent as (
-      select t.work_order_id from build_step_ticks t where t.undone_at is null and t.ticked_at >= ${dayStart(range.from)}
-      union
-      select l.work_order_id from leak_tests l where l.tested_at >= ${dayStart(range.from)}
+    events as (
+      select t.work_order_id, t.ticked_at as at from build_step_ticks t where t.undone_at is null and t.ticked_at >= ${dayStart(range.from)}
+      union all
+      select l.work_order_id, l.tested_at from leak_tests l where l.tested_at >= ${dayStart(range.from)}
     ),
     built as (
-      select w.id, greatest(
-        (select max(t.ticked_at) from build_step_ticks t where t.work_order_id = w.id and t.undone_at is null),
-        (select max(l.tested_at) from leak_tests l where l.work_order_id = w.id)
-      ) as built_at
-      from work_orders w
-      where w.id in (select work_order_id from recent) and w.status in ('built', 'packed', 'shipped')
+      select e.work_order_id, max(e.at) as built_at
+      from events e join work_orders w on w.id = e.work_order_id
+      where w.status in ('built', 'packed', 'shipped')
+      group by e.work_order_id
     ),
     built_days as (
       select (b.built_at at time zone 'UTC')::date as day, count(*)::int as units
