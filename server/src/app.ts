@@ -15,6 +15,7 @@ import { scanRouter } from './features/scan/scan.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
 import { usersRouter } from './features/users/users.routes'
+import { publicRecordRouter } from './features/build/public-record.routes'
 import { buildRouter, unitsRouter } from './features/build/build.routes'
 import { packRouter, shipmentsRouter } from './features/pack/pack.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
@@ -41,7 +42,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, packRouter, shipmentsRouter, reportsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, reportsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -12,6 +12,12 @@ export const router = createBrowserRouter([
     errorElement: <RouteErrorBoundary />,
   },
   {
+    // The customer's build-record link from the shipping e-mail: no sign-in, the token is the key.
+    path: paths.publicRecord.pattern,
+    lazy: () => import('./routes/public-record'),
+    errorElement: <RouteErrorBoundary />,
+  },
+  {
     path: '/',
     element: <AppShell />,
     errorElement: <RouteErrorBoundary />,

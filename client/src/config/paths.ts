@@ -4,6 +4,7 @@ import type { Role } from '@kitwright/shared/roles'
 export const paths = {
   signIn: { pattern: '/sign-in', href: (next?: string) => (next ? `/sign-in?next=${encodeURIComponent(next)}` : '/sign-in') },
   home: { pattern: '/', href: () => '/' },
+  publicRecord: { pattern: '/record/:token', href: (token: string) => `/record/${token}` },
   scan: { pattern: '/scan', href: () => '/scan' },
   users: { pattern: '/admin/users', href: () => '/admin/users' },
   audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
