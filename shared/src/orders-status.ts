@@ -8,3 +8,5 @@ export const ORDER_SOURCES = ['store', 'csv', 'phone'] as const
 export const WORK_ORDER_STATUSES = ['waiting_cut', 'cut', 'building', 'rework', 'built', 'packed', 'shipped', 'cancelled'] as const
 /** The life of an e-mail in the outbox. */
 export const MAIL_STATUSES = ['queued', 'sent', 'failed'] as const
+/** How urgent an order is; a planner sets it and rush orders sort first. */
+export const ORDER_PRIORITIES = ['normal', 'rush'] as const

@@ -1,6 +1,6 @@
 import { relations, sql } from 'drizzle-orm'
 import { check, date, index, integer, jsonb, pgEnum, pgSequence, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core'
-import { MAIL_STATUSES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from '@kitwright/shared/orders-status'
+import { MAIL_STATUSES, ORDER_PRIORITIES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from '@kitwright/shared/orders-status'
 import { createdAt, id, updatedAt } from './columns'
 import { kitRevisions, kits } from './kits'
 import { users } from './users'
@@ -8,6 +8,7 @@ import { users } from './users'
 export const orderStatusEnum = pgEnum('order_status', ORDER_STATUSES)
 export const paymentStatusEnum = pgEnum('payment_status', PAYMENT_STATUSES)
 export const orderSourceEnum = pgEnum('order_source', ORDER_SOURCES)
+export const orderPriorityEnum = pgEnum('order_priority', ORDER_PRIORITIES)
 export const workOrderStatusEnum = pgEnum('work_order_status', WORK_ORDER_STATUSES)
 export const mailStatusEnum = pgEnum('mail_status', MAIL_STATUSES)
 
@@ -54,6 +55,12 @@ export const orders = pgTable(
     placedAt: timestamp({ withTimezone: true }).notNull(),
     /** The ship date promised to the customer; past it and not shipped, the order is late. */
     promisedShipDate: date({ mode: 'string' }),
+    /** Set by a planner; rush orders sort first. */
+    priority: orderPriorityEnum().notNull().default('normal'),
+    /** On hold (a planner's decision, on top of the status): not released or shipped until taken off hold. */
+    heldAt: timestamp({ withTimezone: true }),
+    holdReason: text(),
+    heldBy: uuid().references(() => users.id),
     totalCents: integer().notNull().default(0),
     currency: text().notNull().default('USD'),
     note: text(),

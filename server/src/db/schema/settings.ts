@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { check, integer, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
+import { boolean, check, integer, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
 import { DIM_WEIGHT_SYSTEMS } from '@kitwright/shared/domain/weights'
 import { updatedAt } from './columns'
 
@@ -31,8 +31,12 @@ export const shopSettings = pgTable(
     /** The shop's GS1 Company Prefix for SSCCs (the demo's is invented), and the SSCC extension digit. */
     gs1CompanyPrefix: text(),
     ssccExtensionDigit: integer().notNull().default(0),
+    /** Working days (Monday to Friday) from the order's placed date to the ship date promised when an order arrives without one. */
+    leadTimeDays: integer().notNull().default(7),
+    /** When on, the job that takes a paid store order in also releases it (short stock left as a shortage). */
+    autoReleasePaid: boolean().notNull().default(false),
     updatedAt: updatedAt(),
   },
-  (t) => [check('shop_settings_single_row', sql`${t.id} = 1`)],
+  (t) => [check('shop_settings_single_row', sql`${t.id} = 1`), check('shop_settings_lead_time_days_range', sql`${t.leadTimeDays} between 0 and 250`)],
 )
 export type ShopSettingsRow = typeof shopSettings.$inferSelect
