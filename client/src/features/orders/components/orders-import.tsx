@@ -1,7 +1,7 @@
 import { useState } from 'react'
 import { toast } from 'sonner'
 import { ORDER_CSV_COLUMNS, type OrderCsvError, type OrderImportPreview } from '@kitwright/shared/orders-csv'
-import { Button } from '../../../components/ui/button'
+import { CsvSource } from '../../../components/ui/csv-source'
 import { ApiError } from '../../../lib/api-client'
 import { useImportOrders, usePreviewOrdersImport } from '../api/order-queries'
 import { formatMoney } from './format'
@@ -72,6 +72,18 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
   const canImport = !!current && current.errors.length === 0 && current.creates > 0 && !importOrders.isPending
   const errors = importErrors.length ? importErrors : (current?.errors ?? [])
 
+  const runImport = () =>
+    importOrders.mutate(csv, {
+      onSuccess: (r) => {
+        toast.success(`Imported ${r.created.length} order${r.created.length === 1 ? '' : 's'}${r.skipped.length ? `; ${r.skipped.length} already stored, skipped` : ''}`)
+        onImported()
+      },
+      onError: (err) => {
+        if (err instanceof ApiError) setImportErrors(errorsFromFields(err.body.fields ?? {}))
+        toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
+      },
+    })
+
   return (
     <div className="space-y-4">
       <div className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
@@ -80,53 +92,7 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
           The header is row 1. Dates as 2026-03-01 (or 2026-03-01T14:30:00Z), prices in dollars (189.00), country as two letters (US). An order number
           already stored is skipped, so the same file can be imported twice safely.
         </p>
-        <label className="block space-y-1">
-          <span className="block text-sm font-bold text-stone-700">CSV file</span>
-          <input
-            type="file"
-            accept=".csv,text/csv"
-            className="block"
-            onChange={async (e) => {
-              const file = e.target.files?.[0]
-              if (!file) return
-              const text = await file.text()
-              setCsv(text)
-              runPreview(text)
-            }}
-          />
-        </label>
-        <label className="block space-y-1">
-          <span className="block text-sm font-bold text-stone-700">…or paste it here</span>
-          <textarea
-            value={csv}
-            onChange={(e) => setCsv(e.target.value)}
-            rows={6}
-            spellCheck={false}
-            className="w-full rounded-md border border-stone-300 p-2 font-mono text-sm focus:outline-2 focus:outline-brand-600"
-          />
-        </label>
-        <div className="flex flex-wrap gap-3">
-          <Button variant="secondary" disabled={csv.trim() === '' || preview.isPending} onClick={() => runPreview(csv)}>
-            Preview
-          </Button>
-          <Button
-            disabled={!canImport}
-            onClick={() =>
-              importOrders.mutate(csv, {
-                onSuccess: (r) => {
-                  toast.success(`Imported ${r.created.length} order${r.created.length === 1 ? '' : 's'}${r.skipped.length ? `; ${r.skipped.length} already stored, skipped` : ''}`)
-                  onImported()
-                },
-                onError: (err) => {
-                  if (err instanceof ApiError) setImportErrors(errorsFromFields(err.body.fields ?? {}))
-                  toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
-                },
-              })
-            }
-          >
-            Import
-          </Button>
-        </div>
+        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={preview.isPending} onImport={runImport} canImport={canImport} />
         {current && (
           <p aria-live="polite" className="font-bold">
             {current.creates} new, {current.skips} already stored

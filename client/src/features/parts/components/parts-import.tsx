@@ -2,7 +2,7 @@ import { useState } from 'react'
 import { toast } from 'sonner'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
 import { csvErrorsFromFields, PART_CSV_COLUMNS, type PartCsvError, type PartImportPreview } from '@kitwright/shared/parts-csv'
-import { Button } from '../../../components/ui/button'
+import { CsvSource } from '../../../components/ui/csv-source'
 import { ApiError } from '../../../lib/api-client'
 import { useImportParts, usePreviewPartsImport } from '../api/part-queries'
 import { formatDollars } from './money'
@@ -66,6 +66,18 @@ export function PartsImport({ onImported }: { onImported: () => void }) {
   const canImport = !!current && current.errors.length === 0 && current.rows.length > 0 && !importParts.isPending
   const errors = importErrors.length ? importErrors : (current?.errors ?? [])
 
+  const runImport = () =>
+    importParts.mutate(csv, {
+      onSuccess: (r) => {
+        toast.success(`Imported: ${r.created} new, ${r.updated} updated`)
+        onImported()
+      },
+      onError: (err) => {
+        if (err instanceof ApiError) setImportErrors(csvErrorsFromFields(err.body.fields ?? {}))
+        toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
+      },
+    })
+
   return (
     <div className="space-y-4">
       <div className="space-y-3 rounded-lg border border-stone-300 bg-white p-4">
@@ -73,53 +85,7 @@ export function PartsImport({ onImported }: { onImported: () => void }) {
           Columns: <code className="text-sm">{PART_CSV_COLUMNS.join(', ')}</code>. The header is row 1. Lengths as typed in the shop (10 ft, 0.840 in,
           21.3 mm), cost in dollars (12.34), weight in grams. A SKU already in the catalog updates that part.
         </p>
-        <label className="block space-y-1">
-          <span className="block text-sm font-bold text-stone-700">CSV file</span>
-          <input
-            type="file"
-            accept=".csv,text/csv"
-            className="block"
-            onChange={async (e) => {
-              const file = e.target.files?.[0]
-              if (!file) return
-              const text = await file.text()
-              setCsv(text)
-              runPreview(text)
-            }}
-          />
-        </label>
-        <label className="block space-y-1">
-          <span className="block text-sm font-bold text-stone-700">…or paste it here</span>
-          <textarea
-            value={csv}
-            onChange={(e) => setCsv(e.target.value)}
-            rows={6}
-            spellCheck={false}
-            className="w-full rounded-md border border-stone-300 p-2 font-mono text-sm focus:outline-2 focus:outline-brand-600"
-          />
-        </label>
-        <div className="flex flex-wrap gap-3">
-          <Button variant="secondary" disabled={csv.trim() === '' || preview.isPending} onClick={() => runPreview(csv)}>
-            Preview
-          </Button>
-          <Button
-            disabled={!canImport}
-            onClick={() =>
-              importParts.mutate(csv, {
-                onSuccess: (r) => {
-                  toast.success(`Imported: ${r.created} new, ${r.updated} updated`)
-                  onImported()
-                },
-                onError: (err) => {
-                  if (err instanceof ApiError) setImportErrors(csvErrorsFromFields(err.body.fields ?? {}))
-                  toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
-                },
-              })
-            }
-          >
-            Import
-          </Button>
-        </div>
+        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={preview.isPending} onImport={runImport} canImport={canImport} />
         {current && (
           <p aria-live="polite" className="font-bold">
             {current.creates} new, {current.updates} updated
