@@ -3,6 +3,8 @@ import { OrderStatusSchema, WorkOrderStatusSchema } from './orders'
 import { PACK_CHECK_METHODS, SHIPMENT_STATUSES } from './pack-status'
 
 const uuid = z.string().uuid('Not a valid id')
+/** No control characters (a NUL byte cannot be stored, and no scanner or person types one). */
+const PRINTABLE = /^[^\u0000-\u001f\u007f]*$/
 
 /** Where a shipment is. */
 export const ShipmentStatusSchema = z.enum(SHIPMENT_STATUSES)
@@ -11,17 +13,17 @@ export type ShipmentStatus = z.infer<typeof ShipmentStatusSchema>
 
 /** A scanned bin code or serial at the pack bench, e.g. `BIN-0004` or `U-1001`. */
 export const PackCodeSchema = z.object({
-  code: z.string({ error: 'Scan a bin or type a serial' }).trim().min(1, 'Scan a bin or type a serial').max(60, 'That code is too long to be a bin or serial'),
+  code: z.string({ error: 'Scan a bin or type a serial' }).trim().min(1, 'Scan a bin or type a serial').max(60, 'That code is too long to be a bin or serial').regex(PRINTABLE, 'That code has characters no label carries; scan again'),
 })
 /** A scanned code. */
 export type PackCode = z.infer<typeof PackCodeSchema>
 
 /** Tick (or undo) one item of the packing list, by its key. */
-export const PackItemKeySchema = z.object({ itemKey: z.string().trim().min(1, 'Say which item').max(120) }).strict()
+export const PackItemKeySchema = z.object({ itemKey: z.string().trim().min(1, 'Say which item').max(120).regex(PRINTABLE, 'Not a packing list item') }).strict()
 
 /** A planner's approval to ship what is confirmed and back-order the rest, with why. */
 export const ApprovePartialSchema = z
-  .object({ note: z.string({ error: 'Say why the rest may follow later' }).trim().min(3, 'Say why the rest may follow later').max(500, 'Use at most 500 characters') })
+  .object({ note: z.string({ error: 'Say why the rest may follow later' }).trim().min(3, 'Say why the rest may follow later').max(500, 'Use at most 500 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only') })
   .strict()
 /** A planner's approval of a partial shipment. */
 export type ApprovePartial = z.infer<typeof ApprovePartialSchema>
@@ -48,7 +50,7 @@ export type QuoteRequest = z.infer<typeof QuoteRequestSchema>
 
 /** Buy the label for the parcels with one of the quoted services. */
 export const BuyLabelSchema = z
-  .object({ service: z.string({ error: 'Choose a service' }).trim().min(1, 'Choose a service').max(40), parcels: QuoteRequestSchema.shape.parcels })
+  .object({ service: z.string({ error: 'Choose a service' }).trim().min(1, 'Choose a service').max(40).regex(PRINTABLE, 'Not a service name'), parcels: QuoteRequestSchema.shape.parcels })
   .strict()
 /** Buy the label. */
 export type BuyLabel = z.infer<typeof BuyLabelSchema>

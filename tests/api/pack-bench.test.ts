@@ -231,3 +231,13 @@ describe('shipping', () => {
     expect(error(await packer.post(`/api/pack/orders/${order.id}/ship`).send({}), 409).message).toMatch(/^Buy the label/)
   })
 })
+
+describe('bad input', () => {
+  it('answers 400 with what to fix for a code or note with control characters, never a server error', async () => {
+    const { order } = await insertPackOrder(t.db, [{ kitSku: 'MW-SPARE-SPR6' }])
+    expect(error(await packer.get('/api/pack/lookup').query({ code: 'BIN-\u00000001' }), 400).message).toMatch(/characters no label carries/)
+    expect(error(await scan(packer, order.id, '\u0000'), 400).fields).toHaveProperty('code')
+    expect(error(await planner.post(`/api/pack/orders/${order.id}/approve-partial`).send({ note: 'why\u0000' }), 400).fields).toHaveProperty('note')
+    expect(error(await packer.get('/api/pack/lookup'), 400).message).toMatch(/Scan a bin or type a serial/)
+  })
+})
