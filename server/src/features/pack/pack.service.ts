@@ -52,7 +52,7 @@ async function openShipment(tx: Tx, data: PackData, actor: SessionUser): Promise
   const open = await openShipmentOf(tx, order.id)
   if (open) {
     const locked = (await lockShipment(tx, open.id))!
-    if (locked.status !== 'packing') throw new Conflict(`The label for order ${order.number} is bought; the box is closed. Ship it, or ask a planner to void the label`)
+    if (locked.status !== 'packing') throw new Conflict(`The label for order ${order.number} is bought; the box is closed. Ship it as labelled (voiding a label is not in Kitwright yet)`)
     return locked
   }
   const [created] = await tx.insert(shipments).values({ orderId: order.id, createdBy: actor.id }).returning()

@@ -39,7 +39,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     const units = data.units.filter((u) => ids.includes(u.workOrder.id))
     const locked = await tx.select().from(workOrders).where(inArray(workOrders.id, ids)).for('update')
     const notReady = locked.filter((w) => w.status !== 'built')
-    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${w.status}`).join('; ')}. Take it out of the box and void the label`)
+    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${w.status}`).join('; ')}. Take it out of the box; the label cannot be voided in Kitwright yet, so tell the planner`)
 
     const now = new Date()
     await tx.update(workOrders).set({ status: 'shipped', updatedAt: now }).where(inArray(workOrders.id, ids))
