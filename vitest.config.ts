@@ -24,6 +24,17 @@ export default defineConfig({
         },
       },
       {
+        // Fault and two-process proofs: each file starts and stops its own PostgreSQL, S3 and SMTP.
+        test: {
+          name: 'faults',
+          include: ['tests/faults/**/*.test.ts'],
+          setupFiles: ['tests/setup/per-file.ts'],
+          testTimeout: 120_000,
+          hookTimeout: 180_000,
+          fileParallelism: false,
+        },
+      },
+      {
         test: {
           name: 'e2e',
           include: ['tests/e2e/**/*.test.ts'],

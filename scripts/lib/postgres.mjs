@@ -6,9 +6,10 @@ import path from 'node:path'
 import { fail, step } from './log.mjs'
 import { dataDir, ensureAptPackage, isRoot, postgresBin } from './system.mjs'
 
-const pgData = path.join(dataDir, 'pg')
-const pgRun = path.join(dataDir, 'pg-run')
-const passwordFile = path.join(dataDir, 'pg-password')
+/** The cluster's data folder, socket/log folder and password file under `dir` (`.data` unless a test asks for its own). */
+function clusterPaths(dir) {
+  return { pgData: path.join(dir, 'pg'), pgRun: path.join(dir, 'pg-run'), passwordFile: path.join(dir, 'pg-password') }
+}
 
 /** Runs a PostgreSQL tool, as the `postgres` OS user when we are root (initdb refuses root). */
 function pgTool(bin, tool, args, { allowFail = false } = {}) {
@@ -26,12 +27,16 @@ function ownForPostgres(dir) {
   if (isRoot()) spawnSync('chown', ['-R', 'postgres:postgres', dir])
 }
 
-/** Makes sure the cluster exists and runs; returns its connection details and whether we started it. */
-export function startPostgres(port) {
+/**
+ * Makes sure the cluster exists and runs; returns its connection details and whether we started it.
+ * `dir` puts a separate cluster elsewhere (the fault tests stop and start their own).
+ */
+export function startPostgres(port, { dir = dataDir } = {}) {
   ensureAptPackage('postgresql', () => postgresBin() !== null)
   const bin = postgresBin()
-  mkdirSync(dataDir, { recursive: true })
-  chmodSync(dataDir, 0o755)
+  const { pgData, pgRun, passwordFile } = clusterPaths(dir)
+  mkdirSync(dir, { recursive: true })
+  chmodSync(dir, 0o755)
   if (!existsSync(passwordFile)) writeFileSync(passwordFile, randomBytes(18).toString('base64url'), { mode: 0o600 })
   const password = readFileSync(passwordFile, 'utf8').trim()
 
