@@ -212,7 +212,10 @@ export const UnitRecordSchema = BuildPageSchema.extend({
 export type UnitRecord = z.infer<typeof UnitRecordSchema>
 
 /** A serial in a URL. */
-export const SerialParamsSchema = z.object({ serial: z.string().trim().min(1).max(40) })
+export const SerialParamsSchema = z.object({
+  // No control characters: a NUL byte cannot be stored or looked up, and no label carries one.
+  serial: z.string().trim().min(1).max(40).regex(/^[^\u0000-\u001f\u007f]*$/, 'A serial has no control characters; scan or type it again'),
+})
 /** A work order id in a URL. */
 export const WorkOrderParamsSchema = z.object({ workOrderId: uuid })
 /** A work order and one of its steps in a URL. */

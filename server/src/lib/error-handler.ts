@@ -28,8 +28,23 @@ function flattenUnions(issues: readonly z.core.$ZodIssue[], prefix: PropertyKey[
   })
 }
 
+/** What to say about a request Express or the body parser could not read (their errors carry a 4xx status). */
+function unreadableMessage(err: unknown, status: number): string {
+  const type = (err as { type?: unknown }).type
+  if (status === 413) return 'The request body is too large'
+  if (status === 415) return 'Send the request body as UTF-8 JSON'
+  if (err instanceof Error && err.message.startsWith('Failed to decode param')) return 'Part of the address is not valid URL encoding; check the link or the scanned code'
+  if (type === 'entity.parse.failed') return 'The request body is not valid JSON'
+  return 'The request could not be read; send it again'
+}
+
 /** Turns every error into the one JSON error shape; only unexpected errors are logged with their stack. */
 export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, _next) => {
+  // A handler may have promised a file (a PDF, a CSV download) before it failed; the answer is JSON now.
+  if (!res.headersSent) {
+    res.removeHeader('Content-Disposition')
+    res.type('application/json')
+  }
   if (err instanceof ZodError) {
     const issues = flattenUnions(err.issues)
     const fields: Record<string, string> = {}
@@ -49,8 +64,7 @@ export const errorHandler: ErrorRequestHandler = (err: unknown, req, res, _next)
   // body-parser errors (malformed JSON, body too large) carry a 4xx status of their own.
   const status = (err as { status?: unknown }).status
   if (typeof status === 'number' && status >= 400 && status < 500) {
-    const message = status === 413 ? 'The request body is too large' : 'The request body is not valid JSON'
-    res.status(status).json({ error: { code: 'invalid', message } })
+    res.status(status).json({ error: { code: 'invalid', message: unreadableMessage(err, status) } })
     return
   }
   if (isDatabaseDown(err)) {
