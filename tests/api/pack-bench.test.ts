@@ -207,8 +207,11 @@ describe('shipping', () => {
     const mails = await t.db.select().from(mailMessages).where(and(eq(mailMessages.orderId, order.id), sql`${mailMessages.purpose} like 'shipped:%'`))
     expect(mails).toHaveLength(1)
     expect(mails[0]!.text).toContain(`Tracking number: ${tracking}`)
-    expect(mails[0]!.text).toContain(`http://localhost:3000/units/${units[0]!.wo.serial}`)
-    expect(mails[0]!.text).not.toContain(`/units/${units[1]!.wo.serial}`) // a spare pack has no build record
+    // One signed build-record link, for the built unit; a spare pack has no build record.
+    const links = [...mails[0]!.text.matchAll(/http:\/\/localhost:3000\/record\/(\S+)/g)]
+    expect(links).toHaveLength(1)
+    const record = await packer.get(`/api/public/unit-records/${links[0]![1]}`)
+    expect(record.body.serial).toBe(units[0]!.wo.serial)
 
     const mailDir = process.env.FAKE_MAIL_DIR
     if (!mailDir) throw new Error('FAKE_MAIL_DIR is not set: run the suite with `npm test`')
@@ -222,7 +225,7 @@ describe('shipping', () => {
     }
     expect(caught).toHaveLength(1)
     expect(caught[0]!.text).toContain(tracking)
-    expect(caught[0]!.html).toContain(`href="http://localhost:3000/units/${units[0]!.wo.serial}"`)
+    expect(caught[0]!.html).toContain(`href="${links[0]![0]}"`)
   })
 
   it('refuses to ship before the label is bought', async () => {

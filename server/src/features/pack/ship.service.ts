@@ -7,12 +7,14 @@ import { recordAudit, type AuditContext } from '../../lib/audit'
 import { Conflict, NotFound } from '../../lib/http-errors'
 import { freeBin } from '../bins/bins.service'
 import { queueMail } from '../mail/mail.service'
+import { onHoldConflict } from '../orders/order-lifecycle.service'
 import { addOrderEvent } from '../orders/orders.service'
 import { insertMoves, lockParts } from '../stock/stock.queries'
 import { releaseReservation } from '../stock/stock.service'
 import { loadPackData } from './pack-view'
 import { bomOfRevisions, lockOrderRow, lockShipment, parcelsOf } from './pack.queries'
 import { packView } from './pack.service'
+import { unitRecordLink } from '../build/public-record'
 import { shippedMailContent } from './shipped-mail'
 
 const DEFAULT_APP_URL = 'http://localhost:3000'
@@ -23,12 +25,13 @@ const DEFAULT_APP_URL = 'http://localhost:3000'
  * ledger (`ship` moves) with its reservations released, and the customer's e-mail queued with the
  * tracking number and a link to each unit's build record. Parcels were recorded with the label.
  */
-export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'appUrl'>, orderId: string, actor: SessionUser, audit: AuditContext): Promise<ShipResult> {
+export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'appUrl' | 'tokens'>, orderId: string, actor: SessionUser, audit: AuditContext): Promise<ShipResult> {
   let shipmentId = ''
   let mailQueued = false
   await deps.db.transaction(async (tx) => {
     const order = await lockOrderRow(tx, orderId)
     if (!order) throw new NotFound('No such order')
+    if (order.heldAt) throw onHoldConflict(order, 'shipped')
     const data = await loadPackData(tx, orderId)
     if (!data.shipment) throw new Conflict(`Nothing of order ${order.number} is packed yet`)
     const shipment = await lockShipment(tx, data.shipment.id)
@@ -72,16 +75,18 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
 
     const content = shippedMailContent({
       shopName: data.settings.shopName,
-      appUrl: deps.appUrl ?? DEFAULT_APP_URL,
       customerName: order.customerName,
       orderNumber: order.number,
       carrier: shipment.carrier ?? 'the carrier',
       service: shipment.service ?? '',
       trackingNumber: shipment.trackingNumber ?? '',
-      units: units.map((u) => {
-        const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit')
-        return { serial: u.workOrder.serial, description: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`, hasBuildRecord: built }
-      }),
+      units: await Promise.all(
+        units.map(async (u) => {
+          const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit')
+          const recordUrl = built ? await unitRecordLink(deps.tokens, deps.appUrl ?? DEFAULT_APP_URL, u.workOrder.serial) : null
+          return { serial: u.workOrder.serial, description: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`, recordUrl }
+        }),
+      ),
       backOrdered,
     })
     // One e-mail per shipment: a second attempt for the same shipment is dropped by the outbox.

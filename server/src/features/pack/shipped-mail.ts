@@ -4,19 +4,14 @@ function escapeHtml(text: string) {
 
 export interface ShippedMailInput {
   shopName: string
-  appUrl: string
   customerName: string
   orderNumber: string
   carrier: string
   service: string
   trackingNumber: string
-  units: { serial: string; description: string; hasBuildRecord: boolean }[]
+  /** `recordUrl`: the customer's signed link to the unit's build record, or null for a spare-parts pack. */
+  units: { serial: string; description: string; recordUrl: string | null }[]
   backOrdered: string[]
-}
-
-/** Where a unit's build record (steps, photos, leak test) is read: `<app>/units/<serial>`. */
-export function buildRecordUrl(appUrl: string, serial: string) {
-  return `${appUrl.replace(/\/+$/, '')}/units/${encodeURIComponent(serial)}`
 }
 
 /** The words of the "shipped" e-mail: tracking number, what is in the parcel with links to each build record, what follows. */
@@ -24,7 +19,7 @@ export function shippedMailContent(input: ShippedMailInput) {
   const firstName = input.customerName.split(/\s+/)[0] ?? input.customerName
   const partial = input.backOrdered.length > 0
   const subject = `${input.shopName}: ${partial ? 'part of ' : ''}your order ${input.orderNumber} has shipped`
-  const lines = input.units.map((u) => `  ${u.description}${u.hasBuildRecord ? `\n    Build record (steps, photos, leak test): ${buildRecordUrl(input.appUrl, u.serial)}` : ''}`)
+  const lines = input.units.map((u) => `  ${u.description}${u.recordUrl ? `\n    Build record (steps, photos, leak test): ${u.recordUrl}` : ''}`)
   const later = partial ? ['', `The rest (${input.backOrdered.join(', ')}) follows in a later parcel; we will write again when it ships.`] : []
   const text = [
     `Hello ${firstName},`,
@@ -41,7 +36,7 @@ export function shippedMailContent(input: ShippedMailInput) {
     `The ${input.shopName} workshop`,
   ].join('\n')
   const items = input.units
-    .map((u) => `<li>${escapeHtml(u.description)}${u.hasBuildRecord ? ` — <a href="${escapeHtml(buildRecordUrl(input.appUrl, u.serial))}">build record of ${escapeHtml(u.serial)}</a>` : ''}</li>`)
+    .map((u) => `<li>${escapeHtml(u.description)}${u.recordUrl ? ` — <a href="${escapeHtml(u.recordUrl)}">build record of ${escapeHtml(u.serial)}</a>` : ''}</li>`)
     .join('')
   const html = [
     `<p>Hello ${escapeHtml(firstName)},</p>`,
