@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { EmailSchema } from './auth'
-import { ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
+import { ORDER_STAGES } from './order-stage'
+import { ORDER_PRIORITIES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
 import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
 
 const uuid = z.string().uuid('Not a valid id')
@@ -21,6 +22,15 @@ export type OrderSource = z.infer<typeof OrderSourceSchema>
 export const WorkOrderStatusSchema = z.enum(WORK_ORDER_STATUSES)
 /** Where one unit (work order) is. */
 export type WorkOrderStatus = z.infer<typeof WorkOrderStatusSchema>
+
+/** How urgent an order is. */
+export const OrderPrioritySchema = z.enum(ORDER_PRIORITIES, { error: `Use one of ${ORDER_PRIORITIES.join(', ')}` })
+/** How urgent an order is. */
+export type OrderPriority = z.infer<typeof OrderPrioritySchema>
+/** What each priority is called on screen. */
+export const ORDER_PRIORITY_LABELS: Record<OrderPriority, string> = { normal: 'Normal', rush: 'Rush' }
+/** Where an order is in its life (see `order-stage.ts`). */
+export const OrderStageSchema = z.enum(ORDER_STAGES, { error: `Use one of ${ORDER_STAGES.join(', ')}` })
 
 /** What each order status is called on screen. */
 export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
@@ -56,6 +66,10 @@ export const ORDER_EVENT_KINDS = [
   'released',
   'shortage',
   'cancelled',
+  'held',
+  'hold_lifted',
+  'priority',
+  'promised_date',
   'mail_queued',
   'mail_sent',
   'note',
@@ -179,6 +193,12 @@ export const OrderSchema = z.object({
   workOrderCount: z.number().int(),
   /** Past its promised ship date and not shipped or cancelled. */
   late: z.boolean(),
+  /** Where the order is in its life, read from its status, its hold and its work orders. */
+  stage: OrderStageSchema,
+  priority: OrderPrioritySchema,
+  onHold: z.boolean(),
+  /** Why a planner put it on hold; null when not on hold. */
+  holdReason: z.string().nullable(),
 })
 /** An order as a row of the orders list. */
 export type Order = z.infer<typeof OrderSchema>
@@ -244,6 +264,8 @@ export const OrderDetailSchema = OrderSchema.extend({
   releasedAt: z.string().nullable(),
   shippedAt: z.string().nullable(),
   cancelledAt: z.string().nullable(),
+  heldAt: z.string().nullable(),
+  heldByName: z.string().nullable(),
   lines: z.array(OrderLineSchema),
   /** Oldest first. */
   events: z.array(OrderEventSchema),
@@ -253,12 +275,13 @@ export const OrderDetailSchema = OrderSchema.extend({
 export type OrderDetail = z.infer<typeof OrderDetailSchema>
 
 /** Columns the orders list sorts by. */
-export const ORDER_SORT_FIELDS = ['number', 'placedAt', 'promisedShipDate', 'customer', 'status', 'total'] as const
+export const ORDER_SORT_FIELDS = ['number', 'placedAt', 'promisedShipDate', 'customer', 'status', 'total', 'priority'] as const
 /** A column the orders list sorts by. */
 export type OrderSortField = (typeof ORDER_SORT_FIELDS)[number]
 
 /**
- * The orders list query: page, sort, filters (status, placed-date range, kit) and a free-text
+ * The orders list query: page, sort (by priority: rush first, ascending), filters (status, stage,
+ * priority, late only, placed-date range, kit) and a free-text
  * search over number, customer name and e-mail. The API parses it strictly (400 on bad values);
  * the client reads its URL with `querySearchWithDefaults`, so a bad link falls back to defaults.
  * `from` and `to` are calendar dates, both inclusive, in UTC.
@@ -270,6 +293,10 @@ export const OrderListQuerySchema = z
     sort: z.enum(ORDER_SORT_FIELDS, { error: `Sort by one of ${ORDER_SORT_FIELDS.join(', ')}` }).default('placedAt'),
     dir: SortDirSchema.default('desc'),
     status: OrderStatusSchema.optional(),
+    stage: OrderStageSchema.optional(),
+    priority: OrderPrioritySchema.optional(),
+    /** `true`: only orders past their promised ship date and still to ship. */
+    late: z.enum(['true'], { error: 'Use late=true, or leave it out' }).optional(),
     from: IsoDateSchema.optional(),
     to: IsoDateSchema.optional(),
     kitId: uuid.optional(),
@@ -283,3 +310,34 @@ export const OrderListQuerySchema = z
   .strict()
 /** The orders list query. */
 export type OrderListQuery = z.infer<typeof OrderListQuerySchema>
+
+const reasonText = (what: string) =>
+  z
+    .string({ error: `Say why the order is ${what}` })
+    .trim()
+    .min(3, `Say why the order is ${what} (at least 3 characters)`)
+    .max(500, 'Use at most 500 characters')
+
+/** A planner puts an order on hold, saying why; a held order is neither released nor shipped. */
+export const HoldOrderSchema = z.object({ reason: reasonText('on hold') }).strict()
+/** A planner puts an order on hold. */
+export type HoldOrder = z.infer<typeof HoldOrderSchema>
+
+/**
+ * A planner cancels an order, saying why: its unshipped work orders are cancelled, their reserved
+ * stock released, their bins freed and pieces already cut stocked as offcuts.
+ */
+export const CancelOrderSchema = z.object({ reason: reasonText('cancelled') }).strict()
+/** A planner cancels an order. */
+export type CancelOrder = z.infer<typeof CancelOrderSchema>
+
+/** A planner changes an order's priority or its promised ship date (null clears the date). */
+export const UpdateOrderPlanSchema = z
+  .object({
+    priority: OrderPrioritySchema.optional(),
+    promisedShipDate: IsoDateSchema.nullable().optional(),
+  })
+  .strict()
+  .refine((v) => v.priority !== undefined || v.promisedShipDate !== undefined, { message: 'Give a priority or a promised ship date to change' })
+/** A planner changes an order's priority or promised ship date. */
+export type UpdateOrderPlan = z.infer<typeof UpdateOrderPlanSchema>

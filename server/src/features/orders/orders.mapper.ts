@@ -23,6 +23,10 @@ export function toOrder(r: OrderListRecord): Order {
     unmappedLines: r.unmappedLines,
     workOrderCount: r.workOrderCount,
     late: r.late,
+    stage: r.stage,
+    priority: r.priority,
+    onHold: r.onHold,
+    holdReason: r.holdReason,
   }
 }
 
@@ -52,6 +56,12 @@ export function toOrderDetail(o: OrderTree): OrderDetail {
     unmappedLines: lines.filter((l) => l.kitId === null).length,
     workOrderCount: o.workOrders.length,
     late: o.late,
+    stage: o.stage,
+    priority: o.priority,
+    onHold: o.heldAt !== null,
+    holdReason: o.holdReason,
+    heldAt: o.heldAt?.toISOString() ?? null,
+    heldByName: o.heldByName,
     customer: { name: o.customerName, email: o.customerEmail, phone: o.customerPhone },
     shipTo: {
       name: o.shipName,

@@ -1,5 +1,6 @@
 import { asc, eq, inArray, sql, type SQL } from 'drizzle-orm'
 import type { OrderListQuery } from '@kitwright/shared/orders'
+import { FINISHED_WORK_ORDER_STATUSES, STARTED_WORK_ORDER_STATUSES, type OrderStage } from '@kitwright/shared/order-stage'
 import type { Db, Tx } from '../../db/client'
 import { kits, orderEvents, orderLines, orders, workOrders, type NewOrderRow, type OrderRow } from '../../db/schema/index'
 
@@ -69,6 +70,10 @@ export interface OrderListRecord extends Record<string, unknown> {
   unmappedLines: number
   workOrderCount: number
   late: boolean
+  stage: OrderStage
+  priority: OrderRow['priority']
+  onHold: boolean
+  holdReason: string | null
   total: number
 }
 
@@ -79,6 +84,8 @@ const SORT_COLUMNS: Record<OrderListQuery['sort'], SQL> = {
   customer: sql`lower(o.customer_name)`,
   status: sql`o.status`,
   total: sql`o.total_cents`,
+  // Rush first when ascending.
+  priority: sql`(case o.priority when 'rush' then 0 else 1 end)`,
 }
 
 function likePattern(text: string) {
@@ -88,9 +95,30 @@ function likePattern(text: string) {
 /** Whether an order is late: past its promised ship date (the database's today) and still to ship. */
 export const LATE_SQL = sql`(o.promised_ship_date < current_date and o.status not in ('shipped', 'cancelled'))`
 
+const quoted = (list: readonly string[]) => sql.raw(list.map((s) => `'${s}'`).join(', '))
+
+/**
+ * The order's stage (see `orderStage` in shared/order-stage.ts, which this mirrors and the tests
+ * compare with): from its status, its hold and its work orders that are not cancelled.
+ */
+export const STAGE_SQL = sql`(case
+  when o.status = 'cancelled' then 'cancelled'
+  when o.status = 'shipped' then 'shipped'
+  when o.held_at is not null then 'on_hold'
+  when o.status = 'partially_shipped' then 'partially_shipped'
+  when o.status = 'open' then 'received'
+  when exists (select 1 from work_orders sw where sw.order_id = o.id and sw.status <> 'cancelled')
+    and not exists (select 1 from work_orders sw where sw.order_id = o.id and sw.status not in ('cancelled', ${quoted(FINISHED_WORK_ORDER_STATUSES)})) then 'ready_to_pack'
+  when exists (select 1 from work_orders sw where sw.order_id = o.id and sw.status in (${quoted(STARTED_WORK_ORDER_STATUSES)})) then 'in_production'
+  else 'released'
+end)`
+
 function listWhere(q: Omit<OrderListQuery, 'page' | 'pageSize' | 'sort' | 'dir'>): SQL {
   const conditions: SQL[] = [sql`true`]
   if (q.status) conditions.push(sql`o.status = ${q.status}`)
+  if (q.stage) conditions.push(sql`${STAGE_SQL} = ${q.stage}`)
+  if (q.priority) conditions.push(sql`o.priority = ${q.priority}`)
+  if (q.late) conditions.push(LATE_SQL)
   // Placed dates are calendar days in UTC, both ends included.
   if (q.from) conditions.push(sql`o.placed_at >= (${q.from}::date)::timestamp at time zone 'UTC'`)
   if (q.to) conditions.push(sql`o.placed_at < (${q.to}::date + 1)::timestamp at time zone 'UTC'`)
@@ -117,7 +145,8 @@ export async function selectOrdersPage(db: Conn, q: Omit<OrderListQuery, 'page' 
       o.promised_ship_date::text as "promisedShipDate", o.total_cents as "totalCents", o.currency,
       coalesce(l.units, 0)::int as "units", coalesce(l.summary, '') as "summary",
       coalesce(l.unmapped, 0)::int as "unmappedLines", coalesce(w.n, 0)::int as "workOrderCount",
-      ${LATE_SQL} as "late",
+      ${LATE_SQL} as "late", ${STAGE_SQL} as "stage", o.priority, (o.held_at is not null) as "onHold",
+      o.hold_reason as "holdReason",
       (count(*) over ())::int as "total"
     from orders o
     left join lateral (
@@ -150,8 +179,9 @@ export async function selectOrderTree(db: Conn, id: string) {
     },
   })
   if (!order) return undefined
-  const [late] = (await db.execute<{ late: boolean }>(sql`select ${LATE_SQL} as late from orders o where o.id = ${id}`)).rows
-  return { ...order, late: late?.late ?? false }
+  const [flags] = (await db.execute<{ late: boolean; stage: OrderStage }>(sql`select ${LATE_SQL} as late, ${STAGE_SQL} as stage from orders o where o.id = ${id}`)).rows
+  const heldBy = order.heldBy ? (await db.query.users.findFirst({ where: (u, { eq: is }) => is(u.id, order.heldBy!), columns: { name: true } }))?.name ?? null : null
+  return { ...order, late: flags?.late ?? false, stage: flags?.stage ?? 'received', heldByName: heldBy }
 }
 export type OrderTree = NonNullable<Awaited<ReturnType<typeof selectOrderTree>>>
 

@@ -1,10 +1,11 @@
-import { NewOrderSchema, OrderListQuerySchema } from '@kitwright/shared/orders'
+import { CancelOrderSchema, HoldOrderSchema, NewOrderSchema, OrderListQuerySchema, UpdateOrderPlanSchema } from '@kitwright/shared/orders'
 import { OrderCsvBodySchema } from '@kitwright/shared/orders-csv'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
+import { cancelOrderByPlanner, holdOrder, liftOrderHold, updateOrderPlan } from './order-lifecycle.service'
 import { importOrders, previewOrdersImport } from './orders-import.service'
 import { createPhoneOrder, exportOrdersCsv, getOrder, listOrders } from './orders.service'
 
@@ -31,6 +32,22 @@ export function ordersRouter(deps: Deps, routes: RouteTable) {
   r.get('/:id', planners, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
     res.json(await getOrder(deps.db, id))
+  })
+  r.patch('/:id', planners, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    res.json(await updateOrderPlan(deps.db, id, UpdateOrderPlanSchema.parse(req.body), currentUser(req), auditContext(req)))
+  })
+  r.post('/:id/hold', planners, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    res.json(await holdOrder(deps.db, id, HoldOrderSchema.parse(req.body).reason, currentUser(req), auditContext(req)))
+  })
+  r.delete('/:id/hold', planners, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    res.json(await liftOrderHold(deps.db, id, currentUser(req), auditContext(req)))
+  })
+  r.post('/:id/cancel', planners, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    res.json(await cancelOrderByPlanner(deps.db, id, CancelOrderSchema.parse(req.body).reason, currentUser(req), auditContext(req)))
   })
   r.post('/', planners, async (req, res) => {
     const order = await createPhoneOrder(deps.db, NewOrderSchema.parse(req.body), currentUser(req))

@@ -1,6 +1,8 @@
+import { eq } from 'drizzle-orm'
+import { addWorkingDays, utcDay } from '@kitwright/shared/domain/working-days'
 import type { NewOrder, OrderDetail, OrderListQuery, OrderSource, OrdersPage } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
-import type { OrderEventRow, OrderRow } from '../../db/schema/index'
+import { shopSettings, type OrderEventRow, type OrderRow } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { writeOrdersCsv } from './orders.csv'
@@ -32,6 +34,16 @@ const SOURCE_WORDS: Record<OrderSource, string> = {
   phone: 'Entered as a phone order',
 }
 
+/**
+ * The ship date promised for an order that arrives without one: the shop's lead time in working days
+ * (Monday to Friday) after the day it was placed (UTC).
+ */
+export async function promisedShipDateFor(db: Db | Tx, placedAt: Date | string): Promise<{ date: string; leadTimeDays: number }> {
+  const [row] = await db.select({ leadTimeDays: shopSettings.leadTimeDays }).from(shopSettings).where(eq(shopSettings.id, 1))
+  const leadTimeDays = row?.leadTimeDays ?? 7
+  return { date: addWorkingDays(utcDay(placedAt), leadTimeDays), leadTimeDays }
+}
+
 /** Appends one event to an order's timeline inside the caller's transaction. */
 export async function addOrderEvent(
   tx: Tx,
@@ -47,7 +59,8 @@ export async function addOrderEvent(
 }
 
 /**
- * Stores a new order with its lines and a `received` event, inside the caller's transaction.
+ * Stores a new order with its lines and a `received` event, inside the caller's transaction. An
+ * order that arrives without a promised ship date is promised the shop's lead time after it was placed.
  * Idempotent by order number: when the number is already stored (or another transaction stores it
  * first), it returns that order and creates nothing. Each line maps to a kit by the kit's SKU (any
  * case) or else by the kit's store product id; a line that maps to no kit is kept with no kit and
@@ -58,6 +71,7 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
   if (existing) return { order: existing, created: false }
 
   const totalCents = input.lines.reduce((sum, l) => sum + l.quantity * l.unitPriceCents, 0)
+  const promised = input.promisedShipDate ? null : await promisedShipDateFor(tx, input.placedAt)
   const order = await insertOrderIfNew(tx, {
     number: input.number,
     source,
@@ -74,7 +88,7 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
     shipPostalCode: input.shipTo.postalCode,
     shipCountry: input.shipTo.country,
     placedAt: new Date(input.placedAt),
-    promisedShipDate: input.promisedShipDate ?? null,
+    promisedShipDate: input.promisedShipDate ?? promised!.date,
     totalCents,
     currency: input.currency,
     note: input.note ?? null,
@@ -112,8 +126,10 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
   await addOrderEvent(tx, {
     orderId: order.id,
     kind: 'received',
-    message: `${SOURCE_WORDS[source]}: ${units} unit${units === 1 ? '' : 's'} on ${input.lines.length} line${input.lines.length === 1 ? '' : 's'}`,
-    data: { source, number: input.number },
+    message:
+      `${SOURCE_WORDS[source]}: ${units} unit${units === 1 ? '' : 's'} on ${input.lines.length} line${input.lines.length === 1 ? '' : 's'}` +
+      (promised ? `; promised to ship by ${promised.date} (the shop's lead time of ${promised.leadTimeDays} working day${promised.leadTimeDays === 1 ? '' : 's'})` : ''),
+    data: { source, number: input.number, promisedShipDate: order.promisedShipDate, leadTimeDays: promised?.leadTimeDays ?? null },
     actor,
   })
   for (const { line, lineNo, kit } of mapped) {

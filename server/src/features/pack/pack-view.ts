@@ -134,6 +134,7 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
   const serialOf = new Map(data.units.map((u) => [u.workOrder.id, u.workOrder.serial]))
   const blockers: string[] = []
   if (order.status !== 'released' && order.status !== 'partially_shipped') blockers.push(`Order ${order.number} is ${order.status.replace('_', ' ')}; only released orders are packed`)
+  if (order.heldAt) blockers.push(`Order ${order.number} is on hold (${order.holdReason ?? 'no reason given'}); a planner takes it off hold before it ships`)
   if (items.length === 0) blockers.push(`Order ${order.number} has nothing left to pack`)
   for (const id of shipping) {
     for (const item of byUnit.get(id) ?? []) {

@@ -5,7 +5,15 @@ import { shopSettings, type ShopSettingsRow } from '../../db/schema/index'
 import { NotFound } from '../../lib/http-errors'
 
 function toShopSettings(row: ShopSettingsRow): ShopSettings {
-  return { shopName: row.shopName, displayUnit: row.displayUnit, kerf: row.kerf, endTrim: row.endTrim, minOffcut: row.minOffcut }
+  return {
+    shopName: row.shopName,
+    displayUnit: row.displayUnit,
+    kerf: row.kerf,
+    endTrim: row.endTrim,
+    minOffcut: row.minOffcut,
+    leadTimeDays: row.leadTimeDays,
+    autoReleasePaid: row.autoReleasePaid,
+  }
 }
 
 export async function getShopSettings(db: Db | Tx): Promise<ShopSettings> {

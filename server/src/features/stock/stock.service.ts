@@ -250,9 +250,9 @@ function mergeLines(lines: readonly ReservationLine[]) {
  * recomputed from the ledger, so concurrent reservations queue and available never goes below
  * zero. Pipe lines may name a stick length; available is then checked for that length as well as
  * for the part. Throws Conflict (409) saying what is short, and reserves nothing, when any line
- * cannot be met.
+ * cannot be met. `actor` is null when the system reserved it (a paid order released automatically).
  */
-export async function reserveStock(tx: Tx, input: Pick<ReserveStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor): Promise<StockMovesResult> {
+export async function reserveStock(tx: Tx, input: Pick<ReserveStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor | null): Promise<StockMovesResult> {
   const lines = mergeLines(input.lines)
   const byId = await lockActiveParts(tx, lines.map((l) => l.partId), (id) => `lines.${lines.find((l) => l.partId === id)!.index}.partId`)
   const unit = await displayUnit(tx)
@@ -286,7 +286,7 @@ export async function reserveStock(tx: Tx, input: Pick<ReserveStock, 'workOrderI
   if (shortages.length > 0) throw new Conflict(`Not enough stock to reserve: ${shortages.join('; ')}`, fields)
   const rows = await insertMoves(
     tx,
-    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'reserve', quantity: l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor.id })),
+    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'reserve', quantity: l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }

@@ -6,7 +6,8 @@ import { orders, storeEvents, type OrderRow, type StoreEventRow } from '../../db
 import type { Deps } from '../../deps'
 import { queueOrderReceivedMail } from '../mail/order-received-mail'
 import { addOrderEvent, createOrder } from '../orders/orders.service'
-import { cancelOrderFromStore } from './store-order-cancel'
+import { cancelOrder } from '../orders/order-lifecycle.service'
+import { autoReleasePaidOrder } from '../work-orders/auto-release'
 
 export type StoreEventDeps = Pick<Deps, 'db' | 'jobs'>
 type Paid = Extract<StoreEvent, { type: 'order.paid' }>
@@ -28,7 +29,7 @@ export async function processStoreEvent(deps: StoreEventDeps, storeEventId: stri
       const event = StoreEventSchema.parse(row.payload)
       const order = await orderByNumber(tx, event.orderNumber)
       if (event.type === 'order.paid') await applyPaid(tx, deps, event, row)
-      else if (order && event.type === 'order.cancelled') await cancelOrderFromStore(tx, order, { eventId: event.eventId, reason: event.reason })
+      else if (order && event.type === 'order.cancelled') await cancelOrder(tx, order, { by: 'store', actor: null, eventId: event.eventId, reason: event.reason })
       else if (order && event.type === 'order.address_changed') await applyAddressChange(tx, order, event, { early: false })
       // With no order yet, the event waits, stored and marked processed, for its paid event (applyPaid reads it back).
       await tx.update(storeEvents).set({ processedAt: new Date(), error: null }).where(eq(storeEvents.id, row.id))
@@ -61,6 +62,7 @@ async function applyPaid(tx: Tx, deps: StoreEventDeps, event: Paid, row: StoreEv
     if (order.paymentStatus !== 'paid') {
       await tx.update(orders).set({ paymentStatus: 'paid', updatedAt: new Date() }).where(eq(orders.id, order.id))
       await addOrderEvent(tx, { orderId: order.id, kind: 'payment', message: 'The web store reports this order paid.', data: { eventId: event.eventId } })
+      await autoReleasePaidOrder(tx, order.id)
     } else {
       await addOrderEvent(tx, {
         orderId: order.id,
@@ -88,10 +90,11 @@ async function applyPaid(tx: Tx, deps: StoreEventDeps, event: Paid, row: StoreEv
   }
   const cancel = early.find((e): e is Cancelled => e.type === 'order.cancelled')
   if (cancel) {
-    await cancelOrderFromStore(tx, current, { eventId: cancel.eventId, reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment' })
+    await cancelOrder(tx, current, { by: 'store', actor: null, eventId: cancel.eventId, reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment' })
     return
   }
   await queueOrderReceivedMail(tx, deps.jobs, order.id)
+  await autoReleasePaidOrder(tx, order.id)
 }
 
 function oneLine(a: ShipTo | { name: string; line1: string; line2?: string | null; city: string; region?: string | null; postalCode: string; country: string }) {

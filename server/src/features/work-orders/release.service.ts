@@ -2,6 +2,7 @@ import type { ReleaseOrders, ReleaseResult, ReleasedOrder, ReleaseShortage } fro
 import { shortageFieldKey } from '@kitwright/shared/work-orders'
 import type { Db, Tx } from '../../db/client'
 import { Conflict, HttpError, NotFound } from '../../lib/http-errors'
+import { onHoldConflict } from '../orders/order-lifecycle.service'
 import { addOrderEvent } from '../orders/orders.service'
 import { reserveStock, type Actor } from '../stock/stock.service'
 import { lockParts, selectBuckets } from '../stock/stock.queries'
@@ -44,12 +45,14 @@ async function lockedAvailable(tx: Tx, partIds: readonly string[]): Promise<Map<
  * releases never reserve more than is free. When stock is short, the release is refused (409,
  * naming each short part) unless `allowShort`, which reserves what is free, unit by unit in serial
  * order, and records the rest as a shortage on the timeline (the shortages page computes it live).
+ * An order on hold is refused (409). `actor` is null when the system releases it (auto-release).
  */
-export async function releaseOrder(tx: Tx, orderId: string, options: { allowShort: boolean }, actor: Actor): Promise<ReleasedOrder> {
+export async function releaseOrder(tx: Tx, orderId: string, options: { allowShort: boolean; automatic?: boolean }, actor: Actor | null): Promise<ReleasedOrder> {
   const order = await lockOrder(tx, orderId)
   if (!order) throw new NotFound('No such order')
   if (order.status === 'cancelled') throw new Conflict(`Order ${order.number} is cancelled; a cancelled order cannot be released`)
   if (order.status !== 'open') throw new Conflict(`Order ${order.number} is already released; its work orders are on the order page`)
+  if (order.heldAt) throw onHoldConflict(order, 'released')
   if (order.source === 'store' && order.paymentStatus !== 'paid') {
     throw new Conflict(`Order ${order.number} is not paid yet (payment ${order.paymentStatus}); release it when the store reports it paid`)
   }
@@ -141,7 +144,7 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
     orderId: order.id,
     kind: 'released',
     message:
-      `Released into ${created.length} work order${created.length === 1 ? '' : 's'} (${range}; ${codes}). Hardware and packaging reserved; pipe is reserved when a cut run is published.` +
+      `${options.automatic ? 'Released automatically when paid (shop setting)' : 'Released'} into ${created.length} work order${created.length === 1 ? '' : 's'} (${range}; ${codes}). Hardware and packaging reserved; pipe is reserved when a cut run is published.` +
       (packs > 0 ? ` ${packs} spare-parts unit${packs === 1 ? ' goes' : 's go'} straight to packing.` : ''),
     data: { workOrders: created.map((w) => w.serial) },
     actor,
