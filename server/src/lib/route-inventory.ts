@@ -21,7 +21,7 @@ export function expressRoutes(app: Express): string[] {
 
 /** The routes of the table in the same form as `expressRoutes`. */
 export function declaredRoutes(table: RouteTable): string[] {
-  return table.records.map((r) => `${r.method} ${r.path.replace(/^\/api\/[^/]+/, '') || '/'}`)
+  return table.records.map((r) => `${r.method} ${r.routerPath}`)
 }
 
 /**

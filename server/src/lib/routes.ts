@@ -11,7 +11,10 @@ export type Access = 'public' | 'signed-in' | readonly Role[]
 
 export interface RouteRecord {
   method: 'get' | 'post' | 'put' | 'patch' | 'delete'
+  /** The full path, e.g. `/api/users/:id`. */
   path: string
+  /** The path as its router knows it, without the mount point, e.g. `/:id`. */
+  routerPath: string
   access: Access
 }
 
@@ -41,7 +44,7 @@ export class RouteTable {
       (method: RouteRecord['method']) =>
       (path: string, access: Access, ...handlers: RequestHandler[]) => {
         assertAccess(access, `${method.toUpperCase()} ${base}${path}`)
-        this.records.push({ method, path: base + (path === '/' ? '' : path), access })
+        this.records.push({ method, path: base + (path === '/' ? '' : path), routerPath: path, access })
         router[method](path, accessGuard(access), ...handlers)
       }
     return {
