@@ -40,6 +40,8 @@ function normaliseHeader(h: string) {
  * ignored), every other non-blank row is one line. Each problem is kept with the row it is on.
  */
 export function readPackingList(csv: string, defaultReference: string | null, unit: LengthUnit): ReadPackingList {
+  // NUL bytes mean binary or UTF-16 text, not a CSV; the database could not even look such a SKU up.
+  if (csv.includes('\u0000')) return { lines: [], fileErrors: ['The file holds NUL bytes, so it is not CSV text: save it from the spreadsheet as "CSV UTF-8" and upload that'] }
   const parsed = Papa.parse<string[]>(csv.replace(/^\ufeff/, ''), { header: false, skipEmptyLines: false })
   const records = parsed.data
   const fileErrors: string[] = []
