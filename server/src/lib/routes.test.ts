@@ -14,8 +14,8 @@ describe('RouteTable', () => {
     r.get('/', 'signed-in', ok)
     r.post('/:id/tick', ['admin', 'cutter'], ok)
     expect(table.records).toEqual([
-      { method: 'get', path: '/api/things', access: 'signed-in' },
-      { method: 'post', path: '/api/things/:id/tick', access: ['admin', 'cutter'] },
+      { method: 'get', path: '/api/things', routerPath: '/', access: 'signed-in' },
+      { method: 'post', path: '/api/things/:id/tick', routerPath: '/:id/tick', access: ['admin', 'cutter'] },
     ])
   })
 
