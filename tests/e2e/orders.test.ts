@@ -62,8 +62,8 @@ describe('orders, in Chromium', () => {
     expect(await orderRow('W-2395').getAttribute('data-late')).toBe('true')
     await shot('orders-list')
 
-    await page.getByLabel('Status').selectOption('open')
-    await page.waitForURL(/status=open/)
+    await page.getByLabel('Status').selectOption('received')
+    await page.waitForURL(/stage=received/)
     await orderRow('W-2401').waitFor({ state: 'detached' })
     await page.getByLabel('Search').fill('halloway')
     await page.waitForURL(/q=halloway/)
@@ -71,7 +71,7 @@ describe('orders, in Chromium', () => {
     // Filters live in the URL: a reload shows the same rows.
     await page.reload()
     await orderRow('W-2407').waitFor()
-    expect(await page.getByLabel('Status').inputValue()).toBe('open')
+    expect(await page.getByLabel('Status').inputValue()).toBe('received')
 
     // Her spare-parts order: released without touching the pump stock other tests count.
     await orderRow('W-2407').getByRole('link', { name: 'W-2407' }).click()
@@ -89,7 +89,8 @@ describe('orders, in Chromium', () => {
     expect(serials).toHaveLength(3)
     expect(new Set(serials).size).toBe(3)
     for (const s of serials) expect(s).toMatch(/^U-\d+$/)
-    expect(await page.getByText('Released', { exact: true }).first().isVisible()).toBe(true)
+    // Spare packs skip the benches: the order is ready to pack as soon as it is released.
+    expect(await page.getByText('Ready to pack', { exact: true }).first().isVisible()).toBe(true)
     await page.getByRole('list', { name: 'Timeline' }).getByText(/Released into 3 work orders/).waitFor()
     expect(await page.getByRole('button', { name: 'Release into work orders' }).count()).toBe(0)
     await shot('order-detail-released')

@@ -8,6 +8,7 @@ export const paths = {
   scan: { pattern: '/scan', href: () => '/scan' },
   users: { pattern: '/admin/users', href: () => '/admin/users' },
   audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
+  settings: { pattern: '/admin/settings', href: () => '/admin/settings' },
   cutRuns: { pattern: '/planning/cut-runs', href: () => '/planning/cut-runs' },
   cutRun: { pattern: '/planning/cut-runs/:runId', href: (runId: string) => `/planning/cut-runs/${runId}` },
   bins: { pattern: '/admin/bins', href: () => '/admin/bins' },

@@ -23,6 +23,7 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Scan', href: paths.scan.href(), roles: ['admin', 'planner', 'cutter', 'assembler', 'packer'] },
   { label: 'Users', href: paths.users.href(), roles: ['admin'] },
   { label: 'Audit', href: paths.audit.href(), roles: ['admin'] },
+  { label: 'Settings', href: paths.settings.href(), roles: ['admin'] },
 ]
 
 export function AppShell() {

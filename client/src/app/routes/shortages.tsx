@@ -43,6 +43,10 @@ export function Component() {
         Pipe is reserved when a cut run is published, so before that its need is an estimate: every piece plus one saw kerf, over the longest stick
         the pipe comes in, rounded up; offcuts on the rack are not counted.
       </p>
+      <p className="text-sm text-stone-600" aria-label="On order">
+        On order: Kitwright keeps no purchase orders yet, so nothing is counted as on its way. The suggested quantities assume nothing has been
+        ordered; check with your supplier before ordering again.
+      </p>
     </div>
   )
 }

@@ -1,7 +1,9 @@
 import { WORK_ORDER_STATUS_LABELS, type OrderDetail } from '@kitwright/shared/orders'
 import { Section } from '../../../components/ui/section'
 import { formatDateTime, formatDay, formatMoney } from './format'
-import { OrderStatusBadge, PaymentText } from './order-status-badge'
+import { OrderActionsPanel } from './order-actions-panel'
+import { OrderStageBadge } from './order-stage-badge'
+import { PaymentText } from './order-status-badge'
 import { OrderTimeline } from './order-timeline'
 import { ReleasePanel } from './release-panel'
 
@@ -93,7 +95,7 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="text-3xl font-bold">Order {order.number}</h1>
-        <OrderStatusBadge status={order.status} late={order.late} />
+        <OrderStageBadge stage={order.stage} late={order.late} priority={order.priority} />
       </div>
       <dl className="grid grid-cols-2 gap-x-6 gap-y-1 sm:grid-cols-4">
         <div>
@@ -116,7 +118,8 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
         </div>
       </dl>
       {order.note && <p className="rounded-md bg-stone-100 p-3">Note: {order.note}</p>}
-      <ReleasePanel order={order} />
+      <OrderActionsPanel order={order} />
+      {!order.onHold && <ReleasePanel order={order} />}
       <Section title="Lines" id="order-lines">
         <Lines order={order} />
       </Section>

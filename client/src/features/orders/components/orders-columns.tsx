@@ -1,9 +1,10 @@
 import type { ColumnDef } from '@tanstack/react-table'
 import { Link } from 'react-router-dom'
-import { ORDER_SORT_FIELDS, type Order } from '@kitwright/shared/orders'
+import { ORDER_PRIORITY_LABELS, ORDER_SORT_FIELDS, type Order } from '@kitwright/shared/orders'
 import { paths } from '../../../config/paths'
 import { formatDateTime, formatDay, formatMoney } from './format'
-import { OrderStatusBadge, PaymentText } from './order-status-badge'
+import { OrderStageBadge } from './order-stage-badge'
+import { PaymentText } from './order-status-badge'
 
 const sortable = new Set<string>(ORDER_SORT_FIELDS)
 
@@ -20,7 +21,7 @@ export function getOrdersColumns({ selected, toggle }: OrderSelection): ColumnDe
       id: 'select',
       header: () => <span className="sr-only">Choose to release</span>,
       cell: ({ row }) =>
-        row.original.status === 'open' ? (
+        row.original.status === 'open' && !row.original.onHold ? (
           <input
             type="checkbox"
             className="size-5 accent-brand-700"
@@ -70,13 +71,19 @@ export function getOrdersColumns({ selected, toggle }: OrderSelection): ColumnDe
       header: 'Status',
       cell: ({ row }) => (
         <span className="block space-y-0.5 leading-tight">
-          <OrderStatusBadge status={row.original.status} late={row.original.late} />
+          <OrderStageBadge stage={row.original.stage} late={row.original.late} priority={row.original.priority} />
+          {row.original.onHold && row.original.holdReason && <span className="block text-sm text-orange-900">{row.original.holdReason}</span>}
           <span className="block text-sm">
             <PaymentText status={row.original.paymentStatus} />
             {row.original.workOrderCount > 0 ? ` · ${row.original.workOrderCount} WO` : ''}
           </span>
         </span>
       ),
+    },
+    {
+      id: 'priority',
+      header: 'Priority',
+      cell: ({ row }) => <span className={row.original.priority === 'rush' ? 'font-bold text-red-800' : undefined}>{ORDER_PRIORITY_LABELS[row.original.priority]}</span>,
     },
     { id: 'promisedShipDate', header: 'Ship by', cell: ({ row }) => <span className="whitespace-nowrap">{formatDay(row.original.promisedShipDate)}</span> },
   ]

@@ -1,7 +1,8 @@
 import { useQuery } from '@tanstack/react-query'
 import { useCallback } from 'react'
-import { ORDER_STATUS_LABELS, type OrderListQuery } from '@kitwright/shared/orders'
-import { ORDER_STATUSES } from '@kitwright/shared/orders-status'
+import { ORDER_STAGE_LABELS, ORDER_STAGES } from '@kitwright/shared/order-stage'
+import { ORDER_PRIORITY_LABELS, type OrderListQuery } from '@kitwright/shared/orders'
+import { ORDER_PRIORITIES } from '@kitwright/shared/orders-status'
 import { Input, Select } from '../../../components/ui/field'
 import { SearchField } from '../../../components/ui/search-field'
 import { orderKitsOptions } from '../api/order-queries'
@@ -22,14 +23,29 @@ export function OrdersFilters({ query, onQueryChange }: Props) {
       <SearchField value={query.q} onSearch={onSearch} placeholder="Order number, customer or e-mail" />
       <label className="block space-y-1">
         <span className={labelText}>Status</span>
-        <Select value={query.status ?? ''} onChange={(e) => onQueryChange({ status: (e.target.value || undefined) as OrderListQuery['status'], page: 1 })} className="w-40">
+        <Select value={query.stage ?? ''} onChange={(e) => onQueryChange({ stage: (e.target.value || undefined) as OrderListQuery['stage'], status: undefined, page: 1 })} className="w-44">
           <option value="">Any status</option>
-          {ORDER_STATUSES.map((s) => (
+          {ORDER_STAGES.map((s) => (
             <option key={s} value={s}>
-              {ORDER_STATUS_LABELS[s]}
+              {ORDER_STAGE_LABELS[s]}
             </option>
           ))}
         </Select>
+      </label>
+      <label className="block space-y-1">
+        <span className={labelText}>Priority</span>
+        <Select value={query.priority ?? ''} onChange={(e) => onQueryChange({ priority: (e.target.value || undefined) as OrderListQuery['priority'], page: 1 })} className="w-32">
+          <option value="">Any</option>
+          {ORDER_PRIORITIES.map((p) => (
+            <option key={p} value={p}>
+              {ORDER_PRIORITY_LABELS[p]}
+            </option>
+          ))}
+        </Select>
+      </label>
+      <label className="flex h-11 items-center gap-2 self-end">
+        <input type="checkbox" className="size-5 accent-brand-700" checked={query.late === 'true'} onChange={(e) => onQueryChange({ late: e.target.checked ? 'true' : undefined, page: 1 })} />
+        <span className="font-bold text-stone-700">Late only</span>
       </label>
       <label className="block space-y-1">
         <span className={labelText}>Kit</span>

@@ -1,0 +1,129 @@
+import { zodResolver } from '@hookform/resolvers/zod'
+import { useForm } from 'react-hook-form'
+import { toast } from 'sonner'
+import { z } from 'zod'
+import { formatLengthForInput, parseLength, type LengthUnit } from '@kitwright/shared/domain/units'
+import { UpdateShopSettingsSchema, type ShopSettings } from '@kitwright/shared/settings'
+import { Button } from '../../../components/ui/button'
+import { Field, Input, Select } from '../../../components/ui/field'
+import { applyServerErrors } from '../../../lib/form-errors'
+import { useUpdateSettings } from '../api/use-update-settings'
+
+const UNIT_WORDS: Record<LengthUnit, string> = { in: 'inches', mm: 'millimetres' }
+const LENGTH_FIELDS = ['kerf', 'endTrim', 'minOffcut'] as const
+
+/**
+ * What the admin types: lengths as text in the shop's unit (read by the same parser as every length
+ * field), the lead time as a number. On submit the lengths become base units and the whole change is
+ * checked by the shared settings contract.
+ */
+const SettingsFormSchema = z
+  .object({
+    displayUnit: z.enum(['in', 'mm']),
+    kerf: z.string(),
+    endTrim: z.string(),
+    minOffcut: z.string(),
+    leadTimeDays: UpdateShopSettingsSchema.shape.leadTimeDays.unwrap(),
+    autoReleasePaid: z.boolean(),
+  })
+  .superRefine((v, ctx) => {
+    for (const key of LENGTH_FIELDS) {
+      const parsed = parseLength(v[key], v.displayUnit)
+      if (!parsed.ok) ctx.addIssue({ code: 'custom', path: [key], message: parsed.message })
+    }
+  })
+type SettingsFormValues = z.infer<typeof SettingsFormSchema>
+
+function lengthOf(text: string, unit: LengthUnit): number {
+  const parsed = parseLength(text, unit)
+  if (!parsed.ok) throw new Error(parsed.message)
+  return parsed.value
+}
+
+/** The admin's form for the shop's cutting allowances, unit, lead time and auto-release. */
+export function SettingsForm({ settings }: { settings: ShopSettings }) {
+  const update = useUpdateSettings()
+  const unit = settings.displayUnit
+  const form = useForm<SettingsFormValues>({
+    resolver: zodResolver(SettingsFormSchema),
+    defaultValues: {
+      displayUnit: unit,
+      kerf: formatLengthForInput(settings.kerf, unit),
+      endTrim: formatLengthForInput(settings.endTrim, unit),
+      minOffcut: formatLengthForInput(settings.minOffcut, unit),
+      leadTimeDays: settings.leadTimeDays,
+      autoReleasePaid: settings.autoReleasePaid,
+    },
+  })
+  const errors = form.formState.errors
+  const typedUnit = form.watch('displayUnit')
+  const submit = form.handleSubmit((v) =>
+    update.mutate(
+      {
+        displayUnit: v.displayUnit,
+        kerf: lengthOf(v.kerf, v.displayUnit),
+        endTrim: lengthOf(v.endTrim, v.displayUnit),
+        minOffcut: lengthOf(v.minOffcut, v.displayUnit),
+        leadTimeDays: v.leadTimeDays,
+        autoReleasePaid: v.autoReleasePaid,
+      },
+      {
+        onSuccess: (saved) => {
+          toast.success('Settings saved')
+          form.reset({
+            displayUnit: saved.displayUnit,
+            kerf: formatLengthForInput(saved.kerf, saved.displayUnit),
+            endTrim: formatLengthForInput(saved.endTrim, saved.displayUnit),
+            minOffcut: formatLengthForInput(saved.minOffcut, saved.displayUnit),
+            leadTimeDays: saved.leadTimeDays,
+            autoReleasePaid: saved.autoReleasePaid,
+          })
+        },
+        onError: (err) => applyServerErrors(err, form.setError),
+      },
+    ),
+  )
+  const hint = `In ${UNIT_WORDS[typedUnit]} unless you type a unit, e.g. ${typedUnit === 'in' ? '1/8, 4-1/4", 3 mm' : '3, 108 mm, 1/8 in'}`
+  return (
+    <form onSubmit={submit} aria-label="Shop settings" className="max-w-2xl space-y-6" noValidate>
+      <fieldset className="space-y-4">
+        <legend className="text-xl font-bold">Cutting</legend>
+        <Field label="Units shown on screens and sheets" error={errors.displayUnit?.message}>
+          <Select {...form.register('displayUnit')} className="w-56">
+            <option value="in">Inches and sixteenths</option>
+            <option value="mm">Millimetres</option>
+          </Select>
+        </Field>
+        <div className="grid gap-4 sm:grid-cols-3">
+          <Field label="Kerf (saw blade width)" error={errors.kerf?.message} hint={hint}>
+            <Input {...form.register('kerf')} aria-invalid={!!errors.kerf} />
+          </Field>
+          <Field label="End trim per stick" error={errors.endTrim?.message}>
+            <Input {...form.register('endTrim')} aria-invalid={!!errors.endTrim} />
+          </Field>
+          <Field label="Minimum offcut kept" error={errors.minOffcut?.message}>
+            <Input {...form.register('minOffcut')} aria-invalid={!!errors.minOffcut} />
+          </Field>
+        </div>
+      </fieldset>
+      <fieldset className="space-y-4">
+        <legend className="text-xl font-bold">Orders</legend>
+        <Field label="Lead time (working days)" error={errors.leadTimeDays?.message} hint="Monday to Friday after the order is placed; an order that arrives without a ship date is promised this.">
+          <Input type="number" min={0} max={250} step={1} {...form.register('leadTimeDays', { valueAsNumber: true })} aria-invalid={!!errors.leadTimeDays} className="w-32" />
+        </Field>
+        <label className="flex items-start gap-3">
+          <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('autoReleasePaid')} />
+          <span>
+            <span className="block font-bold">Release paid orders automatically</span>
+            <span className="block text-sm text-stone-600">
+              A paid web-store order is released into work orders as it arrives. Short stock does not stop it: the units wait for parts and the shortage is listed. Off: a planner releases each order.
+            </span>
+          </span>
+        </label>
+      </fieldset>
+      <Button type="submit" disabled={update.isPending || !form.formState.isDirty}>
+        Save settings
+      </Button>
+    </form>
+  )
+}
