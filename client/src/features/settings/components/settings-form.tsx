@@ -13,26 +13,27 @@ const UNIT_WORDS: Record<LengthUnit, string> = { in: 'inches', mm: 'millimetres'
 const LENGTH_FIELDS = ['kerf', 'endTrim', 'minOffcut'] as const
 
 /**
- * What the admin types: lengths as text in the shop's unit (read by the same parser as every length
- * field), the lead time as a number. On submit the lengths become base units and the whole change is
- * checked by the shared settings contract.
+ * What the admin types: lengths as text in the shop's current unit (read by the same parser as every
+ * length field; a typed unit wins), the lead time as a number. On submit the lengths become base
+ * units and the whole change is checked by the shared settings contract.
  */
-const SettingsFormSchema = z
-  .object({
-    displayUnit: z.enum(['in', 'mm']),
-    kerf: z.string(),
-    endTrim: z.string(),
-    minOffcut: z.string(),
-    leadTimeDays: UpdateShopSettingsSchema.shape.leadTimeDays.unwrap(),
-    autoReleasePaid: z.boolean(),
-  })
-  .superRefine((v, ctx) => {
-    for (const key of LENGTH_FIELDS) {
-      const parsed = parseLength(v[key], v.displayUnit)
-      if (!parsed.ok) ctx.addIssue({ code: 'custom', path: [key], message: parsed.message })
-    }
-  })
-type SettingsFormValues = z.infer<typeof SettingsFormSchema>
+const settingsFormSchema = (unit: LengthUnit) =>
+  z
+    .object({
+      displayUnit: z.enum(['in', 'mm']),
+      kerf: z.string(),
+      endTrim: z.string(),
+      minOffcut: z.string(),
+      leadTimeDays: UpdateShopSettingsSchema.shape.leadTimeDays.unwrap(),
+      autoReleasePaid: z.boolean(),
+    })
+    .superRefine((v, ctx) => {
+      for (const key of LENGTH_FIELDS) {
+        const parsed = parseLength(v[key], unit)
+        if (!parsed.ok) ctx.addIssue({ code: 'custom', path: [key], message: parsed.message })
+      }
+    })
+type SettingsFormValues = z.infer<ReturnType<typeof settingsFormSchema>>
 
 function lengthOf(text: string, unit: LengthUnit): number {
   const parsed = parseLength(text, unit)
@@ -45,7 +46,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
   const update = useUpdateSettings()
   const unit = settings.displayUnit
   const form = useForm<SettingsFormValues>({
-    resolver: zodResolver(SettingsFormSchema),
+    resolver: zodResolver(settingsFormSchema(unit)),
     defaultValues: {
       displayUnit: unit,
       kerf: formatLengthForInput(settings.kerf, unit),
@@ -56,14 +57,13 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
     },
   })
   const errors = form.formState.errors
-  const typedUnit = form.watch('displayUnit')
   const submit = form.handleSubmit((v) =>
     update.mutate(
       {
         displayUnit: v.displayUnit,
-        kerf: lengthOf(v.kerf, v.displayUnit),
-        endTrim: lengthOf(v.endTrim, v.displayUnit),
-        minOffcut: lengthOf(v.minOffcut, v.displayUnit),
+        kerf: lengthOf(v.kerf, unit),
+        endTrim: lengthOf(v.endTrim, unit),
+        minOffcut: lengthOf(v.minOffcut, unit),
         leadTimeDays: v.leadTimeDays,
         autoReleasePaid: v.autoReleasePaid,
       },
@@ -83,7 +83,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
       },
     ),
   )
-  const hint = `In ${UNIT_WORDS[typedUnit]} unless you type a unit, e.g. ${typedUnit === 'in' ? '1/8, 4-1/4", 3 mm' : '3, 108 mm, 1/8 in'}`
+  const hint = `Lengths are read in ${UNIT_WORDS[unit]}, the unit shown now, unless you type one: e.g. ${unit === 'in' ? '1/8, 4-1/4", 3 mm' : '3, 108 mm, 1/8 in'}.`
   return (
     <form onSubmit={submit} aria-label="Shop settings" className="max-w-2xl space-y-6" noValidate>
       <fieldset className="space-y-4">
@@ -95,7 +95,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
           </Select>
         </Field>
         <div className="grid gap-4 sm:grid-cols-3">
-          <Field label="Kerf (saw blade width)" error={errors.kerf?.message} hint={hint}>
+          <Field label="Kerf (saw blade width)" error={errors.kerf?.message}>
             <Input {...form.register('kerf')} aria-invalid={!!errors.kerf} />
           </Field>
           <Field label="End trim per stick" error={errors.endTrim?.message}>
@@ -105,6 +105,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
             <Input {...form.register('minOffcut')} aria-invalid={!!errors.minOffcut} />
           </Field>
         </div>
+        <p className="text-sm text-stone-500">{hint}</p>
       </fieldset>
       <fieldset className="space-y-4">
         <legend className="text-xl font-bold">Orders</legend>
