@@ -1,7 +1,6 @@
 import { rmSync } from 'node:fs'
 import { createServer } from 'node:net'
 import path from 'node:path'
-import { startPostgres, type PostgresCluster } from '../../scripts/lib/postgres.mjs'
 import { createDb } from '../../server/src/db/client'
 import { ensureDatabase } from '../../server/src/db/ensure-database'
 import { migrateDb } from '../../server/src/db/migrate'
@@ -11,6 +10,14 @@ import { startSmtpCatcher } from '../../storage-fake/smtp'
 
 // Throwaway services for the fault tests: their own PostgreSQL cluster, S3 stand-in and SMTP catcher,
 // on free ports under this run's folder, so stopping them never disturbs any other test.
+
+/** The private cluster of scripts/lib/postgres.mjs (plain JavaScript: it runs before `npm ci`). */
+interface PostgresCluster {
+  url(db: string): string
+  stop(): void
+}
+// @ts-expect-error plain JavaScript module of the start-up scripts, without type declarations
+const { startPostgres } = (await import('../../scripts/lib/postgres.mjs')) as { startPostgres: (port: number, options: { dir: string }) => PostgresCluster }
 
 const root = path.resolve(import.meta.dirname, '../..')
 /** This run's folder (`npm test` sets TEST_RUN_DIR; it removes it at the end). */
