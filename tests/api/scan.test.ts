@@ -1,23 +1,24 @@
-import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { ScanResultSchema } from '@kitwright/shared/scan'
-import { orders, workOrders } from '../../server/src/db/schema/index'
+import { orders } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/db/seed'
 import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { buildApp, signedInAs } from '../support/app'
-import { insertBin } from '../support/build-factories'
+import { insertBin, insertBuildRevision, insertBuildWorkOrder } from '../support/build-factories'
 import { insertOffcut } from '../support/cut-run-factories'
 import { createTestDb, type TestDb } from '../support/test-db'
 
 let t: TestDb
 let cutter: Awaited<ReturnType<typeof signedInAs>>['agent']
+let tote: Awaited<ReturnType<typeof insertBuildRevision>>
 
 beforeAll(async () => {
   t = await createTestDb()
   const { app } = buildApp(t)
   await seedDemo(t.db)
+  tote = await insertBuildRevision(t.db)
   cutter = (await signedInAs(app, t, 'cutter')).agent
 })
 afterAll(() => t.drop())
@@ -30,12 +31,11 @@ async function scan(code: string) {
 
 describe('GET /api/scan/:code resolves every kind of Kitwright code', () => {
   it('a bin holding a unit: the unit and where it goes next', async () => {
-    const [wo] = await t.db.select().from(workOrders).where(eq(workOrders.status, 'waiting_cut')).limit(1)
-    await t.db.update(workOrders).set({ status: 'cut' }).where(eq(workOrders.id, wo!.id))
-    const bin = await insertBin(t.db, wo!.id)
+    const wo = await insertBuildWorkOrder(t.db, tote.revision.id, tote.kit.id, 'cut')
+    const bin = await insertBin(t.db, wo.id)
     const result = await scan(bin.code.toLowerCase()) // scanners and hands type either case
-    expect(result).toMatchObject({ kind: 'bin', code: bin.code, workOrderSerial: wo!.serial, status: 'cut', next: { place: 'build' } })
-    expect(result.title).toContain(wo!.serial)
+    expect(result).toMatchObject({ kind: 'bin', code: bin.code, workOrderSerial: wo.serial, status: 'cut', next: { place: 'build' } })
+    expect(result.title).toContain(wo.serial)
   })
 
   it('an empty bin: fill it at the cut bench', async () => {
@@ -44,8 +44,8 @@ describe('GET /api/scan/:code resolves every kind of Kitwright code', () => {
   })
 
   it("a unit's serial", async () => {
-    const [wo] = await t.db.select().from(workOrders).where(eq(workOrders.status, 'waiting_cut')).limit(1)
-    expect(await scan(wo!.serial)).toMatchObject({ kind: 'work_order', workOrderSerial: wo!.serial, next: { place: 'cut' } })
+    const wo = await insertBuildWorkOrder(t.db, tote.revision.id, tote.kit.id, 'waiting_cut')
+    expect(await scan(wo.serial.toLowerCase())).toMatchObject({ kind: 'work_order', workOrderSerial: wo.serial, next: { place: 'cut' } })
   })
 
   it('an order number', async () => {

@@ -113,6 +113,6 @@ describe('the pack bench in Chromium', () => {
     const full = MailMessageSchema.parse(await (await office.request.get(`${baseUrl}/api/mail/${mail.id}`)).json())
     expect(full.subject).toBe(`Mistwell Tote Works: your order ${made.order.number} has shipped`)
     expect(full.text).toContain(`Tracking number: ${tracking}`)
-    expect(full.text).toContain(`/units/${unit!.wo.serial}`)
+    expect(full.text).toMatch(/Build record \(steps, photos, leak test\): http:\/\/\S+\/record\/\S+/)
   })
 })
