@@ -32,10 +32,12 @@ export function AppShell() {
   const navigate = useNavigate()
   if (!me) return null
   const items = NAV.filter((n) => n.roles.includes(me.role))
+  // The office sees many pages; the benches see two, and keep their large touch targets.
+  const dense = items.length > 6
   return (
     <div className="min-h-screen">
       <header className="bg-brand-900 text-white">
-        <div className="mx-auto flex max-w-7xl flex-wrap items-center gap-x-6 gap-y-2 px-4 py-3">
+        <div className="mx-auto flex max-w-screen-2xl flex-wrap items-center gap-x-4 gap-y-2 px-4 py-3">
           <span className="text-2xl font-bold tracking-wide">Kitwright</span>
           <nav aria-label="Main" className="flex flex-wrap gap-1">
             {items.map((n) => (
@@ -43,7 +45,7 @@ export function AppShell() {
                 key={n.href}
                 to={n.href}
                 end={n.href === '/'}
-                className={({ isActive }) => cn('rounded-md px-3 py-2 text-lg font-bold', isActive ? 'bg-white text-brand-900' : 'hover:bg-brand-700')}
+                className={({ isActive }) => cn('rounded-md py-2 font-bold', dense ? 'px-2 text-base' : 'px-3 text-lg', isActive ? 'bg-white text-brand-900' : 'hover:bg-brand-700')}
               >
                 {n.label}
               </NavLink>
