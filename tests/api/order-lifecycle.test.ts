@@ -297,6 +297,21 @@ describe('a planner cancels an order', () => {
     const [audit] = await t.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, o.id), eq(auditEvents.action, 'order.cancel')))
     expect(audit!.summary).toBe(`Cancelled order ${o.number}: Customer found a local supplier`)
 
+    // The second unit's pieces still on the published sheet: named on the timeline, and racked as offcuts when cut.
+    const pending = await t.db.select().from(cutRunCuts).where(and(eq(cutRunCuts.workOrderId, ids[1]!), eq(cutRunCuts.status, 'pending')))
+    expect(pending.length).toBeGreaterThan(0)
+    expect(event.message).toContain(`${pending.length} piece${pending.length === 1 ? ' is' : 's are'} still on a published cut sheet`)
+    const longest = pending.reduce((m, c) => (c.length > m.length ? c : m))
+    expect(longest.length).toBeGreaterThanOrEqual(settings!.minOffcut)
+    expect((await cutter.post(`/api/cut-runs/${run.id}/cuts/${longest.id}/tick`)).status).toBe(200)
+    const [late] = await t.db
+      .select({ length: offcuts.length, note: offcuts.note })
+      .from(stockMoves)
+      .innerJoin(offcuts, eq(offcuts.id, stockMoves.offcutId))
+      .where(and(eq(stockMoves.workOrderId, ids[1]!), eq(stockMoves.kind, 'offcut_in'), sql`${offcuts.note} like 'Piece cut for cancelled unit%'`))
+    expect(late).toEqual({ length: longest.length, note: `Piece cut for cancelled unit ${released.workOrders[1]!.serial} (cut run ${run.number})` })
+    expect((await detail(o.id)).workOrders[1]!.status).toBe('cancelled')
+
     const twice = await planner.post(`/api/orders/${o.id}/cancel`).send({ reason: 'Again' })
     expect(twice.status).toBe(409)
     expect(errorOf(twice.body).message).toBe(`Order ${o.number} is already cancelled`)

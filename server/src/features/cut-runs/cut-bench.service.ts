@@ -6,6 +6,7 @@ import { bins, cutRunCuts, cutRuns, cutRunSticks, offcuts, workOrders, type CutR
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { assignBin } from '../bins/bins.service'
+import { stockCutPiece } from '../orders/order-lifecycle.service'
 import { getShopSettings } from '../settings/settings.service'
 import { reserveStock } from '../stock/stock.service'
 import { selectRun } from './cut-runs.queries'
@@ -76,6 +77,12 @@ export async function tickCut(db: Db, runId: string, cutId: string, actor: Actor
     if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} was marked damaged; its pieces are on other sticks now`)
     await startStick(tx, run, stick, actor)
     await tx.update(cutRunCuts).set({ status: 'cut', cutBy: actor.id, cutAt: new Date() }).where(and(eq(cutRunCuts.id, cut.id), eq(cutRunCuts.status, 'pending')))
+    // A piece of a unit cancelled after the run was published goes straight to the offcut rack.
+    const [owner] = await tx.select({ status: workOrders.status, serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, cut.workOrderId))
+    if (owner?.status === 'cancelled') {
+      const note = `Piece cut for cancelled unit ${owner.serial} (cut run ${run.number})`
+      await stockCutPiece(tx, { partId: stick.partId, length: cut.length, workOrderId: cut.workOrderId, minOffcut: run.minOffcut, note, reason: `Cut run ${run.number}: unit ${owner.serial} was cancelled`, actorId: actor.id })
+    }
     const [left] = await tx
       .select({ id: cutRunCuts.id })
       .from(cutRunCuts)

@@ -1,8 +1,7 @@
-import { and, asc, eq, inArray, notInArray } from 'drizzle-orm'
-import { formatLength } from '@kitwright/shared/domain/units'
+import { and, asc, count, eq, inArray, notInArray } from 'drizzle-orm'
 import { ORDER_PRIORITY_LABELS, type OrderDetail, type UpdateOrderPlan } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
-import { bins, cutRunCuts, cutRuns, cutRunSticks, offcuts, orders, shopSettings, workOrders, type OrderRow } from '../../db/schema/index'
+import { bins, cutRunCuts, cutRuns, cutRunSticks, offcuts, orders, workOrders, type OrderRow } from '../../db/schema/index'
 import { recordAudit, type AuditContext } from '../../lib/audit'
 import { Conflict, NotFound } from '../../lib/http-errors'
 import { freeBin } from '../bins/bins.service'
@@ -39,8 +38,9 @@ export interface CancelOutcome {
  * Cancels an order inside the caller's transaction, the one way for the store's cancel event and a
  * planner's cancel alike. Every work order not yet shipped is cancelled and gives back the stock it
  * had reserved; its bin goes back on the rack; pieces already cut for it return to stock as offcuts
- * (an `offcuts` row of the piece's length and an `offcut_in` move), when at or above the shop's
- * minimum offcut, as the cut bench does for remnants; shorter ones are scrap. A cancelled order
+ * (an `offcuts` row of the piece's length and an `offcut_in` move), when at or above the minimum
+ * offcut of its cut run, as the cut bench does for remnants; shorter ones are scrap. Pieces still to
+ * cut on a published sheet are racked by the cut bench when cut. A cancelled order
  * changes nothing. A shipped order stays as it is: the store's cancel only notes it on the timeline,
  * a planner is refused (409).
  */
@@ -79,11 +79,9 @@ export async function cancelOrder(tx: Tx, order: OrderRow, by: CancelBy): Promis
   for (const bin of held) await freeBin(tx, bin.id)
 
   // Pieces already cut for these units: the material is off the rack, so it comes back as offcuts.
-  const [settings] = await tx.select({ minOffcut: shopSettings.minOffcut, unit: shopSettings.displayUnit }).from(shopSettings).where(eq(shopSettings.id, 1))
-  const minOffcut = settings?.minOffcut ?? 0
   const pieces = ids.length
     ? await tx
-        .select({ id: cutRunCuts.id, length: cutRunCuts.length, workOrderId: cutRunCuts.workOrderId, partId: cutRunSticks.partId, run: cutRuns.number })
+        .select({ id: cutRunCuts.id, length: cutRunCuts.length, workOrderId: cutRunCuts.workOrderId, partId: cutRunSticks.partId, run: cutRuns.number, minOffcut: cutRuns.minOffcut })
         .from(cutRunCuts)
         .innerJoin(cutRunSticks, eq(cutRunSticks.id, cutRunCuts.stickId))
         .innerJoin(cutRuns, eq(cutRuns.id, cutRunCuts.cutRunId))
@@ -93,15 +91,19 @@ export async function cancelOrder(tx: Tx, order: OrderRow, by: CancelBy): Promis
   let stocked = 0
   let scrapped = 0
   for (const piece of pieces) {
-    if (piece.length < minOffcut) {
-      scrapped += 1
-      continue
-    }
     const note = `Piece cut for unit ${serialOf.get(piece.workOrderId)} of cancelled order ${order.number} (cut run ${piece.run})`
-    const [offcut] = await tx.insert(offcuts).values({ partId: piece.partId, length: piece.length, note }).returning({ id: offcuts.id })
-    await insertMoves(tx, [{ partId: piece.partId, kind: 'offcut_in', quantity: 1, offcutId: offcut!.id, workOrderId: piece.workOrderId, reason: why, createdBy: by.actor?.id ?? null }])
-    stocked += 1
+    if (await stockCutPiece(tx, { ...piece, note, reason: why, actorId: by.actor?.id ?? null })) stocked += 1
+    else scrapped += 1
   }
+  // Pieces still on a published cut sheet: the stick's plan is fixed, so the cut bench racks them when cut.
+  const [pending] = ids.length
+    ? await tx
+        .select({ n: count() })
+        .from(cutRunCuts)
+        .innerJoin(cutRuns, eq(cutRuns.id, cutRunCuts.cutRunId))
+        .where(and(inArray(cutRunCuts.workOrderId, ids), eq(cutRunCuts.status, 'pending'), inArray(cutRuns.status, ['published', 'done'])))
+    : []
+  const stillToCut = pending?.n ?? 0
 
   const now = new Date()
   if (ids.length > 0) await tx.update(workOrders).set({ status: 'cancelled', updatedAt: now }).where(inArray(workOrders.id, ids))
@@ -112,16 +114,33 @@ export async function cancelOrder(tx: Tx, order: OrderRow, by: CancelBy): Promis
     serials.length ? `${serials.length} work order${serials.length === 1 ? '' : 's'} cancelled (${serials.join(', ')}) and their reserved stock released.` : '',
     held.length ? `Bin${held.length === 1 ? '' : 's'} ${held.map((b) => b.code).join(', ')} freed.` : '',
     stocked ? `${stocked} piece${stocked === 1 ? '' : 's'} already cut returned to stock as offcuts.` : '',
-    scrapped ? `${scrapped} piece${scrapped === 1 ? '' : 's'} shorter than the minimum offcut (${formatLength(minOffcut, settings?.unit ?? 'in')}) scrapped.` : '',
+    scrapped ? `${scrapped} piece${scrapped === 1 ? '' : 's'} shorter than the minimum offcut scrapped.` : '',
+    stillToCut ? `${stillToCut} piece${stillToCut === 1 ? ' is' : 's are'} still on a published cut sheet; cut as planned, ${stillToCut === 1 ? 'it goes' : 'they go'} to the offcut rack.` : '',
   ].filter(Boolean)
   await addOrderEvent(tx, {
     orderId: order.id,
     kind: 'cancelled',
     message: `Cancelled by ${who}${because}.${parts.length ? ` ${parts.join(' ')}` : ''}`,
-    data: { by: by.by, eventId: by.eventId ?? null, reason: by.reason ?? null, workOrders: serials, bins: held.map((b) => b.code), offcuts: stocked, scrapped },
+    data: { by: by.by, eventId: by.eventId ?? null, reason: by.reason ?? null, workOrders: serials, bins: held.map((b) => b.code), offcuts: stocked, scrapped, stillToCut },
     actor: by.actor,
   })
   return { cancelled: true, workOrders: serials, offcuts: stocked, binsFreed: held.map((b) => b.code) }
+}
+
+/**
+ * Puts one piece cut for a cancelled work order on the offcut rack: an `offcuts` row of its length and
+ * an `offcut_in` move, when at or above the shop's minimum offcut; shorter, it is scrap (false).
+ * Used when an order is cancelled, and by the cut bench when a piece of a cancelled unit is cut later
+ * (the stick's plan is fixed once published).
+ */
+export async function stockCutPiece(
+  tx: Tx,
+  piece: { partId: string; length: number; workOrderId: string; minOffcut: number; note: string; reason: string; actorId: string | null },
+): Promise<boolean> {
+  if (piece.length < piece.minOffcut) return false
+  const [offcut] = await tx.insert(offcuts).values({ partId: piece.partId, length: piece.length, note: piece.note }).returning({ id: offcuts.id })
+  await insertMoves(tx, [{ partId: piece.partId, kind: 'offcut_in', quantity: 1, offcutId: offcut!.id, workOrderId: piece.workOrderId, reason: piece.reason, createdBy: piece.actorId }])
+  return true
 }
 
 /** A planner cancels an order (409 when it is cancelled or shipped already), with the audit entry, in one transaction. */
