@@ -98,5 +98,5 @@ export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_BUCKET?: st
  */
 export function photoStoreDirectives(storage: Pick<Storage, 'origin'>) {
   const store = storage.origin ? [storage.origin] : []
-  return { imgSrc: ["'self'", 'data:', 'blob:', ...store], connectSrc: ["'self'", ...store] }
+  return { imgSrc: ["'self'", ...store], connectSrc: ["'self'", ...store] }
 }
