@@ -20,6 +20,6 @@ export const bins = pgTable(
     assignedAt: timestamp({ withTimezone: true }),
     createdAt: createdAt(),
   },
-  (t) => [index().on(t.status), uniqueIndex('bins_one_per_work_order').on(t.workOrderId).where(sql`${t.workOrderId} is not null`)],
+  (t) => [index().on(t.status), index('bins_code_upper_index').on(sql`upper(${t.code})`), uniqueIndex('bins_one_per_work_order').on(t.workOrderId).where(sql`${t.workOrderId} is not null`)],
 )
 export type BinRow = typeof bins.$inferSelect

@@ -70,7 +70,7 @@ export const orders = pgTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index().on(t.status, t.placedAt), index().on(t.placedAt), index().on(t.promisedShipDate)],
+  (t) => [index().on(t.status, t.placedAt), index().on(t.placedAt), index().on(t.promisedShipDate), index('orders_number_upper_index').on(sql`upper(${t.number})`)],
 )
 export type OrderRow = typeof orders.$inferSelect
 export type NewOrderRow = typeof orders.$inferInsert
@@ -133,7 +133,7 @@ export const workOrders = pgTable(
     createdAt: createdAt(),
     updatedAt: updatedAt(),
   },
-  (t) => [index().on(t.status), index().on(t.orderId), index().on(t.kitRevisionId)],
+  (t) => [index().on(t.status), index().on(t.orderId), index().on(t.kitRevisionId), index('work_orders_serial_upper_index').on(sql`upper(${t.serial})`)],
 )
 export type WorkOrderRow = typeof workOrders.$inferSelect
 

@@ -36,6 +36,8 @@ export const parts = pgTable(
   },
   (t) => [
     index().on(t.kind),
+    // The scan lookup matches SKUs whatever their case.
+    index('parts_sku_upper_index').on(sql`upper(${t.sku})`),
     check('parts_cost_not_negative', sql`${t.unitCostCents} >= 0`),
     check('parts_weight_not_negative', sql`${t.weightGrams} >= 0`),
   ],

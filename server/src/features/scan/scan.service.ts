@@ -47,26 +47,41 @@ async function unitBySerial(db: Db, serial: string) {
  */
 export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
   const base = { code, workOrderSerial: null, orderId: null, partId: null }
+  const offcutMatch = /^OC-([0-9a-f]{8})$/i.exec(code)
+  // Every kind of code is looked up at once: one round trip to the database whatever was scanned.
+  const [[bin], unit, [order], [oc], [part], settings] = await Promise.all([
+    db.select().from(bins).where(sql`upper(${bins.code}) = upper(${code})`),
+    unitBySerial(db, code),
+    db.select().from(orders).where(sql`upper(${orders.number}) = upper(${code})`),
+    offcutMatch
+      ? db
+          .select({ oc: offcuts, sku: parts.sku, partId: parts.id })
+          .from(offcuts)
+          .innerJoin(parts, eq(parts.id, offcuts.partId))
+          // Offcut labels read OC- and the first 8 hex digits of the offcut's id.
+          .where(sql`${offcuts.id}::text like ${`${offcutMatch[1]!.toLowerCase()}%`}`)
+      : Promise.resolve([]),
+    db.select().from(parts).where(sql`upper(${parts.sku}) = upper(${code})`),
+    offcutMatch ? getShopSettings(db) : Promise.resolve(null),
+  ])
 
-  const [bin] = await db.select().from(bins).where(sql`upper(${bins.code}) = upper(${code})`)
   if (bin) {
     if (!bin.workOrderId) return { ...base, kind: 'bin', code: bin.code, title: `Bin ${bin.code} is empty`, status: bin.status, next: { place: 'cut', message: 'Free: fill it at the cut bench' } }
     const [wo] = await db.select({ serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, bin.workOrderId))
-    const unit = wo ? await unitBySerial(db, wo.serial) : undefined
-    if (!unit) throw new NotFound(`Bin ${bin.code} points at a unit Kitwright cannot find; tell the planner`)
+    const held = wo ? await unitBySerial(db, wo.serial) : undefined
+    if (!held) throw new NotFound(`Bin ${bin.code} points at a unit Kitwright cannot find; tell the planner`)
     return {
       ...base,
       kind: 'bin',
       code: bin.code,
-      title: `Bin ${bin.code} holds unit ${unit.wo.serial} (${unit.kitName}, rev ${unit.revCode})`,
-      status: unit.wo.status,
-      next: nextForUnit(unit.wo.status),
-      workOrderSerial: unit.wo.serial,
-      orderId: unit.wo.orderId,
+      title: `Bin ${bin.code} holds unit ${held.wo.serial} (${held.kitName}, rev ${held.revCode})`,
+      status: held.wo.status,
+      next: nextForUnit(held.wo.status),
+      workOrderSerial: held.wo.serial,
+      orderId: held.wo.orderId,
     }
   }
 
-  const unit = await unitBySerial(db, code)
   if (unit) {
     return {
       ...base,
@@ -80,7 +95,6 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
     }
   }
 
-  const [order] = await db.select().from(orders).where(sql`upper(${orders.number}) = upper(${code})`)
   if (order) {
     const next: ScanResult['next'] =
       order.status === 'open'
@@ -93,27 +107,16 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
     return { ...base, kind: 'order', code: order.number, title: `Order ${order.number} for ${order.customerName}`, status: order.status, next, orderId: order.id }
   }
 
-  // Offcut labels read OC- and the first 8 hex digits of the offcut's id.
-  const offcutMatch = /^OC-([0-9a-f]{8})$/i.exec(code)
-  if (offcutMatch) {
-    const [oc] = await db
-      .select({ oc: offcuts, sku: parts.sku, partId: parts.id })
-      .from(offcuts)
-      .innerJoin(parts, eq(parts.id, offcuts.partId))
-      .where(sql`${offcuts.id}::text like ${`${offcutMatch[1]!.toLowerCase()}%`}`)
-    if (oc) {
-      const { displayUnit } = await getShopSettings(db)
-      const next: ScanResult['next'] =
-        oc.oc.status === 'in_stock'
-          ? { place: 'stock', message: 'Put it on the offcut rack; the next cut run uses it first' }
-          : oc.oc.status === 'reserved'
-            ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
-            : { place: 'done', message: oc.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
-      return { ...base, kind: 'offcut', code: code.toUpperCase(), title: `Offcut of ${oc.sku}, ${formatLength(oc.oc.length, displayUnit)}`, status: oc.oc.status, next, partId: oc.partId }
-    }
+  if (oc && settings) {
+    const next: ScanResult['next'] =
+      oc.oc.status === 'in_stock'
+        ? { place: 'stock', message: 'Put it on the offcut rack; the next cut run uses it first' }
+        : oc.oc.status === 'reserved'
+          ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
+          : { place: 'done', message: oc.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
+    return { ...base, kind: 'offcut', code: code.toUpperCase(), title: `Offcut of ${oc.sku}, ${formatLength(oc.oc.length, settings.displayUnit)}`, status: oc.oc.status, next, partId: oc.partId }
   }
 
-  const [part] = await db.select().from(parts).where(sql`upper(${parts.sku}) = upper(${code})`)
   if (part) {
     return {
       ...base,
