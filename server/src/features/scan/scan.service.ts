@@ -29,15 +29,35 @@ function nextForUnit(status: WorkOrderStatus): ScanResult['next'] {
   }
 }
 
-async function unitBySerial(db: Db, serial: string) {
+async function unitById(db: Db, id: string) {
   const [row] = await db
     .select({ wo: workOrders, kitName: kits.name, revCode: kitRevisions.code, binCode: bins.code })
     .from(workOrders)
     .innerJoin(kitRevisions, eq(kitRevisions.id, workOrders.kitRevisionId))
     .innerJoin(kits, eq(kits.id, kitRevisions.kitId))
     .leftJoin(bins, eq(bins.workOrderId, workOrders.id))
-    .where(sql`upper(${workOrders.serial}) = upper(${serial})`)
+    .where(eq(workOrders.id, id))
   return row
+}
+
+type CodeKind = ScanResult['kind']
+
+/**
+ * Which thing a code names, in one query over every kind; a bin wins over anything else with the
+ * same text, because bins are what the benches scan most. Offcut labels read OC- and the first 8 hex
+ * digits of the offcut's id.
+ */
+async function kindOfCode(db: Db, code: string): Promise<{ kind: CodeKind; id: string } | undefined> {
+  const offcutPrefix = /^OC-([0-9a-f]{8})$/i.exec(code)?.[1]?.toLowerCase() ?? null
+  const { rows } = await db.execute<{ kind: CodeKind; id: string }>(sql`
+    select kind, id from (
+      select 'bin' as kind, id::text as id, 1 as rank from bins where upper(code) = upper(${code})
+      union all select 'work_order', id::text, 2 from work_orders where upper(serial) = upper(${code})
+      union all select 'order', id::text, 3 from orders where upper(number) = upper(${code})
+      union all select 'offcut', id::text, 4 from offcuts where ${offcutPrefix}::text is not null and id::text like ${offcutPrefix}::text || '%'
+      union all select 'part', id::text, 5 from parts where upper(sku) = upper(${code})
+    ) found order by rank limit 1`)
+  return rows[0]
 }
 
 /**
@@ -47,87 +67,75 @@ async function unitBySerial(db: Db, serial: string) {
  */
 export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
   const base = { code, workOrderSerial: null, orderId: null, partId: null }
-  const offcutMatch = /^OC-([0-9a-f]{8})$/i.exec(code)
-  // Every kind of code is looked up at once: one round trip to the database whatever was scanned.
-  const [[bin], unit, [order], [oc], [part], settings] = await Promise.all([
-    db.select().from(bins).where(sql`upper(${bins.code}) = upper(${code})`),
-    unitBySerial(db, code),
-    db.select().from(orders).where(sql`upper(${orders.number}) = upper(${code})`),
-    offcutMatch
-      ? db
-          .select({ oc: offcuts, sku: parts.sku, partId: parts.id })
-          .from(offcuts)
-          .innerJoin(parts, eq(parts.id, offcuts.partId))
-          // Offcut labels read OC- and the first 8 hex digits of the offcut's id.
-          .where(sql`${offcuts.id}::text like ${`${offcutMatch[1]!.toLowerCase()}%`}`)
-      : Promise.resolve([]),
-    db.select().from(parts).where(sql`upper(${parts.sku}) = upper(${code})`),
-    offcutMatch ? getShopSettings(db) : Promise.resolve(null),
-  ])
+  const found = await kindOfCode(db, code)
+  if (!found) throw new NotFound(`No bin, unit, order, offcut or part has the code "${code}". Check the label and scan again.`)
 
-  if (bin) {
-    if (!bin.workOrderId) return { ...base, kind: 'bin', code: bin.code, title: `Bin ${bin.code} is empty`, status: bin.status, next: { place: 'cut', message: 'Free: fill it at the cut bench' } }
-    const [wo] = await db.select({ serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, bin.workOrderId))
-    const held = wo ? await unitBySerial(db, wo.serial) : undefined
-    if (!held) throw new NotFound(`Bin ${bin.code} points at a unit Kitwright cannot find; tell the planner`)
-    return {
-      ...base,
-      kind: 'bin',
-      code: bin.code,
-      title: `Bin ${bin.code} holds unit ${held.wo.serial} (${held.kitName}, rev ${held.revCode})`,
-      status: held.wo.status,
-      next: nextForUnit(held.wo.status),
-      workOrderSerial: held.wo.serial,
-      orderId: held.wo.orderId,
+  switch (found.kind) {
+    case 'bin': {
+      const [bin] = await db.select().from(bins).where(eq(bins.id, found.id))
+      if (!bin!.workOrderId) return { ...base, kind: 'bin', code: bin!.code, title: `Bin ${bin!.code} is empty`, status: bin!.status, next: { place: 'cut', message: 'Free: fill it at the cut bench' } }
+      const held = await unitById(db, bin!.workOrderId)
+      if (!held) throw new NotFound(`Bin ${bin!.code} points at a unit Kitwright cannot find; tell the planner`)
+      return {
+        ...base,
+        kind: 'bin',
+        code: bin!.code,
+        title: `Bin ${bin!.code} holds unit ${held.wo.serial} (${held.kitName}, rev ${held.revCode})`,
+        status: held.wo.status,
+        next: nextForUnit(held.wo.status),
+        workOrderSerial: held.wo.serial,
+        orderId: held.wo.orderId,
+      }
+    }
+    case 'work_order': {
+      const unit = (await unitById(db, found.id))!
+      return {
+        ...base,
+        kind: 'work_order',
+        code: unit.wo.serial,
+        title: `Unit ${unit.wo.serial}: ${unit.kitName}, rev ${unit.revCode}${unit.binCode ? `, in bin ${unit.binCode}` : ''}`,
+        status: unit.wo.status,
+        next: nextForUnit(unit.wo.status),
+        workOrderSerial: unit.wo.serial,
+        orderId: unit.wo.orderId,
+      }
+    }
+    case 'order': {
+      const [order] = await db.select().from(orders).where(eq(orders.id, found.id))
+      const next: ScanResult['next'] =
+        order!.status === 'open'
+          ? { place: 'office', message: 'Not released yet: the planner releases it into work orders' }
+          : order!.status === 'shipped'
+            ? { place: 'done', message: 'Shipped' }
+            : order!.status === 'cancelled'
+              ? { place: 'office', message: 'Cancelled' }
+              : { place: 'pack', message: 'In production; the pack bench ships it when every unit is built' }
+      return { ...base, kind: 'order', code: order!.number, title: `Order ${order!.number} for ${order!.customerName}`, status: order!.status, next, orderId: order!.id }
+    }
+    case 'offcut': {
+      const [[oc], settings] = await Promise.all([
+        db.select({ oc: offcuts, sku: parts.sku, partId: parts.id }).from(offcuts).innerJoin(parts, eq(parts.id, offcuts.partId)).where(eq(offcuts.id, found.id)),
+        getShopSettings(db),
+      ])
+      const next: ScanResult['next'] =
+        oc!.oc.status === 'in_stock'
+          ? { place: 'stock', message: 'Put it on the offcut rack; the next cut run uses it first' }
+          : oc!.oc.status === 'reserved'
+            ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
+            : { place: 'done', message: oc!.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
+      return { ...base, kind: 'offcut', code: code.toUpperCase(), title: `Offcut of ${oc!.sku}, ${formatLength(oc!.oc.length, settings.displayUnit)}`, status: oc!.oc.status, next, partId: oc!.partId }
+    }
+    case 'part': {
+      const [part] = await db.select().from(parts).where(eq(parts.id, found.id))
+      return {
+        ...base,
+        kind: 'part',
+        code: part!.sku,
+        title: `${part!.sku}: ${part!.name}`,
+        status: part!.active ? 'active' : 'deactivated',
+        next: { place: 'stock', message: part!.shelfLocation ? `Shelf ${part!.shelfLocation}` : 'No shelf set for this part' },
+        partId: part!.id,
+      }
     }
   }
-
-  if (unit) {
-    return {
-      ...base,
-      kind: 'work_order',
-      code: unit.wo.serial,
-      title: `Unit ${unit.wo.serial}: ${unit.kitName}, rev ${unit.revCode}${unit.binCode ? `, in bin ${unit.binCode}` : ''}`,
-      status: unit.wo.status,
-      next: nextForUnit(unit.wo.status),
-      workOrderSerial: unit.wo.serial,
-      orderId: unit.wo.orderId,
-    }
-  }
-
-  if (order) {
-    const next: ScanResult['next'] =
-      order.status === 'open'
-        ? { place: 'office', message: 'Not released yet: the planner releases it into work orders' }
-        : order.status === 'shipped'
-          ? { place: 'done', message: 'Shipped' }
-          : order.status === 'cancelled'
-            ? { place: 'office', message: 'Cancelled' }
-            : { place: 'pack', message: 'In production; the pack bench ships it when every unit is built' }
-    return { ...base, kind: 'order', code: order.number, title: `Order ${order.number} for ${order.customerName}`, status: order.status, next, orderId: order.id }
-  }
-
-  if (oc && settings) {
-    const next: ScanResult['next'] =
-      oc.oc.status === 'in_stock'
-        ? { place: 'stock', message: 'Put it on the offcut rack; the next cut run uses it first' }
-        : oc.oc.status === 'reserved'
-          ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
-          : { place: 'done', message: oc.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
-    return { ...base, kind: 'offcut', code: code.toUpperCase(), title: `Offcut of ${oc.sku}, ${formatLength(oc.oc.length, settings.displayUnit)}`, status: oc.oc.status, next, partId: oc.partId }
-  }
-
-  if (part) {
-    return {
-      ...base,
-      kind: 'part',
-      code: part.sku,
-      title: `${part.sku}: ${part.name}`,
-      status: part.active ? 'active' : 'deactivated',
-      next: { place: 'stock', message: part.shelfLocation ? `Shelf ${part.shelfLocation}` : 'No shelf set for this part' },
-      partId: part.id,
-    }
-  }
-
-  throw new NotFound(`No bin, unit, order, offcut or part has the code "${code}". Check the label and scan again.`)
 }
