@@ -1,7 +1,7 @@
-import { useState } from 'react'
 import { toast } from 'sonner'
 import { ORDER_CSV_COLUMNS, type OrderCsvError, type OrderImportPreview } from '@kitwright/shared/orders-csv'
 import { CsvSource } from '../../../components/ui/csv-source'
+import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportOrders, usePreviewOrdersImport } from '../api/order-queries'
 import { formatMoney } from './format'
@@ -55,22 +55,10 @@ function PreviewTable({ preview }: { preview: OrderImportPreview }) {
 
 /** Choose or paste an orders CSV, see what it would do and what to fix, then import it all at once. */
 export function OrdersImport({ onImported }: { onImported: () => void }) {
-  const [csv, setCsv] = useState('')
-  const [checked, setChecked] = useState<{ csv: string; preview: OrderImportPreview } | null>(null)
-  const [importErrors, setImportErrors] = useState<OrderCsvError[]>([])
-  const preview = usePreviewOrdersImport()
+  const importer = useCsvImport(usePreviewOrdersImport())
+  const { csv, setCsv, runPreview, current, errors, setImportErrors } = importer
   const importOrders = useImportOrders()
-
-  const runPreview = (text: string) => {
-    setImportErrors([])
-    preview.mutate(text, {
-      onSuccess: (p) => setChecked({ csv: text, preview: p }),
-      onError: (err) => toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright'),
-    })
-  }
-  const current = checked && checked.csv === csv ? checked.preview : null
   const canImport = !!current && current.errors.length === 0 && current.creates > 0 && !importOrders.isPending
-  const errors = importErrors.length ? importErrors : (current?.errors ?? [])
 
   const runImport = () =>
     importOrders.mutate(csv, {
@@ -92,7 +80,7 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
           The header is row 1. Dates as 2026-03-01 (or 2026-03-01T14:30:00Z), prices in dollars (189.00), country as two letters (US). An order number
           already stored is skipped, so the same file can be imported twice safely.
         </p>
-        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={preview.isPending} onImport={runImport} canImport={canImport} />
+        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={importer.previewing} onImport={runImport} canImport={canImport} />
         {current && (
           <p aria-live="polite" className="font-bold">
             {current.creates} new, {current.skips} already stored

@@ -1,8 +1,8 @@
-import { useState } from 'react'
 import { toast } from 'sonner'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
 import { csvErrorsFromFields, PART_CSV_COLUMNS, type PartCsvError, type PartImportPreview } from '@kitwright/shared/parts-csv'
 import { CsvSource } from '../../../components/ui/csv-source'
+import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportParts, usePreviewPartsImport } from '../api/part-queries'
 import { formatDollars } from './money'
@@ -49,22 +49,10 @@ function PreviewTable({ preview }: { preview: PartImportPreview }) {
 
 /** Choose or paste a parts CSV, see what it would do and what to fix, then import it all at once. */
 export function PartsImport({ onImported }: { onImported: () => void }) {
-  const [csv, setCsv] = useState('')
-  const [checked, setChecked] = useState<{ csv: string; preview: PartImportPreview } | null>(null)
-  const [importErrors, setImportErrors] = useState<PartCsvError[]>([])
-  const preview = usePreviewPartsImport()
+  const importer = useCsvImport(usePreviewPartsImport())
+  const { csv, setCsv, runPreview, current, errors, setImportErrors } = importer
   const importParts = useImportParts()
-
-  const runPreview = (text: string) => {
-    setImportErrors([])
-    preview.mutate(text, {
-      onSuccess: (p) => setChecked({ csv: text, preview: p }),
-      onError: (err) => toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright'),
-    })
-  }
-  const current = checked && checked.csv === csv ? checked.preview : null
   const canImport = !!current && current.errors.length === 0 && current.rows.length > 0 && !importParts.isPending
-  const errors = importErrors.length ? importErrors : (current?.errors ?? [])
 
   const runImport = () =>
     importParts.mutate(csv, {
@@ -85,7 +73,7 @@ export function PartsImport({ onImported }: { onImported: () => void }) {
           Columns: <code className="text-sm">{PART_CSV_COLUMNS.join(', ')}</code>. The header is row 1. Lengths as typed in the shop (10 ft, 0.840 in,
           21.3 mm), cost in dollars (12.34), weight in grams. A SKU already in the catalog updates that part.
         </p>
-        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={preview.isPending} onImport={runImport} canImport={canImport} />
+        <CsvSource csv={csv} onCsvChange={setCsv} onPreview={runPreview} previewing={importer.previewing} onImport={runImport} canImport={canImport} />
         {current && (
           <p aria-live="polite" className="font-bold">
             {current.creates} new, {current.updates} updated
