@@ -77,9 +77,9 @@ beforeAll(async () => {
   const w4b = await insertReportUnit(db, o4, revB.id, 'built', { createdAt: daysAgo(10), updatedAt: daysAgo(3.5) })
   const w3a = await insertReportUnit(db, o3, revA.id, 'rework', { createdAt: daysAgo(6), updatedAt: daysAgo(1) })
   const w3b = await insertReportUnit(db, o3, revA.id, 'building', { createdAt: daysAgo(5), updatedAt: daysAgo(5) })
-  const wcut = await insertReportUnit(db, o5, revA.id, 'cut', { createdAt: daysAgo(2), updatedAt: daysAgo(2) })
+  await insertReportUnit(db, o5, revA.id, 'cut', { createdAt: daysAgo(2), updatedAt: daysAgo(2) })
   const wc1 = await insertReportUnit(db, o5, revA.id, 'waiting_cut', { createdAt: daysAgo(4), updatedAt: daysAgo(4) })
-  const wc2 = await insertReportUnit(db, o5, revA.id, 'waiting_cut', { createdAt: daysAgo(1), updatedAt: daysAgo(1) })
+  await insertReportUnit(db, o5, revA.id, 'waiting_cut', { createdAt: daysAgo(1), updatedAt: daysAgo(1) })
   await insertReportUnit(db, o6, revA.id, 'cancelled', { createdAt: daysAgo(30), updatedAt: daysAgo(30) })
   Object.assign(serials, { w4b: w4b.serial, w3a: w3a.serial, wc1: wc1.serial })
 

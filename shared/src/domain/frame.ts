@@ -250,7 +250,7 @@ export function computeFrame(inputs: FrameInputs, options: ComputeFrameOptions =
   const invalid = checkInputs(inputs, unit)
   if (invalid.length > 0) return emptyResult(invalid)
 
-  const { enclosure, elbow, tee, layout, sprayers, riser } = inputs
+  const { enclosure, elbow, tee, riser } = inputs
   const warnings: FrameWarning[] = []
   const derivation: string[] = []
 

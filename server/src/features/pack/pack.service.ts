@@ -11,7 +11,7 @@ import { BadRequest, Conflict, NotFound, Unavailable } from '../../lib/http-erro
 import { addOrderEvent } from '../orders/orders.service'
 import type { ShipmentRequest } from '../shipping/carrier'
 import { weighParcel } from './parcel-weights'
-import { bagKey, buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
+import { buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
 import { findBinByCode, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, nextSsccSerials, openShipmentOf } from './pack.queries'
 
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
