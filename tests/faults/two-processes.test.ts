@@ -40,11 +40,13 @@ async function startApi(): Promise<{ url: string; child: ChildProcess }> {
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
+  let stderr = ''
+  child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()))
   await new Promise<void>((resolve, reject) => {
     child.stdout!.on('data', (d: Buffer) => {
       if (d.toString().includes('listening on')) resolve()
     })
-    child.once('exit', (code) => reject(new Error(`the API on port ${port} exited early (${code})`)))
+    child.once('exit', (code) => reject(new Error(`the API on port ${port} exited early (${code}):\n${stderr.slice(-2000)}`)))
   })
   return { url: `http://127.0.0.1:${port}`, child }
 }

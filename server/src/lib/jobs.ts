@@ -72,6 +72,26 @@ function inTransaction(tx: Tx): PgBoss.Db {
   }
 }
 
+// PostgreSQL's codes for a deadlock, a serialization failure and a unique clash: what two API
+// processes starting at the same moment and creating the same queues run into.
+const RACE_CODES = new Set(['40P01', '40001', '23505'])
+
+/**
+ * Runs `work` again (up to 5 times, after a short random wait) when it lost a race with another
+ * process doing the same; creating a queue that now exists is then a no-op.
+ */
+async function retryWhenRacing<T>(work: () => Promise<T>): Promise<T> {
+  for (let attempt = 1; ; attempt++) {
+    try {
+      return await work()
+    } catch (err) {
+      const code = (err as { code?: unknown }).code
+      if (attempt >= 5 || typeof code !== 'string' || !RACE_CODES.has(code)) throw err
+      await new Promise((r) => setTimeout(r, 50 + Math.random() * 200 * attempt))
+    }
+  }
+}
+
 /**
  * The job queue: pg-boss over Kitwright's own PostgreSQL, in its schema `pgboss`. Sending starts it
  * if nobody has yet, so a process that only enqueues needs no extra start-up step.
@@ -94,15 +114,19 @@ export function createJobs(options: JobsOptions): Jobs {
     starting ??= (async () => {
       await boss.start()
       for (const name of JOB_NAMES) {
-        await boss.createQueue(name, {
-          name,
-          retryLimit: options.retryLimit ?? 5,
-          retryDelay: options.retryDelaySeconds ?? 10,
-          retryBackoff: true,
-          expireInSeconds: 5 * 60,
-        })
+        await retryWhenRacing(() =>
+          boss.createQueue(name, {
+            name,
+            retryLimit: options.retryLimit ?? 5,
+            retryDelay: options.retryDelaySeconds ?? 10,
+            retryBackoff: true,
+            expireInSeconds: 5 * 60,
+          }),
+        )
       }
     })()
+    // A failed start may be tried again by the next caller rather than failing it for good.
+    starting.catch(() => (starting = null))
     return starting
   }
 
