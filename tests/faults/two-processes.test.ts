@@ -21,6 +21,8 @@ let pg: Awaited<ReturnType<typeof privatePostgres>>
 let smtp: Awaited<ReturnType<typeof privateSmtp>>
 let conn: ReturnType<typeof createDb>
 const apis: { url: string; child: ChildProcess }[] = []
+// Every child started, recorded at once, so one that started while its twin failed is stopped too.
+const children: ChildProcess[] = []
 
 /** One `tsx server/src/index.ts`, workers on, resolved once it prints that it listens. */
 async function startApi(): Promise<{ url: string; child: ChildProcess }> {
@@ -40,6 +42,7 @@ async function startApi(): Promise<{ url: string; child: ChildProcess }> {
     },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
+  children.push(child)
   let stderr = ''
   child.stderr!.on('data', (d: Buffer) => (stderr += d.toString()))
   await new Promise<void>((resolve, reject) => {
@@ -58,7 +61,8 @@ beforeAll(async () => {
   apis.push(...(await Promise.all([startApi(), startApi()])))
 })
 afterAll(async () => {
-  for (const { child } of apis) {
+  for (const child of children) {
+    if (child.exitCode !== null || child.signalCode !== null) continue
     const exited = new Promise((r) => child.once('exit', r))
     child.kill('SIGTERM')
     await exited
