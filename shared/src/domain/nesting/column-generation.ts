@@ -1,7 +1,7 @@
 import type { Highs, Solution } from 'highs'
 import { solveKnapsack } from './knapsack'
 import type { CuttingProblem, Pattern } from './problem'
-import { patternLoad } from './problem'
+import { patternColumn, patternLoad } from './problem'
 
 /**
  * Column generation for the cutting-stock LP (Gilmore & Gomory, Operations Research 9, 1961):
@@ -67,20 +67,7 @@ export function solveMasterLp(
       if (seen.has(key)) return false
       seen.add(key)
       pool.push(p)
-      const indices: number[] = []
-      const values: number[] = []
-      p.counts.forEach((c, i) => {
-        if (c > 0) {
-          indices.push(i)
-          values.push(c)
-        }
-      })
-      const r = binRow[p.bin] ?? -1
-      if (r >= 0) {
-        indices.push(r)
-        values.push(1)
-      }
-      model.addCol(costs[p.bin] ?? 0, 0, inf, { indices, values })
+      model.addCol(costs[p.bin] ?? 0, 0, inf, patternColumn(p, binRow))
       return true
     }
     for (const p of start) addColumn(p)

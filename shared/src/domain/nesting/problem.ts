@@ -230,3 +230,24 @@ export function normalizeSolution(problem: CuttingProblem, sol: PatternSolution)
   })
   return { uses: [...merged.values()] }
 }
+
+/**
+ * A pattern as a column of the master problem: how many of each piece it cuts (one row per piece
+ * type) and, when its stock has a limited count, a 1 in that stock's availability row.
+ */
+export function patternColumn(p: Pattern, binRow: readonly number[]): { indices: number[]; values: number[] } {
+  const indices: number[] = []
+  const values: number[] = []
+  p.counts.forEach((c, i) => {
+    if (c > 0) {
+      indices.push(i)
+      values.push(c)
+    }
+  })
+  const r = binRow[p.bin] ?? -1
+  if (r >= 0) {
+    indices.push(r)
+    values.push(1)
+  }
+  return { indices, values }
+}

@@ -2,7 +2,7 @@ import type { Highs } from 'highs'
 import { greedyPlan } from './ffd'
 import type { MasterLp } from './column-generation'
 import type { CuttingProblem, Pattern, PatternSolution } from './problem'
-import { normalizeSolution } from './problem'
+import { normalizeSolution, patternColumn } from './problem'
 
 /**
  * From the LP to whole sticks: rounding with a residual greedy, enumeration of every pattern that
@@ -200,20 +200,7 @@ export function solvePatternMip(
       } else binRow[bi] = -1
     })
     cols.forEach((p, j) => {
-      const indices: number[] = []
-      const values: number[] = []
-      p.counts.forEach((c, i) => {
-        if (c > 0) {
-          indices.push(i)
-          values.push(c)
-        }
-      })
-      const r = binRow[p.bin] ?? -1
-      if (r >= 0) {
-        indices.push(r)
-        values.push(1)
-      }
-      model.addCol(costs[p.bin] ?? 0, 0, inf, { indices, values })
+      model.addCol(costs[p.bin] ?? 0, 0, inf, patternColumn(p, binRow))
       model.changeColIntegrality(j, highs.constants.variableType.integer)
     })
     model.options.set({ output_flag: false, time_limit: seconds, mip_rel_gap: 0, mip_abs_gap: 1e-6 })
