@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { CsvRowErrorSchema } from './csv'
 
 /**
  * The columns of an orders CSV: one row per order line, the order's own fields repeated on each of
@@ -57,7 +58,7 @@ export const OrderCsvBodySchema = z
 export type OrderCsvBody = z.infer<typeof OrderCsvBodySchema>
 
 /** Something to fix (or note) in an import file: the row as in the file (header = row 1), and the column if known. */
-export const OrderCsvErrorSchema = z.object({ row: z.number().int().min(1), column: z.string().nullable(), message: z.string() })
+export const OrderCsvErrorSchema = CsvRowErrorSchema
 /** Something to fix in an import file. */
 export type OrderCsvError = z.infer<typeof OrderCsvErrorSchema>
 

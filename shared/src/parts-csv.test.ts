@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { inches, millimetres } from './domain/units'
-import { exactLengthText, neutraliseCsvCell, parseDollars, partFromCsvRecord, partToCsvRecord, restoreCsvCell, csvErrorKey, csvErrorsFromFields } from './parts-csv'
+import { formatLengthForInput, inches, millimetres } from './domain/units'
+import { neutraliseCsvCell, restoreCsvCell, csvErrorKey, csvErrorsFromFields } from './csv'
+import { parseDollars, partFromCsvRecord, partToCsvRecord } from './parts-csv'
 import type { Part } from './parts'
 
 const pipeRecord = {
@@ -62,12 +63,12 @@ describe('writing a parts CSV record', () => {
   it('writes lengths exactly so they read back to the same base units', () => {
     for (const v of [inches(0.84), inches(120), inches(4.25), millimetres(21.34), 1, 12_345]) {
       for (const unit of ['in', 'mm'] as const) {
-        const back = partFromCsvRecord({ ...pipeRecord, outside_diameter: exactLengthText(v, unit) }, unit)
+        const back = partFromCsvRecord({ ...pipeRecord, outside_diameter: formatLengthForInput(v, unit) }, unit)
         expect(back.ok && back.part.outsideDiameter).toBe(v)
       }
     }
-    expect(exactLengthText(inches(240), 'in')).toBe('20 ft')
-    expect(exactLengthText(inches(0.84), 'in')).toBe('0.84 in')
+    expect(formatLengthForInput(inches(240), 'in')).toBe('20 ft')
+    expect(formatLengthForInput(inches(0.84), 'in')).toBe('0.84 in')
   })
 
   it('round-trips a whole part', () => {

@@ -1,5 +1,6 @@
 import { z } from 'zod'
-import { LENGTH_BASE_PER_FOOT, LENGTH_BASE_PER_INCH, LENGTH_BASE_PER_MM, parseLength, type Length, type LengthUnit } from './domain/units'
+import { CsvRowErrorSchema } from './csv'
+import { formatLengthForInput, parseLength, type LengthUnit } from './domain/units'
 import { PART_KINDS, PartInputSchema, type Part, type PartInput, type PartInputDraft } from './parts'
 
 /**
@@ -55,7 +56,7 @@ export const PartCsvBodySchema = z
 export type PartCsvBody = z.infer<typeof PartCsvBodySchema>
 
 /** Something to fix in an import file: row as in the file (the header is row 1), and the column if known. */
-export const PartCsvErrorSchema = z.object({ row: z.number().int().min(1), column: z.string().nullable(), message: z.string() })
+export const PartCsvErrorSchema = CsvRowErrorSchema
 /** Something to fix in an import file. */
 export type PartCsvError = z.infer<typeof PartCsvErrorSchema>
 
@@ -82,57 +83,6 @@ export const PartImportResultSchema = z.object({ created: z.number().int().min(0
 /** What an import did. */
 export type PartImportResult = z.infer<typeof PartImportResultSchema>
 
-/**
- * The key of one row error in a 400 answer's `fields` (`rows.3.unit_cost`), and back. The import
- * endpoint answers with the one error shape of the API, so row errors travel as fields.
- */
-export function csvErrorKey(e: PartCsvError): string {
-  return `rows.${e.row}.${e.column ?? '_'}`
-}
-/** Reads row errors back from a 400 answer's `fields`; other keys are ignored. */
-export function csvErrorsFromFields(fields: Record<string, string>): PartCsvError[] {
-  const out: PartCsvError[] = []
-  for (const [key, message] of Object.entries(fields)) {
-    const m = /^rows\.(\d+)\.(.+)$/.exec(key)
-    if (m) out.push({ row: Number(m[1]), column: m[2] === '_' ? null : m[2]!, message })
-  }
-  return out.sort((a, b) => a.row - b.row)
-}
-
-// OWASP, CSV Injection: a cell starting with = + - @ tab or carriage return may run as a formula in a
-// spreadsheet; prefixing a single quote makes the spreadsheet show it as text.
-const FORMULA_START = /^[=+\-@\t\r]/
-
-/** A cell made safe to open in a spreadsheet: text that could start a formula gets a leading `'`. */
-export function neutraliseCsvCell(value: string): string {
-  return FORMULA_START.test(value) ? `'${value}` : value
-}
-
-/** Undoes {@link neutraliseCsvCell} on import, so an exported file imports back unchanged. */
-export function restoreCsvCell(value: string): string {
-  return value.startsWith("'") && FORMULA_START.test(value.slice(1)) ? value.slice(1) : value
-}
-
-/**
- * A length written exactly, for files and for editing: whole feet as `10 ft`, else decimal inches
- * (`0.84 in`) or millimetres (`21.336 mm`) with as many decimals as needed (at most 6, which is
- * finer than one base unit, so {@link parseLength} reads back the very same length).
- * Shops type 0.840 in for pipe; the stored length is that rounded to a base unit, and this writes the
- * shortest text that reads back to it, so it shows 0.84 in again.
- */
-export function exactLengthText(value: Length, unit: LengthUnit): string {
-  if (unit === 'in' && value % LENGTH_BASE_PER_FOOT === 0) return `${value / LENGTH_BASE_PER_FOOT} ft`
-  const amount = value / (unit === 'mm' ? LENGTH_BASE_PER_MM : LENGTH_BASE_PER_INCH)
-  // The fewest decimals that still read back to this very length (0.84 in is 34 137.6 base units,
-  // stored as 34 138, and still written 0.84 in).
-  for (let decimals = 0; decimals < 6; decimals++) {
-    const text = `${Number(amount.toFixed(decimals))} ${unit}`
-    const back = parseLength(text, unit)
-    if (back.ok && back.value === value) return text
-  }
-  return `${Number(amount.toFixed(6))} ${unit}`
-}
-
 /** A part as one CSV record (column → cell text, not yet neutralised), lengths in `unit`. */
 export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvColumn, string> {
   return {
@@ -148,8 +98,8 @@ export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvCol
     reorder_quantity: String(part.reorderQuantity),
     shelf_location: part.shelfLocation ?? '',
     nominal_size: part.nominalSize ?? '',
-    outside_diameter: part.outsideDiameter === null ? '' : exactLengthText(part.outsideDiameter, unit),
-    stick_lengths: part.stickLengths.map((l) => exactLengthText(l, unit)).join('; '),
+    outside_diameter: part.outsideDiameter === null ? '' : formatLengthForInput(part.outsideDiameter, unit),
+    stick_lengths: part.stickLengths.map((l) => formatLengthForInput(l, unit)).join('; '),
     active: part.active ? 'yes' : 'no',
   }
 }

@@ -308,13 +308,14 @@ export function formatLength(value: Length, unit: LengthUnit, opts: FormatLength
 }
 
 /**
- * Formats a length for an input field so that parsing it back gives exactly the same length:
- * a fraction when the length is a whole number of 64ths of an inch (`4-1/4"`), otherwise decimal
- * inches with the fewest decimals that read back exactly (`0.84 in`); millimetres likewise
- * (`108 mm`, `21.336 mm`). Five decimals are finer than the base unit in either unit, so the
- * loop always ends with an exact text.
+ * Formats a length for an input field or a file so that parsing it back gives exactly the same
+ * length: whole feet from 5 ft up as feet (`10 ft`, how sticks are bought), a whole number of 64ths
+ * of an inch as a fraction (`4-1/4"`), otherwise decimal inches with the fewest decimals that read
+ * back exactly (`0.84 in`); millimetres likewise (`108 mm`, `21.336 mm`). Five decimals are finer
+ * than the base unit in either unit, so the loop always ends with an exact text.
  */
 export function formatLengthForInput(value: Length, unit: LengthUnit): string {
+  if (unit === 'in' && value >= 5 * LENGTH_BASE_PER_FOOT && value % LENGTH_BASE_PER_FOOT === 0) return `${value / LENGTH_BASE_PER_FOOT} ft`
   if (unit === 'in' && value % (LENGTH_BASE_PER_INCH / 64) === 0) return formatLength(value, 'in', { denominator: 64 })
   const perUnit = unit === 'mm' ? LENGTH_BASE_PER_MM : LENGTH_BASE_PER_INCH
   // The fewest decimals that still read back as this very length.

@@ -7,7 +7,8 @@ import {
   type OrderCsvColumn,
   type OrderCsvError,
 } from '@kitwright/shared/orders-csv'
-import { neutraliseCsvCell, parseDollars, restoreCsvCell } from '@kitwright/shared/parts-csv'
+import { neutraliseCsvCell, restoreCsvCell } from '@kitwright/shared/csv'
+import { parseDollars } from '@kitwright/shared/parts-csv'
 
 type OrderRecord = Partial<Record<OrderCsvColumn, string>>
 

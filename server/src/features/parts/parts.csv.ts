@@ -1,14 +1,6 @@
 import Papa from 'papaparse'
-import {
-  neutraliseCsvCell,
-  PART_CSV_COLUMNS,
-  partToCsvRecord,
-  REQUIRED_PART_CSV_COLUMNS,
-  restoreCsvCell,
-  type PartCsvColumn,
-  type PartCsvError,
-  type PartCsvRecord,
-} from '@kitwright/shared/parts-csv'
+import { neutraliseCsvCell, restoreCsvCell } from '@kitwright/shared/csv'
+import { PART_CSV_COLUMNS, partToCsvRecord, REQUIRED_PART_CSV_COLUMNS, type PartCsvColumn, type PartCsvError, type PartCsvRecord } from '@kitwright/shared/parts-csv'
 import type { LengthUnit } from '@kitwright/shared/domain/units'
 import type { Part } from '@kitwright/shared/parts'
 

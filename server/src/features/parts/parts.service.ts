@@ -1,12 +1,6 @@
 import { PartInputSchema, type Part, type PartInput, type PartListQuery, type PartPatch, type PartsPage } from '@kitwright/shared/parts'
-import {
-  csvErrorKey,
-  partFromCsvRecord,
-  partToCsvRecord,
-  type PartCsvError,
-  type PartImportPreview,
-  type PartImportResult,
-} from '@kitwright/shared/parts-csv'
+import { csvErrorKey } from '@kitwright/shared/csv'
+import { partFromCsvRecord, partToCsvRecord, type PartCsvError, type PartImportPreview, type PartImportResult } from '@kitwright/shared/parts-csv'
 import type { Db, Tx } from '../../db/client'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { readPartsCsv, writePartsCsv } from './parts.csv'

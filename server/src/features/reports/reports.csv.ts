@@ -1,5 +1,5 @@
 import Papa from 'papaparse'
-import { neutraliseCsvCell } from '@kitwright/shared/parts-csv'
+import { neutraliseCsvCell } from '@kitwright/shared/csv'
 
 /** One cell of a report's CSV: text (made safe for spreadsheets), a number, or empty. */
 export type CsvCell = string | number | null

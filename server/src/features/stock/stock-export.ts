@@ -1,16 +1,9 @@
 import Papa from 'papaparse'
+import { neutraliseCsvCell } from '@kitwright/shared/csv'
 import type { LengthUnit } from '@kitwright/shared/domain/units'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
 import { formatLength } from '@kitwright/shared/domain/units'
 import { formatStickLength, type StockRow } from '@kitwright/shared/stock'
-
-/**
- * A cell a spreadsheet would run as a formula starts with = + - @, a tab or a carriage return; a
- * leading apostrophe makes it plain text (OWASP, "CSV Injection").
- */
-export function neutraliseCell(value: string): string {
-  return /^[=+\-@\t\r]/.test(value) ? `'${value}` : value
-}
 
 export const STOCK_EXPORT_HEADER = [
   'SKU', 'Name', 'Kind', 'Shelf', 'Unit', 'On hand', 'Reserved', 'Available', 'Reorder point', 'Reorder quantity', 'Low', 'Sticks', 'Offcuts', 'Offcut length',
@@ -24,7 +17,7 @@ export function stockCsv(rows: StockRow[], unit: LengthUnit): string {
     r.sticks.map((s) => `${formatStickLength(s.stickLength, unit)}: ${s.onHand} on hand, ${s.available} available`).join('; '),
     r.kind === 'stock_length' ? r.offcuts.count : '',
     r.kind === 'stock_length' && r.offcuts.count > 0 ? formatLength(r.offcuts.totalLength, unit) : '',
-  ].map((cell) => (typeof cell === 'string' ? neutraliseCell(cell) : cell)))
+  ].map((cell) => (typeof cell === 'string' ? neutraliseCsvCell(cell) : cell)))
   // A byte-order mark so spreadsheet programs read the file as UTF-8 (½, ×, accents in names).
   return '\ufeff' + Papa.unparse({ fields: STOCK_EXPORT_HEADER, data }, { newline: '\r\n' })
 }

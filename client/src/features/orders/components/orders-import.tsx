@@ -1,24 +1,12 @@
 import { toast } from 'sonner'
-import { ORDER_CSV_COLUMNS, type OrderCsvError, type OrderImportPreview } from '@kitwright/shared/orders-csv'
+import { csvErrorsFromFields, csvRowText } from '@kitwright/shared/csv'
+import { ORDER_CSV_COLUMNS, type OrderImportPreview } from '@kitwright/shared/orders-csv'
+import { CsvRowErrors } from '../../../components/ui/csv-row-errors'
 import { CsvSource } from '../../../components/ui/csv-source'
 import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportOrders, usePreviewOrdersImport } from '../api/order-queries'
 import { formatMoney } from './format'
-
-function errorText(e: OrderCsvError) {
-  return `Row ${e.row}${e.column ? `, ${e.column}` : ''}: ${e.message}`
-}
-
-/** Row errors back from a refused import's `fields` (`rows.4.quantity`). */
-function errorsFromFields(fields: Record<string, string>): OrderCsvError[] {
-  return Object.entries(fields)
-    .flatMap(([key, message]) => {
-      const m = /^rows\.(\d+)\.(.+)$/.exec(key)
-      return m ? [{ row: Number(m[1]), column: m[2] === '_' ? null : m[2]!, message }] : []
-    })
-    .sort((a, b) => a.row - b.row)
-}
 
 const ACTION_WORDS = { create: 'Create', skip: 'Skip: already stored' } as const
 
@@ -67,7 +55,7 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
         onImported()
       },
       onError: (err) => {
-        if (err instanceof ApiError) setImportErrors(errorsFromFields(err.body.fields ?? {}))
+        if (err instanceof ApiError) setImportErrors(csvErrorsFromFields(err.body.fields ?? {}))
         toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright')
       },
     })
@@ -88,17 +76,11 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
           </p>
         )}
       </div>
-      {errors.length > 0 && (
-        <ul role="alert" aria-label="Rows to fix" className="space-y-1 rounded-lg border border-red-300 bg-red-50 p-4 text-red-900">
-          {errors.map((e, i) => (
-            <li key={i}>{errorText(e)}</li>
-          ))}
-        </ul>
-      )}
+      <CsvRowErrors errors={errors} />
       {current && current.warnings.length > 0 && (
         <ul aria-label="Worth knowing" className="space-y-1 rounded-lg border border-amber-300 bg-amber-50 p-4 text-amber-950">
           {current.warnings.map((e, i) => (
-            <li key={i}>{errorText(e)}</li>
+            <li key={i}>{csvRowText(e)}</li>
           ))}
         </ul>
       )}

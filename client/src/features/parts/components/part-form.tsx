@@ -2,7 +2,8 @@ import { zodResolver } from '@hookform/resolvers/zod'
 import { useForm, useWatch } from 'react-hook-form'
 import type { z } from 'zod'
 import { PART_KINDS, PART_KIND_LABELS, PartInputSchema, type Part, type PartInput } from '@kitwright/shared/parts'
-import { exactLengthText, parseDollars } from '@kitwright/shared/parts-csv'
+import { parseDollars } from '@kitwright/shared/parts-csv'
+import { formatLengthForInput } from '@kitwright/shared/domain/units'
 import type { Length } from '@kitwright/shared/domain/units'
 import { Button } from '../../../components/ui/button'
 import { Field, Input, Select } from '../../../components/ui/field'
@@ -39,7 +40,7 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
   const { unit, parse } = useLengthUnit()
   const kind = useWatch({ control: form.control, name: 'kind' })
   const { errors } = form.formState
-  const lengthText = (v: Length) => exactLengthText(v, unit)
+  const lengthText = (v: Length) => formatLengthForInput(v, unit)
   const parseOptionalLength = (text: string): TextParse<number | null> => (text.trim() === '' ? { ok: true, value: null } : parse(text))
   const parseLengthList = (text: string): TextParse<number[]> => {
     const values: number[] = []

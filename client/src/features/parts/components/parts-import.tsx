@@ -1,15 +1,13 @@
 import { toast } from 'sonner'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
-import { csvErrorsFromFields, PART_CSV_COLUMNS, type PartCsvError, type PartImportPreview } from '@kitwright/shared/parts-csv'
+import { csvErrorsFromFields } from '@kitwright/shared/csv'
+import { PART_CSV_COLUMNS, type PartCsvError, type PartImportPreview } from '@kitwright/shared/parts-csv'
+import { CsvRowErrors } from '../../../components/ui/csv-row-errors'
 import { CsvSource } from '../../../components/ui/csv-source'
 import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportParts, usePreviewPartsImport } from '../api/part-queries'
 import { formatDollars } from './money'
-
-function errorText(e: PartCsvError) {
-  return `Row ${e.row}${e.column ? `, ${e.column}` : ''}: ${e.message}`
-}
 
 function PreviewTable({ preview }: { preview: PartImportPreview }) {
   const byRow = new Map<number, PartCsvError[]>()
@@ -81,13 +79,7 @@ export function PartsImport({ onImported }: { onImported: () => void }) {
           </p>
         )}
       </div>
-      {errors.length > 0 && (
-        <ul role="alert" aria-label="Rows to fix" className="space-y-1 rounded-lg border border-red-300 bg-red-50 p-4 text-red-900">
-          {errors.map((e, i) => (
-            <li key={i}>{errorText(e)}</li>
-          ))}
-        </ul>
-      )}
+      <CsvRowErrors errors={errors} />
       {current && current.rows.length > 0 && <PreviewTable preview={current} />}
     </div>
   )
