@@ -1,23 +1,16 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { LateOrdersReportSchema } from '@kitwright/shared/reports'
 import { DEMO_USERS } from '../../server/src/db/seed'
-import { launchChromium, signIn } from '../support/browser'
+import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')
-let browser: Browser
-let context: BrowserContext
 let page: Page
 
-beforeAll(async () => {
-  browser = await launchChromium()
-})
-afterAll(() => browser.close())
+const chromium = browserPerTest({ width: 1280, height: 900 })
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1280, height: 900 } })
-  page = await context.newPage()
+  page = chromium.page
 })
-afterEach(() => context.close())
 
 describe("the owner's home page, in Chromium", () => {
   it('shows a planner the late orders and a chart whose numbers one click reveals', async () => {

@@ -1,25 +1,18 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { DEMO_USERS } from '../../server/src/db/seed'
-import { launchChromium, signIn } from '../support/browser'
+import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')
-let browser: Browser
-let context: BrowserContext
 let page: Page
 
-beforeAll(async () => {
-  browser = await launchChromium()
-})
-afterAll(() => browser.close())
+const chromium = browserPerTest({ width: 1400, height: 1000 })
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1400, height: 1000 } })
-  page = await context.newPage()
+  page = chromium.page
   const planner = DEMO_USERS.find((u) => u.role === 'planner')!
   await signIn(page, baseUrl, planner.email, planner.password)
   await page.getByRole('heading', { name: /Good day/ }).waitFor()
 })
-afterEach(() => context.close())
 
 describe('a planner revises the 12-site kit for a new tote', () => {
   it('starts a revision from B, enters the new tote, sees the cut list and its derivation update, saves and releases it', async () => {

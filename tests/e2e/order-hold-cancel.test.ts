@@ -1,25 +1,18 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { DEMO_USERS } from '../../server/src/db/seed'
-import { launchChromium, signIn } from '../support/browser'
+import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')
-let browser: Browser
-let context: BrowserContext
 let page: Page
 
 const planner = DEMO_USERS.find((u) => u.role === 'planner')!
 const admin = DEMO_USERS.find((u) => u.role === 'admin')!
 
-beforeAll(async () => {
-  browser = await launchChromium()
-})
-afterAll(() => browser.close())
+const chromium = browserPerTest({ width: 1366, height: 900 })
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1366, height: 900 } })
-  page = await context.newPage()
+  page = chromium.page
 })
-afterEach(() => context.close())
 
 /** Keeps a picture of the page when KW_SHOTS names a folder (for a person to look at). */
 async function shot(name: string) {

@@ -1,23 +1,16 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, describe, inject, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { beforeEach, describe, inject, it } from 'vitest'
 import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { DEMO_USERS } from '../../server/src/db/seed'
-import { launchChromium, signIn } from '../support/browser'
+import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')
-let browser: Browser
-let context: BrowserContext
 let page: Page
 
-beforeAll(async () => {
-  browser = await launchChromium()
-})
-afterAll(() => browser.close())
+const chromium = browserPerTest({ width: 1024, height: 768 })
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1024, height: 768 } })
-  page = await context.newPage()
+  page = chromium.page
 })
-afterEach(() => context.close())
 
 describe('the scan page', () => {
   it('tells a packer what a scanned part is and where it is shelved, and says plainly when a code is unknown', async () => {

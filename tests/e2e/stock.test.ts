@@ -1,27 +1,20 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core'
-import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
+import type { Page } from 'playwright-core'
+import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { DEMO_USERS } from '../../server/src/db/seed'
-import { launchChromium, signIn } from '../support/browser'
+import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')
-let browser: Browser
-let context: BrowserContext
 let page: Page
 
 const planner = DEMO_USERS.find((u) => u.role === 'planner')!
 
-beforeAll(async () => {
-  browser = await launchChromium()
-})
-afterAll(() => browser.close())
+const chromium = browserPerTest({ width: 1280, height: 900 })
 beforeEach(async () => {
-  context = await browser.newContext({ viewport: { width: 1280, height: 900 } })
-  page = await context.newPage()
+  page = chromium.page
   await signIn(page, baseUrl, planner.email, planner.password)
   await page.getByRole('heading', { name: /Good day/ }).waitFor()
 })
-afterEach(() => context.close())
 
 function stockRow(sku: string) {
   return page.getByRole('table', { name: 'Stock' }).getByRole('row').filter({ has: page.getByRole('link', { name: sku, exact: true }) })
