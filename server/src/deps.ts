@@ -22,8 +22,8 @@ export interface Deps {
   storage: Storage
   /** The carrier that sells shipping labels; without one the pack bench cannot buy a label. */
   carrier?: Carrier | null
-  /** The app's public URL, for links in customer e-mail; http://localhost:3000 when unset. */
-  appUrl?: string
+  /** The address people and tablets reach the app by (PUBLIC_URL): every e-mail link, signed record link and QR code starts with it. */
+  publicUrl: string
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

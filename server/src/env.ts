@@ -21,8 +21,8 @@ const EnvSchema = z.object({
   MAIL_FROM: z.string().email('MAIL_FROM must be an e-mail address, e.g. orders@your-shop.example').default('orders@kitwright.example'),
   /** The carrier's label service (the local stand-in speaks the same HTTP); unset → no labels can be bought. */
   CARRIER_URL: z.string().url('CARRIER_URL must be the carrier service\'s URL, e.g. http://127.0.0.1:54331').optional(),
-  /** The app's public address, for links in customer e-mail (a unit's build record). */
-  APP_URL: z.string().url('APP_URL must be the app\'s public URL, e.g. https://kitwright.your-shop.example').default('http://localhost:3000'),
+  /** The address people reach the app by: every e-mail link, signed record link and QR code starts with it. */
+  PUBLIC_URL: z.string().url('PUBLIC_URL must be the address people open Kitwright by, e.g. https://kitwright.your-shop.example or http://192.168.1.20:3000').optional(),
   /** `false` when the job workers run as their own process (server/src/worker.ts). */
   RUN_WORKERS: z.enum(['true', 'false']).default('true'),
 }).superRefine((env, ctx) => {
@@ -30,7 +30,7 @@ const EnvSchema = z.object({
   if (!env.STORE_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STORE_WEBHOOK_SECRET'], message: 'STORE_WEBHOOK_SECRET is required in production (the secret the web store signs with)' })
   if (!env.SMTP_URL) ctx.addIssue({ code: 'custom', path: ['SMTP_URL'], message: 'SMTP_URL is required in production (the relay customer e-mail goes through)' })
 })
-export type Env = z.infer<typeof EnvSchema>
+export type Env = z.infer<typeof EnvSchema> & { PUBLIC_URL: string }
 
 /** Reads the environment once at boot and stops with a message that says which variable to fix. */
 export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
@@ -40,5 +40,6 @@ export function readEnv(source: NodeJS.ProcessEnv = process.env): Env {
     console.error(`Kitwright cannot start; fix these environment variables (see .env.example):\n${lines.join('\n')}`)
     process.exit(1)
   }
-  return parsed.data
+  // Derived from how the app is served when not set, so links follow PORT.
+  return { ...parsed.data, PUBLIC_URL: parsed.data.PUBLIC_URL ?? `http://localhost:${parsed.data.PORT}` }
 }

@@ -23,7 +23,7 @@ const { app } = createApp({
   storage: createStorage(storageConfigFromEnv(env)),
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
   carrier: carrierFromEnv(env.CARRIER_URL),
-  appUrl: env.APP_URL,
+  publicUrl: env.PUBLIC_URL,
   tokens: {
     secret: new TextEncoder().encode(env.SESSION_SECRET),
     lifetimeSeconds: env.SESSION_MINUTES * 60,

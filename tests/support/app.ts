@@ -37,7 +37,7 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     storeWebhookSecret: TEST_STORE_SECRET,
     // The run's carrier stand-in (started by `npm test`).
     carrier: carrierFromEnv(process.env.CARRIER_URL),
-    appUrl: 'http://localhost:3000',
+    publicUrl: 'http://localhost:3000',
     storage: createStorage(options.storage ?? testStorageConfig()),
   }
   return { ...createApp(deps), deps }

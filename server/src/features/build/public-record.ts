@@ -15,9 +15,9 @@ const AUDIENCE = 'kitwright:unit-record'
  * read another unit's record by changing a number in the address. It does not expire: the
  * customer keeps the e-mail.
  */
-export async function unitRecordLink(tokens: TokenConfig, appUrl: string, serial: string): Promise<string> {
+export async function unitRecordLink(tokens: TokenConfig, publicUrl: string, serial: string): Promise<string> {
   const token = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(serial).setAudience(AUDIENCE).setIssuedAt().sign(tokens.secret)
-  return `${appUrl.replace(/\/+$/, '')}/record/${token}`
+  return `${publicUrl.replace(/\/+$/, '')}/record/${token}`
 }
 
 export async function readPublicRecord(db: Db, storage: Storage, tokens: TokenConfig, token: string): Promise<PublicUnitRecord> {

@@ -17,7 +17,6 @@ import { packView } from './pack.service'
 import { unitRecordLink } from '../build/public-record'
 import { shippedMailContent } from './shipped-mail'
 
-const DEFAULT_APP_URL = 'http://localhost:3000'
 
 /**
  * Ships a labelled shipment in one transaction: its units and the order marked shipped (or partly
@@ -25,7 +24,7 @@ const DEFAULT_APP_URL = 'http://localhost:3000'
  * ledger (`ship` moves) with its reservations released, and the customer's e-mail queued with the
  * tracking number and a link to each unit's build record. Parcels were recorded with the label.
  */
-export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'appUrl' | 'tokens'>, orderId: string, actor: SessionUser, audit: AuditContext): Promise<ShipResult> {
+export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'publicUrl' | 'tokens'>, orderId: string, actor: SessionUser, audit: AuditContext): Promise<ShipResult> {
   let shipmentId = ''
   let mailQueued = false
   await deps.db.transaction(async (tx) => {
@@ -83,7 +82,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
       units: await Promise.all(
         units.map(async (u) => {
           const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit')
-          const recordUrl = built ? await unitRecordLink(deps.tokens, deps.appUrl ?? DEFAULT_APP_URL, u.workOrder.serial) : null
+          const recordUrl = built ? await unitRecordLink(deps.tokens, deps.publicUrl, u.workOrder.serial) : null
           return { serial: u.workOrder.serial, description: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`, recordUrl }
         }),
       ),
