@@ -30,6 +30,8 @@ export const parts = pgTable(
     nominalSize: text(),
     outsideDiameter: integer(),
     stickLengths: integer().array().notNull().default(sql`'{}'::integer[]`),
+    /** Runs on mains power (a pump, a timer): a box holding one gets the electrical cautions on its care sheet. */
+    electrical: boolean().notNull().default(false),
     active: boolean().notNull().default(true),
     createdAt: createdAt(),
     updatedAt: updatedAt(),

@@ -28,6 +28,11 @@ export const shopSettings = pgTable(
     senderPostalCode: text(),
     senderCountry: text(),
     senderPhone: text(),
+    /** Who customer e-mail comes from (the From name and address); until set, the shop name and MAIL_FROM. */
+    mailFromName: text(),
+    mailFromAddress: text(),
+    /** Where customers' replies go (Reply-To); null: replies go to the From address. */
+    replyToAddress: text(),
     /** The shop's GS1 Company Prefix for SSCCs (the demo's is invented), and the SSCC extension digit. */
     gs1CompanyPrefix: text(),
     ssccExtensionDigit: integer().notNull().default(0),
