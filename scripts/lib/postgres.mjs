@@ -1,21 +1,57 @@
 // A private PostgreSQL cluster under .data/, listening on 127.0.0.1 only, on its own port.
-import { randomBytes } from 'node:crypto'
+import { createHash, randomBytes } from 'node:crypto'
 import { spawnSync } from 'node:child_process'
 import { appendFileSync, chmodSync, existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import path from 'node:path'
 import { fail, step } from './log.mjs'
-import { dataDir, ensureAptPackage, isRoot, postgresBin } from './system.mjs'
+import { dataDir, ensureAptPackage, isRoot, postgresBin, root } from './system.mjs'
 
-/** The cluster's data folder, socket/log folder and password file under `dir` (`.data` unless a test asks for its own). */
+/**
+ * Where the cluster's files go. The server runs as the `postgres` OS user when we are root (it refuses
+ * root), and that user must be able to enter every folder on the way to its data. A clone inside a
+ * folder only its owner may enter (a root user's home is 0700) is out of its reach, so its cluster goes
+ * to a folder of its own in the postgres user's home, named after the clone; its path is written to
+ * `<dir>/pg-cluster-location`. Elsewhere the cluster stays in `<dir>`. We never loosen the user's folders.
+ */
+function clusterHome(dir) {
+  const pointer = path.join(dir, 'pg-cluster-location')
+  if (existsSync(pointer)) return readFileSync(pointer, 'utf8').trim()
+  if (!isRoot() || existsSync(path.join(dir, 'pg', 'PG_VERSION')) || postgresCanEnter(dir)) return dir
+  const home = postgresHome()
+  const name = `${path.basename(root)}-${createHash('sha256').update(dir).digest('hex').slice(0, 10)}`
+  const outside = path.join(home, 'kitwright', name)
+  const made = spawnSync('install', ['-d', '-o', 'postgres', '-g', 'postgres', '-m', '700', path.join(home, 'kitwright'), outside], { encoding: 'utf8' })
+  if (made.status !== 0) {
+    fail(`${dir} is in a folder the postgres user cannot enter, and its cluster cannot go to ${outside} either (${made.stderr.trim()}).
+  Clone Kitwright into a folder others may pass through (e.g. /srv or /opt), or run npm start as an ordinary user.`)
+  }
+  writeFileSync(pointer, `${outside}\n`)
+  step(`${dir} is private to its owner, so the database cluster lives in ${outside} (see README, "Where data lives")`)
+  return outside
+}
+
+/** True when the `postgres` OS user can enter `dir` (and so every folder above it). */
+function postgresCanEnter(dir) {
+  return spawnSync('runuser', ['-u', 'postgres', '--', 'test', '-x', dir]).status === 0
+}
+
+function postgresHome() {
+  const entry = spawnSync('getent', ['passwd', 'postgres'], { encoding: 'utf8' })
+  if (entry.status !== 0) fail('the `postgres` OS user is missing, though PostgreSQL is installed; reinstall it (apt-get install --reinstall postgresql) and run again')
+  return entry.stdout.split(':')[5] || '/var/lib/postgresql'
+}
+
+/** The cluster's data folder and socket/log folder (see clusterHome), and its password file under `dir` (`.data` unless a test asks for its own). */
 function clusterPaths(dir) {
-  return { pgData: path.join(dir, 'pg'), pgRun: path.join(dir, 'pg-run'), passwordFile: path.join(dir, 'pg-password') }
+  const home = clusterHome(dir)
+  return { home, pgData: path.join(home, 'pg'), pgRun: path.join(home, 'pg-run'), passwordFile: path.join(dir, 'pg-password') }
 }
 
 /** Runs a PostgreSQL tool, as the `postgres` OS user when we are root (initdb refuses root). */
 function pgTool(bin, tool, args, { allowFail = false } = {}) {
   const cmd = path.join(bin, tool)
   const r = isRoot()
-    ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args], { encoding: 'utf8' })
+    ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args], { encoding: 'utf8', cwd: '/' }) // the clone may be closed to postgres
     : spawnSync(cmd, args, { encoding: 'utf8' })
   if (r.status !== 0 && !allowFail) fail(`${tool} failed:\n${r.stdout}${r.stderr}`)
   return r
@@ -34,9 +70,9 @@ function ownForPostgres(dir) {
 export function startPostgres(port, { dir = dataDir } = {}) {
   ensureAptPackage('postgresql', () => postgresBin() !== null)
   const bin = postgresBin()
-  const { pgData, pgRun, passwordFile } = clusterPaths(dir)
   mkdirSync(dir, { recursive: true })
   chmodSync(dir, 0o755)
+  const { home, pgData, pgRun, passwordFile } = clusterPaths(dir)
   if (!existsSync(passwordFile)) writeFileSync(passwordFile, randomBytes(18).toString('base64url'), { mode: 0o600 })
   const password = readFileSync(passwordFile, 'utf8').trim()
 
@@ -79,6 +115,12 @@ export function startPostgres(port, { dir = dataDir } = {}) {
     stop() {
       step('stopping PostgreSQL')
       pgTool(bin, 'pg_ctl', ['-D', pgData, '-m', 'fast', '-w', 'stop'], { allowFail: true })
+    },
+    /** Stops the cluster and deletes its files, wherever they are (throwaway clusters of the tests). */
+    remove() {
+      this.stop()
+      rmSync(home, { recursive: true, force: true })
+      rmSync(dir, { recursive: true, force: true })
     },
   }
 }

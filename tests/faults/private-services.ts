@@ -1,4 +1,3 @@
-import { rmSync } from 'node:fs'
 import { createServer } from 'node:net'
 import path from 'node:path'
 import { createDb } from '../../server/src/db/client'
@@ -15,6 +14,7 @@ import { startSmtpCatcher } from '../../storage-fake/smtp'
 interface PostgresCluster {
   url(db: string): string
   stop(): void
+  remove(): void
 }
 // @ts-expect-error plain JavaScript module of the start-up scripts, without type declarations
 const { startPostgres } = (await import('../../scripts/lib/postgres.mjs')) as { startPostgres: (port: number, options: { dir: string }) => PostgresCluster }
@@ -56,10 +56,7 @@ export async function privatePostgres(name: string) {
     start: () => {
       cluster = startPostgres(port, { dir })
     },
-    destroy() {
-      cluster.stop()
-      rmSync(dir, { recursive: true, force: true })
-    },
+    destroy: () => cluster.remove(),
   }
 }
 
