@@ -33,6 +33,11 @@ export const shopSettings = pgTable(
     mailFromAddress: text(),
     /** Where customers' replies go (Reply-To); null: replies go to the From address. */
     replyToAddress: text(),
+    /**
+     * The carrier the shop ships with, as its shipping service names it and as printed on labels,
+     * mails and timelines; rates of other carriers are not offered. Null until the owner sets it.
+     */
+    carrierName: text(),
     /** The shop's GS1 Company Prefix for SSCCs (the demo's is invented), and the SSCC extension digit. */
     gs1CompanyPrefix: text(),
     ssccExtensionDigit: integer().notNull().default(0),

@@ -1,6 +1,6 @@
 import { relations, sql } from 'drizzle-orm'
 import { boolean, check, index, integer, jsonb, pgEnum, pgSequence, pgTable, text, timestamp, unique, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { PACK_CHECK_METHODS, SHIPMENT_STATUSES } from '@kitwright/shared/pack-status'
+import { LABEL_STATUSES, PACK_CHECK_METHODS, SHIPMENT_STATUSES } from '@kitwright/shared/pack-status'
 import { createdAt, id } from './columns'
 import { orders, workOrders } from './orders'
 import { parts } from './parts'
@@ -8,6 +8,7 @@ import { users } from './users'
 
 export const shipmentStatusEnum = pgEnum('shipment_status', SHIPMENT_STATUSES)
 export const packCheckMethodEnum = pgEnum('pack_check_method', PACK_CHECK_METHODS)
+export const labelStatusEnum = pgEnum('label_status', LABEL_STATUSES)
 
 /** Serial references of SSCCs, shop-wide and never reused (one per parcel). */
 export const ssccSerialSeq = pgSequence('sscc_serial_seq', { startWith: 1 })
@@ -59,6 +60,20 @@ export const shipments = pgTable(
     labelData: jsonb(),
     labelledAt: timestamp({ withTimezone: true }),
     labelledBy: uuid().references(() => users.id),
+    /**
+     * The idempotency key of the label purchase under way or done, recorded (status `buying`) before
+     * the carrier is called and sent with every call of that purchase, so a retry, a second tap or a
+     * restart after a crash finds the same label instead of buying another.
+     */
+    labelKey: uuid().unique(),
+    /** What is being bought (service and parcels as the packer set them), kept so a purchase can be finished after a crash. */
+    labelRequest: jsonb(),
+    /** The carrier's own id for the purchase (its order of parcels), recorded before the label is paid for. */
+    carrierRef: text(),
+    /** The latest tracking status the carrier reported (`in_transit`, `delivered`…), and when. */
+    trackingStatus: text(),
+    trackingUpdatedAt: timestamp({ withTimezone: true }),
+    deliveredAt: timestamp({ withTimezone: true }),
     partialApprovedAt: timestamp({ withTimezone: true }),
     partialApprovedBy: uuid().references(() => users.id),
     partialNote: text(),
@@ -72,7 +87,9 @@ export const shipments = pgTable(
     // Units shipped per day (reports).
     index().on(t.shippedAt),
     uniqueIndex('shipments_one_open_per_order').on(t.orderId).where(sql`${t.status} <> 'shipped'`),
-    check('shipments_labelled_has_tracking', sql`${t.status} = 'packing' or ${t.trackingNumber} is not null`),
+    // Compared as text: a value added to the enum cannot be used in the migration that adds it.
+    check('shipments_labelled_has_tracking', sql`${t.status}::text in ('packing', 'buying') or ${t.trackingNumber} is not null`),
+    check('shipments_buying_has_key', sql`${t.status}::text <> 'buying' or ${t.labelKey} is not null`),
   ],
 )
 export type ShipmentRow = typeof shipments.$inferSelect
@@ -100,6 +117,8 @@ export const parcels = pgTable(
     dimensionalGrams: integer().notNull(),
     billableGrams: integer().notNull(),
     sscc: text().notNull().unique(),
+    /** The carrier's tracking number of this parcel (each parcel has its own; null on parcels recorded before that). */
+    trackingNumber: text().unique(),
     createdAt: createdAt(),
   },
   (t) => [
@@ -109,6 +128,46 @@ export const parcels = pgTable(
   ],
 )
 export type ParcelRow = typeof parcels.$inferSelect
+
+/**
+ * Every label the carrier sold for a shipment, kept after a void: who bought it, its tracking numbers
+ * (one per parcel) and price, and when voided, why, by whom and what the carrier said of the refund.
+ */
+export const shippingLabels = pgTable(
+  'shipping_labels',
+  {
+    id: id(),
+    shipmentId: uuid().notNull().references(() => shipments.id, { onDelete: 'cascade' }),
+    idempotencyKey: uuid().notNull().unique(),
+    status: labelStatusEnum().notNull().default('bought'),
+    carrier: text().notNull(),
+    service: text().notNull(),
+    carrierRef: text().notNull(),
+    trackingNumbers: text().array().notNull(),
+    /** The carrier's id of each parcel's label, in parcel order (a refund names these). */
+    carrierParcelRefs: text().array().notNull(),
+    chargeCents: integer().notNull(),
+    boughtAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    boughtBy: uuid().references(() => users.id),
+    voidReason: text(),
+    voidedAt: timestamp({ withTimezone: true }),
+    voidedBy: uuid().references(() => users.id),
+    /** The carrier's answer to the refund: `submitted`, `refunded` or `rejected`. */
+    refundStatus: text(),
+  },
+  (t) => [index().on(t.shipmentId), check('shipping_labels_void_has_reason', sql`${t.status}::text <> 'voided' or ${t.voidReason} is not null`)],
+)
+export type ShippingLabelRow = typeof shippingLabels.$inferSelect
+
+/** A signed tracking event from the carrier, kept by its id so a redelivery changes nothing. */
+export const carrierEvents = pgTable('carrier_events', {
+  id: text().primaryKey(),
+  trackingNumber: text().notNull(),
+  status: text().notNull(),
+  body: jsonb().notNull(),
+  shipmentId: uuid().references(() => shipments.id),
+  receivedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+})
 
 /**
  * A pack-bench confirmation that one item is in the box: a unit (by a scan of its bin or serial), a
