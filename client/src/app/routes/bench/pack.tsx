@@ -1,5 +1,5 @@
 import { useQuery } from '@tanstack/react-query'
-import { useEffect, useState } from 'react'
+import { useEffect, useRef, useState } from 'react'
 import { useSearchParams } from 'react-router-dom'
 import type { ShipResult } from '@kitwright/shared/pack'
 import { Button } from '../../../components/ui/button'
@@ -28,22 +28,30 @@ export function Component() {
   // A problem shown stays until the view changes (an action went through) or the next scan.
   useEffect(() => setProblem(null), [order.dataUpdatedAt])
 
-  function onScan(code: string) {
+  // What the next scan goes to, kept current between queued scans (a scan may open an order).
+  const opened = useRef<{ orderId: string | null; shipped: boolean }>({ orderId: null, shipped: false })
+  const openId = view ? view.order.id : null
+  useEffect(() => {
+    opened.current = { orderId: openId, shipped: shipped !== null }
+  }, [openId, shipped])
+
+  async function onScan(code: string) {
     setProblem(null)
-    const open = view && !shipped
-    if (open) {
-      scanItem.mutate({ orderId: view.order.id, code }, { onError: (e) => setProblem(e.message) })
-    } else {
-      lookup.mutate(code, {
-        onSuccess: (v) => {
-          setShipped(null)
-          setParams({ order: v.order.id })
-          // The scan that opened the order also puts its unit in the box, when it may go.
-          const item = v.items.find((i) => i.binCode === code.toUpperCase() || (i.serial === code.toUpperCase() && i.kind !== 'bag'))
-          if (item && !item.check && !item.problem) scanItem.mutate({ orderId: v.order.id, code }, { onError: (e) => setProblem(e.message) })
-        },
-        onError: (e) => setProblem(e.message),
-      })
+    const now = opened.current
+    try {
+      if (now.orderId && !now.shipped) {
+        await scanItem.mutateAsync({ orderId: now.orderId, code })
+        return
+      }
+      const v = await lookup.mutateAsync(code)
+      opened.current = { orderId: v.order.id, shipped: false }
+      setShipped(null)
+      setParams({ order: v.order.id })
+      // The scan that opened the order also puts its unit in the box, when it may go.
+      const item = v.items.find((i) => i.binCode === code.toUpperCase() || (i.serial === code.toUpperCase() && i.kind !== 'bag'))
+      if (item && !item.check && !item.problem) await scanItem.mutateAsync({ orderId: v.order.id, code })
+    } catch (e) {
+      setProblem(e instanceof Error ? e.message : String(e))
     }
   }
 

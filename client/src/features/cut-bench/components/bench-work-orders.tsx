@@ -1,29 +1,34 @@
+import { useQueryClient } from '@tanstack/react-query'
 import { toast } from 'sonner'
 import type { CutRunDetail } from '@kitwright/shared/cut-runs'
 import { ScanField } from '../../../components/ui/scan-field'
-import { binLabelHref, useAssignBin } from '../api/cut-bench-queries'
+import { benchKeys, binLabelHref, useAssignBin } from '../api/cut-bench-queries'
+
+/** The work order a scanned bin goes to: first a unit whose pieces are all cut, else the next unit without a bin. */
+function binTarget(run: CutRunDetail) {
+  const needing = run.workOrders.filter((w) => !w.bin)
+  return needing.find((w) => w.cut === w.pieces) ?? needing[0]
+}
 
 /**
  * The work orders of the run with their bins. A scan assigns the bin to the work order waiting for
- * one: first a unit whose pieces are all cut, else the next unit without a bin.
+ * one. Scans queue in the shared scan field; each one reads the run as the previous scan left it,
+ * so two bins scanned in quick succession go to two units.
  */
 export function BenchWorkOrders({ run }: { run: CutRunDetail }) {
+  const qc = useQueryClient()
   const assign = useAssignBin()
-  const needing = run.workOrders.filter((w) => !w.bin)
-  const target = needing.find((w) => w.cut === w.pieces) ?? needing[0]
+  const target = binTarget(run)
+  async function onScan(code: string) {
+    const latest = qc.getQueryData<CutRunDetail>(benchKeys.run(run.id)) ?? run
+    const wo = binTarget(latest)
+    if (!wo) throw new Error('Every unit of this run already has its bin')
+    await assign.mutateAsync({ runId: run.id, workOrderId: wo.id, code })
+    toast.success(`Bin ${code.toUpperCase()} is now WO ${wo.serial}'s`)
+  }
   return (
     <section aria-label="Bins" className="space-y-3">
-      <ScanField
-        label={target ? `Scan a free bin for WO ${target.serial}` : 'Every unit of this run has its bin'}
-        disabled={!target || assign.isPending}
-        onScan={(code) =>
-          target &&
-          assign.mutate(
-            { runId: run.id, workOrderId: target.id, code },
-            { onSuccess: () => toast.success(`Bin ${code.toUpperCase()} is now WO ${target.serial}'s`), onError: (e) => toast.error(e.message) },
-          )
-        }
-      />
+      <ScanField label={target ? `Scan a free bin for WO ${target.serial}` : 'Every unit of this run has its bin'} onScan={onScan} />
       <ul className="space-y-2">
         {run.workOrders.map((w) => {
           const complete = w.cut === w.pieces
