@@ -32,6 +32,14 @@ export const parts = pgTable(
     stickLengths: integer().array().notNull().default(sql`'{}'::integer[]`),
     /** Runs on mains power (a pump, a timer): a box holding one gets the electrical cautions on its care sheet. */
     electrical: boolean().notNull().default(false),
+    /**
+     * Customs: the Harmonized System tariff number (6-digit subheading, up to 10 digits with a
+     * country's own extension, digits only), the ISO 3166-1 alpha-2 country of origin, and the plain
+     * words for the declaration. Net weight is `weightGrams`; value comes from the order line price.
+     */
+    hsCode: text(),
+    originCountry: text(),
+    customsDescription: text(),
     active: boolean().notNull().default(true),
     createdAt: createdAt(),
     updatedAt: updatedAt(),
@@ -42,6 +50,8 @@ export const parts = pgTable(
     index('parts_sku_upper_index').on(sql`upper(${t.sku})`),
     check('parts_cost_not_negative', sql`${t.unitCostCents} >= 0`),
     check('parts_weight_not_negative', sql`${t.weightGrams} >= 0`),
+    check('parts_hs_code_digits', sql`${t.hsCode} ~ '^[0-9]{6,10}$'`),
+    check('parts_origin_country_alpha2', sql`${t.originCountry} ~ '^[A-Z]{2}$'`),
   ],
 )
 export type PartRow = typeof parts.$inferSelect
