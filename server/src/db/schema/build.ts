@@ -26,6 +26,8 @@ export const buildStepTicks = pgTable(
     measurement: numeric(),
     /** The measurement fell outside the step's limits; recorded all the same. */
     outOfLimits: boolean().notNull().default(false),
+    /** Why an out-of-limits measurement was recorded all the same (required with one). */
+    outOfLimitsReason: text(),
     undoneAt: timestamp({ withTimezone: true }),
     undoneBy: uuid().references(() => users.id),
   },
@@ -103,6 +105,8 @@ export const reworkEntries = pgTable(
     workOrderId: uuid().notNull().references(() => workOrders.id),
     /** The failed leak test that sent it, when one did. */
     leakTestId: uuid().references(() => leakTests.id),
+    /** The out-of-limits measurement that sent it, when one did; resolved when that tick is undone. */
+    stepTickId: uuid().references(() => buildStepTicks.id),
     reason: text().notNull(),
     createdBy: uuid().notNull().references(() => users.id),
     createdAt: createdAt(),

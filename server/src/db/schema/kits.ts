@@ -104,6 +104,10 @@ export const buildSteps = pgTable(
     measurementUnit: text(),
     measurementMin: numeric(),
     measurementMax: numeric(),
+    /** May be done at any point of the build; the other steps go in order. */
+    freeOrder: boolean().notNull().default(false),
+    /** A measurement outside the limits sends the unit to rework (otherwise it is flagged, with its reason). */
+    outOfLimitsRework: boolean().notNull().default(false),
   },
   (t) => [index().on(t.revisionId)],
 )
