@@ -181,7 +181,7 @@ export async function damageStick(db: Db, runId: string, stickId: string, input:
         runId,
         [{ partId: stick.partId, plan, replacesCutOfPiece: (i) => affected[i]?.id }],
         { position: (last?.position ?? 0) + 1, patternIndex: (last?.pattern ?? -1) + 1 },
-        stickId,
+        { kerf: run.kerf, replanOfStickId: stickId },
       )
     }
     for (const woId of new Set(affected.map((c) => c.workOrderId))) await settleWorkOrder(tx, woId)

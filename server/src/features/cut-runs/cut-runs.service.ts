@@ -152,7 +152,7 @@ export async function planCutRun(db: Db, input: PlanCutRun, actor: Actor): Promi
       .insert(cutRuns)
       .values({ number: await nextRunNumber(tx), kerf, endTrim, minOffcut, ...sumPlans(plans), createdBy: actor.id })
       .returning()
-    await insertPlanRows(tx, run!.id, plans, { position: 1, patternIndex: 0 })
+    await insertPlanRows(tx, run!.id, plans, { position: 1, patternIndex: 0 }, { kerf })
     return run!.id
   })
   return getCutRun(db, runId)

@@ -1,4 +1,5 @@
 import type { NestPlan } from '@kitwright/shared/domain/nesting/index'
+import { sawOrder } from '@kitwright/shared/domain/saw-order'
 import type { Tx } from '../../db/client'
 import { cutRunCuts, cutRunSticks, type NewCutRunCutRow, type NewCutRunStickRow } from '../../db/schema/index'
 
@@ -12,15 +13,17 @@ export interface PartPlan {
 /**
  * Writes the sticks and cuts of the plans after `start` (saw position and pattern index), in plan
  * order. Stock sticks carry their stock length; offcut sticks their offcut id. Every cut must carry
- * the work order and cut part it was planned for.
+ * the work order and cut part it was planned for. `saw.kerf` is the run's kerf (the cuts' offsets
+ * are recomputed for the saw order); `saw.replanOfStickId` the damaged stick a re-plan replaces.
  */
 export async function insertPlanRows(
   tx: Tx,
   runId: string,
   plans: readonly PartPlan[],
   start: { position: number; patternIndex: number },
-  replanOfStickId: string | null = null,
+  saw: { kerf: number; replanOfStickId?: string | null },
 ) {
+  const replanOfStickId = saw.replanOfStickId ?? null
   let position = start.position
   let patternBase = start.patternIndex
   const stickRows: NewCutRunStickRow[] = []
@@ -41,8 +44,11 @@ export async function insertPlanRows(
         remnantIsOffcut: stick.remnantIsOffcut,
         replanOfStickId,
       })
+      // Stored in saw order (shared/domain/saw-order.ts): the sheet, the bench and the drawings number
+      // the pieces by this position.
+      const ordered = sawOrder(stick.cuts, (c) => `${c.cutPartRef ?? ''}|${c.workOrderRef ?? ''}`, { trim: stick.trim, kerf: saw.kerf })
       cutsOfStick.push(
-        stick.cuts.map((c, i) => {
+        ordered.map((c, i) => {
           if (!c.workOrderRef || !c.cutPartRef) throw new Error('A planned cut lost its work order or cut part')
           return {
             cutRunId: runId,
