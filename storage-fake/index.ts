@@ -1,5 +1,6 @@
 // Starts the local stand-ins for the services a real shop would rent: S3, an SMTP relay and a carrier.
 // Prints "ready" once all listen; stops on SIGINT/SIGTERM.
+import { readFileSync } from 'node:fs'
 import path from 'node:path'
 import { startCarrierFake } from './carrier'
 import { startS3Fake } from './s3'
@@ -10,11 +11,16 @@ const s3Port = Number(process.env.FAKE_S3_PORT ?? 54330)
 const smtpPort = Number(process.env.FAKE_SMTP_PORT ?? 54325)
 const carrierPort = Number(process.env.FAKE_CARRIER_PORT ?? 54331)
 const bucket = process.env.S3_BUCKET ?? 'kitwright'
+// LAN mode (npm start -- --lan): the S3 stand-in listens where tablets reach it, allows the app's
+// origins, and speaks HTTPS when the app does.
+const s3Host = process.env.FAKE_S3_HOST ?? '127.0.0.1'
+const allowedOrigins = (process.env.FAKE_S3_ALLOWED_ORIGINS ?? '').split(',').filter(Boolean)
+const tlsFiles = process.env.FAKE_S3_TLS_CERT_FILE && process.env.FAKE_S3_TLS_KEY_FILE ? { cert: readFileSync(process.env.FAKE_S3_TLS_CERT_FILE), key: readFileSync(process.env.FAKE_S3_TLS_KEY_FILE) } : undefined
 
-const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket })
+const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket, address: s3Host, allowedOrigins, tls: tlsFiles })
 const smtp = await startSmtpCatcher({ port: smtpPort, directory: path.join(dir, 'mail') })
 const carrier = await startCarrierFake({ port: carrierPort })
-console.log(`[storage-fake] S3 on http://127.0.0.1:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}`)
+console.log(`[storage-fake] S3 on ${tlsFiles ? 'https' : 'http'}://${s3Host}:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}`)
 console.log('ready')
 
 async function stop() {

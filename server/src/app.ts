@@ -21,6 +21,7 @@ import { packRouter, shipmentsRouter } from './features/pack/pack.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { reportsRouter } from './features/reports/reports.routes'
+import { tabletsRouter } from './features/tablets/tablets.routes'
 import { authenticate } from './lib/auth'
 import { errorHandler } from './lib/error-handler'
 import { NotFound } from './lib/http-errors'
@@ -33,20 +34,26 @@ import { photoStoreDirectives } from './lib/storage'
 export function createApp(deps: Deps) {
   const app = express()
   const routes = new RouteTable()
-  app.set('trust proxy', 'loopback')
+  // Which proxies may say what the client's address and scheme were (TRUST_PROXY); req.secure follows it.
+  app.set('trust proxy', deps.trustProxy ?? 'loopback')
   app.disable('x-powered-by')
   // helmet's defaults, with a CSP narrowed to what the built client uses: its own scripts, styles and
   // fonts (bundled, no CDN), <style> elements injected at run time (sonner's toasts), and the photo
-  // store for presigned uploads and photos. tests/api/security.test.ts checks the bundle against it.
+  // store's public address for presigned uploads and photos. tests/api/security.test.ts checks the
+  // bundle against it. HSTS and upgrade-insecure-requests only where the request came over HTTPS
+  // (directly, or through a trusted proxy): over plain HTTP on the shop network they would send a
+  // tablet to an https:// address nothing answers (tests/api/served-headers.test.ts).
   const directives = { ...photoStoreDirectives(deps.storage), fontSrc: ["'self'"], styleSrc: ["'self'", "'unsafe-inline'"] }
-  app.use(helmet({ contentSecurityPolicy: { directives } }))
+  const overHttps = helmet({ contentSecurityPolicy: { directives } })
+  const overHttp = helmet({ contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } }, strictTransportSecurity: false })
+  app.use((req, res, next) => (req.secure ? overHttps : overHttp)(req, res, next))
   app.use(requestLogger(deps.logger))
   app.use(express.json({ limit: '1mb', verify: keepRawBody }))
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, reportsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, reportsRouter, tabletsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -24,6 +24,10 @@ export interface Deps {
   carrier?: Carrier | null
   /** The address people and tablets reach the app by (PUBLIC_URL): every e-mail link, signed record link and QR code starts with it. */
   publicUrl: string
+  /** Which proxies to believe about the client's address and X-Forwarded-Proto (Express `trust proxy`, TRUST_PROXY); default loopback. */
+  trustProxy?: boolean | number | string[]
+  /** How this process is served, for "Connect a tablet": the address it listens on and the local CA tablets install for HTTPS. */
+  served?: { listenHost: string; https: boolean; caCertificate: Buffer | null }
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

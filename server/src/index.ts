@@ -1,3 +1,4 @@
+import { createServer as createHttpsServer } from 'node:https'
 import { createApp } from './app'
 import { carrierFromEnv } from './features/shipping/carrier'
 import { createDb } from './db/client'
@@ -24,6 +25,8 @@ const { app } = createApp({
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
   carrier: carrierFromEnv(env.CARRIER_URL),
   publicUrl: env.PUBLIC_URL,
+  trustProxy: env.TRUST_PROXY,
+  served: { listenHost: env.HOST, https: !!env.tls, caCertificate: env.tls?.caCertificate ?? null },
   tokens: {
     secret: new TextEncoder().encode(env.SESSION_SECRET),
     lifetimeSeconds: env.SESSION_MINUTES * 60,
@@ -32,14 +35,17 @@ const { app } = createApp({
   clientDist: env.CLIENT_DIST,
 })
 
-const server = app.listen(env.PORT, env.HOST, () => {
+// HTTPS when given a certificate (npm start -- --https makes a local one): tablet browsers allow the
+// camera scanner only in a secure context. Behind a TLS-terminating proxy, serve HTTP and set TRUST_PROXY.
+const server = env.tls ? createHttpsServer({ cert: env.tls.cert, key: env.tls.key }, app) : app
+const listening = server.listen(env.PORT, env.HOST, () => {
   // Printed, not logged: the start script waits for this line whatever the log level.
-  console.log(`Kitwright API listening on http://${env.HOST}:${env.PORT}`)
+  console.log(`Kitwright API listening on ${env.tls ? 'https' : 'http'}://${env.HOST}:${env.PORT} (public address ${env.PUBLIC_URL})`)
 })
 
 function shutdown() {
   // Running jobs get a few seconds to finish; an unfinished one is retried by the next process.
-  server.close(() => void jobs.stop().finally(() => pool.end().then(() => process.exit(0))))
+  listening.close(() => void jobs.stop().finally(() => pool.end().then(() => process.exit(0))))
   setTimeout(() => process.exit(0), 15_000).unref()
 }
 process.on('SIGINT', shutdown)

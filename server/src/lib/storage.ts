@@ -6,6 +6,12 @@ import { Unavailable } from './http-errors'
 export interface StorageConfig {
   /** Omitted for AWS itself; set for any other S3-compatible store (and for s3rver). */
   endpoint?: string
+  /**
+   * The store's address as browsers reach it (S3_PUBLIC_URL), when it differs from `endpoint`: a
+   * tablet on the shop network cannot reach the 127.0.0.1 the server talks to. Presigned URLs are
+   * signed for this host; the server itself never calls it.
+   */
+  publicEndpoint?: string
   bucket: string
   accessKeyId: string
   secretAccessKey: string
@@ -46,27 +52,32 @@ export function createStorage(config: StorageConfig | null): Storage {
     const fail = () => Promise.reject(new Unavailable(NOT_CONFIGURED))
     return { origin: null, presignPut: fail, presignGet: fail, head: fail }
   }
-  const client = new S3Client({
-    region: config.region,
-    endpoint: config.endpoint,
-    forcePathStyle: true,
-    credentials: { accessKeyId: config.accessKeyId, secretAccessKey: config.secretAccessKey },
-    requestChecksumCalculation: 'WHEN_REQUIRED',
-    responseChecksumValidation: 'WHEN_REQUIRED',
-    maxAttempts: 2,
-    requestHandler: { connectionTimeout: 3000, requestTimeout: 10_000 },
-  })
-  const origin = config.endpoint ? new URL(config.endpoint).origin : `https://s3.${config.region}.amazonaws.com`
+  const clientFor = (endpoint: string | undefined) =>
+    new S3Client({
+      region: config.region,
+      endpoint,
+      forcePathStyle: true,
+      credentials: { accessKeyId: config.accessKeyId, secretAccessKey: config.secretAccessKey },
+      requestChecksumCalculation: 'WHEN_REQUIRED',
+      responseChecksumValidation: 'WHEN_REQUIRED',
+      maxAttempts: 2,
+      requestHandler: { connectionTimeout: 3000, requestTimeout: 10_000 },
+    })
+  const client = clientFor(config.endpoint)
+  // The signature covers the host, so browser-facing URLs are signed by a client of the public address.
+  const presigner = config.publicEndpoint ? clientFor(config.publicEndpoint) : client
+  const browserEndpoint = config.publicEndpoint ?? config.endpoint
+  const origin = browserEndpoint ? new URL(browserEndpoint).origin : `https://s3.${config.region}.amazonaws.com`
   return {
     origin,
     async presignPut(key, object, expiresIn) {
       const command = new PutObjectCommand({ Bucket: config.bucket, Key: key, ContentType: object.contentType, ContentLength: object.size })
       // The presigner leaves content-type unsigned unless told; signing both binds the upload to what was promised.
-      const url = await getSignedUrl(client, command, { expiresIn, signableHeaders: new Set(['content-type', 'content-length']) })
+      const url = await getSignedUrl(presigner, command, { expiresIn, signableHeaders: new Set(['content-type', 'content-length']) })
       return { url, headers: { 'content-type': object.contentType } }
     },
     presignGet(key, expiresIn) {
-      return getSignedUrl(client, new GetObjectCommand({ Bucket: config.bucket, Key: key }), { expiresIn })
+      return getSignedUrl(presigner, new GetObjectCommand({ Bucket: config.bucket, Key: key }), { expiresIn })
     },
     async head(key) {
       try {
@@ -81,10 +92,11 @@ export function createStorage(config: StorageConfig | null): Storage {
 }
 
 /** The storage settings from the environment, or null when no bucket is configured. */
-export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_BUCKET?: string; S3_ACCESS_KEY_ID?: string; S3_SECRET_ACCESS_KEY?: string; S3_REGION: string }): StorageConfig | null {
+export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_PUBLIC_URL?: string; S3_BUCKET?: string; S3_ACCESS_KEY_ID?: string; S3_SECRET_ACCESS_KEY?: string; S3_REGION: string }): StorageConfig | null {
   if (!env.S3_BUCKET || !env.S3_ACCESS_KEY_ID || !env.S3_SECRET_ACCESS_KEY) return null
   return {
     endpoint: env.S3_ENDPOINT,
+    publicEndpoint: env.S3_PUBLIC_URL,
     bucket: env.S3_BUCKET,
     accessKeyId: env.S3_ACCESS_KEY_ID,
     secretAccessKey: env.S3_SECRET_ACCESS_KEY,
@@ -93,8 +105,8 @@ export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_BUCKET?: st
 }
 
 /**
- * The page's content security policy lets the browser upload to and show photos from the store
- * (helmet's defaults allow only the app's own origin).
+ * The page's content security policy lets the browser upload to and show photos from the store's
+ * public address, and nothing else (helmet's defaults allow only the app's own origin).
  */
 export function photoStoreDirectives(storage: Pick<Storage, 'origin'>) {
   const store = storage.origin ? [storage.origin] : []
