@@ -31,6 +31,7 @@ export const router = createBrowserRouter([
           { path: paths.users.pattern, lazy: () => import('./routes/admin/users'), loader: ({ request }) => requireRole(request, ['admin']) },
           { path: paths.audit.pattern, lazy: () => import('./routes/admin/audit'), loader: ({ request }) => requireRole(request, ['admin']) },
           { path: paths.settings.pattern, lazy: () => import('./routes/admin/settings'), loader: ({ request }) => requireRole(request, ['admin']) },
+          { path: paths.connectTablet.pattern, lazy: () => import('./routes/admin/connect-tablet'), loader: ({ request }) => requireRole(request, ['admin']) },
           { path: paths.kits.pattern, lazy: () => import('./routes/catalog/kits'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
           { path: paths.revision.pattern, lazy: () => import('./routes/catalog/revision'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
           { path: paths.parts.pattern, lazy: () => import('./routes/catalog/parts'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },

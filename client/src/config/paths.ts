@@ -9,6 +9,7 @@ export const paths = {
   users: { pattern: '/admin/users', href: () => '/admin/users' },
   audit: { pattern: '/admin/audit', href: () => '/admin/audit' },
   settings: { pattern: '/admin/settings', href: () => '/admin/settings' },
+  connectTablet: { pattern: '/admin/connect-tablet', href: () => '/admin/connect-tablet' },
   cutRuns: { pattern: '/planning/cut-runs', href: () => '/planning/cut-runs' },
   cutRun: { pattern: '/planning/cut-runs/:runId', href: (runId: string) => `/planning/cut-runs/${runId}` },
   bins: { pattern: '/admin/bins', href: () => '/admin/bins' },

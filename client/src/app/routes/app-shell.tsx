@@ -24,6 +24,7 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Users', href: paths.users.href(), roles: ['admin'] },
   { label: 'Audit', href: paths.audit.href(), roles: ['admin'] },
   { label: 'Settings', href: paths.settings.href(), roles: ['admin'] },
+  { label: 'Tablets', href: paths.connectTablet.href(), roles: ['admin'] },
 ]
 
 export function AppShell() {

@@ -14,6 +14,8 @@ export function Component() {
           <p className="text-stone-600">Sign in to your shop</p>
         </div>
         <SignInForm
+          // `?with=pin` (BENCH_SIGN_IN_PATH, the tablets' QR code) opens the bench PIN form.
+          initialMode={params.get('with') === 'pin' ? 'pin' : 'password'}
           onSignedIn={(me) => {
             // Only follow a same-site path, never an address someone put in the link.
             const target = next && next.startsWith('/') && !next.startsWith('//') ? next : landingFor(me.role)

@@ -11,8 +11,9 @@ import { useSignIn } from '../api/auth-queries'
 
 type Mode = 'password' | 'pin'
 
-export function SignInForm({ onSignedIn }: { onSignedIn: (me: Me) => void }) {
-  const [mode, setMode] = useState<Mode>('password')
+/** Sign-in by password or bench PIN; `initialMode` 'pin' is for tablets at a bench (the QR code's address). */
+export function SignInForm({ onSignedIn, initialMode = 'password' }: { onSignedIn: (me: Me) => void; initialMode?: Mode }) {
+  const [mode, setMode] = useState<Mode>(initialMode)
   return (
     <div className="space-y-5">
       <div role="tablist" aria-label="How to sign in" className="grid grid-cols-2 gap-2">
