@@ -1,7 +1,7 @@
 import { randomBytes } from 'node:crypto'
 import { and, eq, sql } from 'drizzle-orm'
 import type { Db } from '../../server/src/db/client'
-import { kitRevisions, kits, offcuts, orderLines, orders, parts, stockMoves, workOrders } from '../../server/src/db/schema/index'
+import { cutParts, kitRevisions, kits, offcuts, orderLines, orders, parts, stockMoves, workOrders } from '../../server/src/db/schema/index'
 
 /** A released revision of a demo kit (seeded with seedDemo), by kit SKU and revision code. */
 export async function revisionOf(db: Db, kitSku: string, code = 'A') {
@@ -65,4 +65,17 @@ export async function insertOffcut(db: Db, partSku: string, length: number) {
   const [offcut] = await db.insert(offcuts).values({ partId: part!.id, length }).returning()
   await db.insert(stockMoves).values({ partId: part!.id, kind: 'offcut_in', quantity: 1, offcutId: offcut!.id })
   return offcut!
+}
+
+/**
+ * A kit with a released revision A whose only pipe is the given cut parts (lengths in base units)
+ * of `pipeSku` (default the demo's 1/2 in PVC), for runs with many equal or many different pieces.
+ */
+export async function insertCutKit(db: Db, opts: { sku: string; cutParts: { label: string; length: number; quantity: number }[]; pipeSku?: string }) {
+  const [pipe] = await db.select().from(parts).where(eq(parts.sku, opts.pipeSku ?? 'PVC-050-S40'))
+  if (!pipe) throw new Error('no pipe part; seed the demo first')
+  const [kit] = await db.insert(kits).values({ sku: opts.sku, name: `Test kit ${opts.sku}` }).returning()
+  const [rev] = await db.insert(kitRevisions).values({ kitId: kit!.id, code: 'A', status: 'released', releasedAt: new Date() }).returning()
+  await db.insert(cutParts).values(opts.cutParts.map((c, i) => ({ revisionId: rev!.id, partId: pipe.id, label: c.label, length: c.length, quantity: c.quantity, position: i })))
+  return { kitId: kit!.id, revisionId: rev!.id, sku: opts.sku }
 }

@@ -72,7 +72,8 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
     const run = await getCutRun(deps.db, id)
     const settings = await getShopSettings(deps.db)
     const pdf = await cutSheetPdf(run, { paper, unit: settings.displayUnit, shopName: settings.shopName })
-    res.type('application/pdf').attachment(`cut-sheet-${run.number}-${paper}.pdf`).send(pdf)
+    // inline: the browser shows the sheet (and prints it from there); the name is used when saved.
+    res.type('application/pdf').set('content-disposition', `inline; filename="cut-sheet-${run.number}-${paper}.pdf"`).send(pdf)
   })
   r.post('/:id/cuts/:cutId/tick', bench, async (req, res) => {
     const { id, cutId } = RunCutParamsSchema.parse(req.params)

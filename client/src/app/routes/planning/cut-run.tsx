@@ -27,10 +27,10 @@ export function Component() {
         </Link>
         {r.status !== 'draft' && r.status !== 'cancelled' && (
           <>
-            <a href={cutSheetHref(r.id, 'letter')} className={linkButton}>
+            <a href={cutSheetHref(r.id, 'letter')} className={linkButton} target="_blank" rel="noreferrer">
               Cut sheet (Letter)
             </a>
-            <a href={cutSheetHref(r.id, 'a4')} className={linkButton}>
+            <a href={cutSheetHref(r.id, 'a4')} className={linkButton} target="_blank" rel="noreferrer">
               Cut sheet (A4)
             </a>
           </>
