@@ -76,6 +76,7 @@ describe('writing a parts CSV record', () => {
       id: '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11', sku: 'PVC-050-S40', name: 'Pipe', kind: 'stock_length', unitOfMeasure: 'stick',
       unitCostCents: 348, weightGrams: 730, supplier: 'Yard', leadTimeDays: 3, reorderPoint: 20, reorderQuantity: 50,
       shelfLocation: 'P1', nominalSize: '1/2', outsideDiameter: inches(0.84), stickLengths: [inches(120), inches(240)],
+      hsCode: '3917230000', originCountry: 'US', customsDescription: 'Rigid PVC pipe, cut to length',
       active: false, createdAt: '', updatedAt: '',
     }
     const r = partFromCsvRecord(partToCsvRecord(part, 'in'), 'in')
@@ -84,6 +85,18 @@ describe('writing a parts CSV record', () => {
     const { id: _i, active, createdAt: _c, updatedAt: _u, ...input } = part
     expect(r.part).toEqual(input)
     expect(r.active).toBe(active)
+  })
+})
+
+describe('customs columns', () => {
+  it('read an HS code with dots and a country in any case, and refuse a bad code or ZZ against their columns', () => {
+    const ok = partFromCsvRecord({ ...pipeRecord, hs_code: '3917.23', origin_country: 'us', customs_description: 'Rigid PVC pipe' }, 'in')
+    expect(ok.ok && [ok.part.hsCode, ok.part.originCountry, ok.part.customsDescription]).toEqual(['391723', 'US', 'Rigid PVC pipe'])
+    const bad = partFromCsvRecord({ ...pipeRecord, hs_code: '3917', origin_country: 'ZZ' }, 'in')
+    expect(bad.ok).toBe(false)
+    if (bad.ok) return
+    expect(bad.errors.map((e) => e.column)).toEqual(['hs_code', 'origin_country'])
+    expect(bad.errors[1]!.message).toMatch(/"ZZ" is not an ISO 3166-1 country code/)
   })
 })
 

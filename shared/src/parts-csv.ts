@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { CsvRowErrorSchema } from './csv'
+import { formatHsCode } from './customs'
 import { formatLengthForInput, parseLength, type LengthUnit } from './domain/units'
 import { PART_KINDS, PartInputSchema, type Part, type PartInput, type PartInputDraft } from './parts'
 
@@ -22,6 +23,9 @@ export const PART_CSV_COLUMNS = [
   'nominal_size',
   'outside_diameter',
   'stick_lengths',
+  'hs_code',
+  'origin_country',
+  'customs_description',
   'active',
 ] as const
 /** A column of a parts CSV. */
@@ -46,6 +50,9 @@ export const PART_FIELD_COLUMNS: Record<keyof PartInput, PartCsvColumn> = {
   nominalSize: 'nominal_size',
   outsideDiameter: 'outside_diameter',
   stickLengths: 'stick_lengths',
+  hsCode: 'hs_code',
+  originCountry: 'origin_country',
+  customsDescription: 'customs_description',
 }
 
 /** The body of an import or its preview: the file's text. */
@@ -100,6 +107,9 @@ export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvCol
     nominal_size: part.nominalSize ?? '',
     outside_diameter: part.outsideDiameter === null ? '' : formatLengthForInput(part.outsideDiameter, unit),
     stick_lengths: part.stickLengths.map((l) => formatLengthForInput(l, unit)).join('; '),
+    hs_code: part.hsCode ? formatHsCode(part.hsCode) : '',
+    origin_country: part.originCountry ?? '',
+    customs_description: part.customsDescription ?? '',
     active: part.active ? 'yes' : 'no',
   }
 }
@@ -173,6 +183,9 @@ export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): Part
     nominalSize: cell('nominal_size'),
     outsideDiameter: od === '' ? null : length('outside_diameter', od),
     stickLengths: sticks === '' ? [] : sticks.split(/[;|]/).map((s) => s.trim()).filter(Boolean).map((s) => length('stick_lengths', s)),
+    hsCode: cell('hs_code'),
+    originCountry: cell('origin_country'),
+    customsDescription: cell('customs_description'),
   }
   const parsed = PartInputSchema.safeParse(draft)
   if (!parsed.success) {

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { HsCodeSchema, OriginCountrySchema } from './customs'
 import { MAX_LENGTH } from './domain/units'
 import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
 
@@ -26,6 +27,20 @@ const optionalText = z
   .nullish()
   .transform((v) => (v ? v : null))
 
+/** An optional field checked by `schema` when filled in; blank or missing is null. */
+function blankOr(schema: z.ZodType<string, string>) {
+  return z
+    .string()
+    .nullish()
+    .transform((v, ctx) => {
+      if (!v || v.trim() === '') return null
+      const r = schema.safeParse(v)
+      if (r.success) return r.data
+      ctx.addIssue({ code: 'custom', message: r.error.issues[0]?.message ?? 'Not valid' })
+      return z.NEVER
+    })
+}
+
 /** The fields of a part a planner edits; pipe fields are required for `stock_length` only. */
 export const PartInputSchema = z
   .object({
@@ -43,6 +58,10 @@ export const PartInputSchema = z
     nominalSize: optionalText,
     outsideDiameter: LengthSchema.nullish().transform((v) => v ?? null),
     stickLengths: z.array(LengthSchema).max(6, 'At most 6 stick lengths').default([]),
+    /** Customs: HS tariff number (6–10 digits), ISO 3166-1 alpha-2 country of origin, plain words for the declaration. */
+    hsCode: blankOr(HsCodeSchema),
+    originCountry: blankOr(OriginCountrySchema),
+    customsDescription: optionalText,
   })
   .strict()
   .superRefine((p, ctx) => {
@@ -76,6 +95,9 @@ export const PartSchema = z.object({
   nominalSize: z.string().nullable(),
   outsideDiameter: z.number().int().nullable(),
   stickLengths: z.array(z.number().int()),
+  hsCode: z.string().nullable(),
+  originCountry: z.string().nullable(),
+  customsDescription: z.string().nullable(),
   active: z.boolean(),
   createdAt: z.string(),
   updatedAt: z.string(),

@@ -62,9 +62,10 @@ export function shortageFieldKey(sku: string): string {
 }
 
 /**
- * One part on the shortages page. For hardware and packaging, in units: what the open work orders
- * still need (their BOM × units, less what was consumed), what is reserved for them, what is free in
- * stock, and `short` = needed − reserved − available when above zero. For pipe (kept by the stick and
+ * One part on the shortages page, over all open demand: the open work orders of released orders and
+ * the orders not yet released (each line at its kit's newest released revision). For hardware and
+ * packaging, in units: what that demand still needs (BOM × units, less what was consumed), what is
+ * reserved for it, what is free in stock, and `short` = needed − reserved − available when above zero. For pipe (kept by the stick and
  * reserved only when a cut run is published), the same in sticks, estimated from the cut parts: the
  * total cut length with kerf over the longest stick length, rounded up.
  */
@@ -80,24 +81,33 @@ export const ShortageRowSchema = z.object({
   short: z.number().int(),
   /** Open work orders that need this part. */
   workOrderCount: z.number().int(),
+  /** The open orders (released or not) that need it, the earliest ship date first. */
+  orderNumbers: z.array(z.string()),
+  /** The earliest date it is needed: the soonest due or promised ship date among them (YYYY-MM-DD). */
+  neededBy: z.string().nullable(),
   /** Pipe only: total length to cut (pieces + one kerf each), in base units. */
   cutLength: z.number().int().nullable(),
   /** Pipe only: the longest stick length the part is bought in, in base units. */
   stickLength: z.number().int().nullable(),
   supplier: z.string().nullable(),
   leadTimeDays: z.number().int().nullable(),
+  reorderPoint: z.number().int(),
   reorderQuantity: z.number().int(),
-  /** What to buy when short: the shortfall, or the part's reorder quantity when that is more; 0 when not short. */
+  /** Free stock is at or below the part's reorder point (needed by an order or not). */
+  belowReorderPoint: z.boolean(),
+  /** What to buy: the shortfall, or the reorder quantity when that is more or when below the reorder point; 0 otherwise. */
   suggestedOrder: z.number().int(),
 })
 /** One part on the shortages page. */
 export type ShortageRow = z.infer<typeof ShortageRowSchema>
 
-/** The shortages page: every part the open work orders need, short ones first. */
+/** The shortages page: every part the open demand needs, short ones first. */
 export const ShortagesSchema = z.object({
   rows: z.array(ShortageRowSchema),
   /** Open work orders counted (not shipped, packed or cancelled). */
   openWorkOrders: z.number().int(),
+  /** Orders received and not yet released, counted at their kits' newest released revisions. */
+  unreleasedOrders: z.number().int(),
 })
 /** The shortages page. */
 export type Shortages = z.infer<typeof ShortagesSchema>

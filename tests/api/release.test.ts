@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { NewOrderSchema, OrderDetailSchema, type NewOrderDraft } from '@kitwright/shared/orders'
 import { ReleaseResultSchema, ShortagesSchema } from '@kitwright/shared/work-orders'
-import { bomLines, cutParts, kitRevisions, kits, orders, parts, shopSettings, stockMoves, users, workOrders } from '../../server/src/db/schema/index'
+import { bomLines, cutParts, kitRevisions, kits, orderLines, orders, parts, shopSettings, stockMoves, users, workOrders } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/db/seed'
 import { createKit, releaseRevision, saveRevision } from '../../server/src/features/kits/kits.service'
 import { createOrder } from '../../server/src/features/orders/orders.service'
@@ -227,23 +227,58 @@ describe('releases at the same moment', () => {
 })
 
 describe('the shortages page', () => {
-  it('estimates pipe in sticks from the cut parts of work orders waiting for cutting', async () => {
+  it('estimates pipe in sticks from the cut parts of units still to cut: work orders waiting and orders not yet released', async () => {
     const res = await planner.get('/api/shortages?only=all')
     expect(res.status).toBe(200)
     const page = ShortagesSchema.parse(res.body)
     const [pipe] = await t.db.select().from(parts).where(eq(parts.kind, 'stock_length'))
     const [settings] = await t.db.select().from(shopSettings)
-    // By hand: each waiting unit's cut parts, one kerf per piece, over the longest stick, rounded up.
-    const waiting = await t.db.select({ rev: workOrders.kitRevisionId }).from(workOrders).where(eq(workOrders.status, 'waiting_cut'))
+    // By hand: each unit's cut parts, one kerf per piece, over the longest stick, rounded up — for every
+    // work order waiting for cutting, and every line of an open order at its kit's newest released revision.
+    const pipeOf = async (revisionId: string) => {
+      let length = 0
+      for (const c of await t.db.select().from(cutParts).where(and(eq(cutParts.revisionId, revisionId), eq(cutParts.partId, pipe!.id)))) length += (c.length + settings!.kerf) * c.quantity
+      return length
+    }
     let cut = 0
-    for (const w of waiting) {
-      for (const c of await t.db.select().from(cutParts).where(and(eq(cutParts.revisionId, w.rev), eq(cutParts.partId, pipe!.id)))) cut += (c.length + settings!.kerf) * c.quantity
+    for (const w of await t.db.select({ rev: workOrders.kitRevisionId }).from(workOrders).where(eq(workOrders.status, 'waiting_cut'))) cut += await pipeOf(w.rev)
+    const unreleased = await t.db.select({ kitId: orderLines.kitId, quantity: orderLines.quantity }).from(orderLines).innerJoin(orders, eq(orders.id, orderLines.orderId)).where(eq(orders.status, 'open'))
+    for (const line of unreleased) {
+      if (!line.kitId) continue
+      const [kit] = await t.db.select({ sku: kits.sku }).from(kits).where(eq(kits.id, line.kitId))
+      const rev = await newestReleased(kit!.sku).catch(() => null)
+      if (rev) cut += (await pipeOf(rev.id)) * line.quantity
     }
     const longest = Math.max(...pipe!.stickLengths)
     const row = page.rows.find((r) => r.partId === pipe!.id)!
     expect(cut).toBeGreaterThan(0)
     expect(row).toMatchObject({ kind: 'stock_length', cutLength: cut, stickLength: longest, needed: Math.ceil(cut / longest), reserved: 0, short: 0, suggestedOrder: 0 })
     expect(page.openWorkOrders).toBe(await t.db.$count(workOrders, inArray(workOrders.status, ['waiting_cut', 'cut', 'building', 'rework', 'built'])))
+    expect(page.unreleasedOrders).toBe(await t.db.$count(orders, eq(orders.status, 'open')))
+  })
+
+  it('counts orders not yet released, names them with the earliest date, and keeps reorder points', async () => {
+    // A part with 5 in stock and 2 per pack: orders for 2 packs (due later) and 1 pack (due sooner), not released.
+    const { part, kitSku } = await starvedKit(5, 2)
+    const later = await postOrder(buildNewOrder({ promisedShipDate: '2099-03-20', lines: [{ kitSku, quantity: 2, unitPriceCents: 100 }] }))
+    const sooner = await postOrder(buildNewOrder({ promisedShipDate: '2099-03-10', lines: [{ kitSku, quantity: 1, unitPriceCents: 100 }] }))
+    const page = ShortagesSchema.parse((await planner.get('/api/shortages')).body)
+    const row = page.rows.find((r) => r.partId === part.id)!
+    // By hand: needed 2 × 2 + 1 × 2 = 6, nothing reserved (not released), 5 free → short 1.
+    expect(row).toMatchObject({ needed: 6, reserved: 0, available: 5, short: 1, workOrderCount: 0, neededBy: '2099-03-10' })
+    expect(row.orderNumbers).toEqual([sooner.number, later.number])
+
+    // Releasing the sooner one moves its need to a work order with its reservation: still short 1.
+    expect((await planner.post('/api/orders/release').send({ orderIds: [sooner.id] })).status).toBe(200)
+    const after = ShortagesSchema.parse((await planner.get('/api/shortages')).body).rows.find((r) => r.partId === part.id)!
+    // By hand: needed 6, reserved 2 (the released pack), free 5 − 2 = 3 → short 6 − 2 − 3 = 1.
+    expect(after).toMatchObject({ needed: 6, reserved: 2, available: 3, short: 1, workOrderCount: 1 })
+
+    // A part nobody needs, at its reorder point, is still suggested for buying (its reorder quantity).
+    const idle = await insertPart(t.db, { name: 'Test spare grommet', reorderPoint: 10, reorderQuantity: 50 })
+    await t.db.insert(stockMoves).values({ partId: idle.id, kind: 'receive', quantity: 10 })
+    const idleRow = ShortagesSchema.parse((await planner.get('/api/shortages')).body).rows.find((r) => r.partId === idle.id)!
+    expect(idleRow).toMatchObject({ needed: 0, short: 0, belowReorderPoint: true, suggestedOrder: 50, orderNumbers: [] })
   })
 
   it('is for admins and planners only', async () => {

@@ -18,8 +18,9 @@ export function Component() {
         <div className="mr-auto">
           <h1 className="text-3xl font-bold">Shortages</h1>
           <p className="text-stone-700">
-            What the open work orders still need, against what is reserved for them and what is free in stock.
-            {shortages.data ? ` ${shortages.data.openWorkOrders} open work orders.` : ''}
+            What every open order still needs (released into work orders or not yet released), against what is reserved for it and what is free in
+            stock; parts at or below their reorder point are listed too.
+            {shortages.data ? ` ${shortages.data.openWorkOrders} open work orders and ${shortages.data.unreleasedOrders} orders not yet released.` : ''}
           </p>
         </div>
         <label className="block space-y-1">
@@ -40,7 +41,8 @@ export function Component() {
         <p className="text-stone-500">Adding up the work orders…</p>
       )}
       <p className="text-sm text-stone-600">
-        Pipe is reserved when a cut run is published, so before that its need is an estimate: every piece plus one saw kerf, over the longest stick
+        An order not yet released is counted at its kits' newest released revisions, as a release would make it. Pipe is reserved when a cut run
+        is published, so before that its need is an estimate: every piece plus one saw kerf, over the longest stick
         the pipe comes in, rounded up; offcuts on the rack are not counted.
       </p>
       <p className="text-sm text-stone-600" aria-label="On order">

@@ -1,17 +1,26 @@
 import type { Length } from '@kitwright/shared/domain/units'
 import type { ShortageRow } from '@kitwright/shared/work-orders'
 import { cn } from '../../../lib/cn'
+import { formatDay } from '../../orders/components/format'
 
 const th = 'px-3 py-2 font-bold'
 const td = 'px-3 py-2 tabular-nums'
+
+/** The orders that need a part, the first few by number. */
+function ordersWords(numbers: string[]) {
+  if (numbers.length === 0) return 'No open order (reorder point)'
+  const shown = numbers.slice(0, 4).join(', ')
+  return numbers.length > 4 ? `${shown} and ${numbers.length - 4} more` : shown
+}
 
 function unitWord(r: ShortageRow) {
   return r.kind === 'stock_length' ? 'sticks' : r.unitOfMeasure
 }
 
 /**
- * Parts the open work orders need, against what is reserved for them and what is free. Pipe is
- * estimated in sticks from the cut parts (it is reserved when a cut run is published).
+ * Parts the open orders need, against what is reserved for them and what is free, with the orders
+ * that need each and the earliest date. Pipe is estimated in sticks from the cut parts (it is
+ * reserved when a cut run is published).
  */
 export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; formatLength: (v: Length) => string }) {
   return (
@@ -24,7 +33,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
             <th className={th}>Reserved</th>
             <th className={th}>Free in stock</th>
             <th className={th}>Short</th>
-            <th className={th}>Work orders</th>
+            <th className={th}>Needed by</th>
             <th className={th}>Supplier · lead time</th>
             <th className={th}>Suggest buying</th>
           </tr>
@@ -47,18 +56,28 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
               <td className={td}>{r.reserved}</td>
               <td className={td}>{r.available}</td>
               <td className={cn(td, r.short > 0 && 'font-bold text-red-700')}>{r.short > 0 ? `${r.short} ${unitWord(r)}` : '—'}</td>
-              <td className={td}>{r.workOrderCount}</td>
+              <td className="px-3 py-2">
+                {r.neededBy ? <span className="block font-bold">{formatDay(r.neededBy)}</span> : null}
+                <span className="block text-sm text-stone-600">{ordersWords(r.orderNumbers)}</span>
+              </td>
               <td className="px-3 py-2">
                 {r.supplier ?? '—'}
                 {r.leadTimeDays !== null ? ` · ${r.leadTimeDays} days` : ''}
               </td>
-              <td className={cn(td, r.suggestedOrder > 0 && 'font-bold')}>{r.suggestedOrder > 0 ? `${r.suggestedOrder} ${unitWord(r)}` : '—'}</td>
+              <td className={cn(td, r.suggestedOrder > 0 && 'font-bold')}>
+                {r.suggestedOrder > 0 ? `${r.suggestedOrder} ${unitWord(r)}` : '—'}
+                {r.belowReorderPoint && (
+                  <span className="block text-sm font-normal text-stone-600">
+                    {r.available} free, reorder point {r.reorderPoint}
+                  </span>
+                )}
+              </td>
             </tr>
           ))}
           {rows.length === 0 && (
             <tr>
               <td colSpan={8} className="px-3 py-6 text-center text-stone-500">
-                Nothing is short: every open work order's parts are reserved or free in stock.
+                Nothing is short: every open order's parts are reserved or free in stock, and no part is at its reorder point.
               </td>
             </tr>
           )}
