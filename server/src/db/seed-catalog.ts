@@ -1,3 +1,4 @@
+import { and, eq, isNull } from 'drizzle-orm'
 import { PartInputSchema, type PartInputDraft } from '@kitwright/shared/parts'
 import { inches } from '@kitwright/shared/domain/units'
 import type { Db } from './client'
@@ -83,9 +84,41 @@ export const DEMO_PARTS: PartInputDraft[] = [
   { ...packaging, sku: S.hardwareBag, name: 'Zip hardware bag, 6 × 9 in', unitCostCents: 6, weightGrams: 3, supplier: PACKAGING, leadTimeDays: 7, reorderPoint: 200, reorderQuantity: 500, shelfLocation: 'PK-04' },
 ]
 
+/**
+ * Customs facts of the demo parts: HS subheadings that are common classifications for such goods,
+ * chosen for the demo; a shop must check its own with its customs broker or the tariff of the
+ * country of import; they are not advice. Countries of origin are the invented scenario's.
+ * Packaging (cartons, bags, paper) is not declared.
+ */
+export const DEMO_PART_CUSTOMS: Partial<Record<keyof typeof S, { hsCode: string; originCountry: string; customsDescription: string }>> = {
+  pipeHalfInch: { hsCode: '391723', originCountry: 'US', customsDescription: 'Rigid PVC pipe, cut to length' },
+  elbowHalfInch: { hsCode: '391740', originCountry: 'US', customsDescription: 'PVC pipe fitting (elbow)' },
+  teeHalfInch: { hsCode: '391740', originCountry: 'US', customsDescription: 'PVC pipe fitting (tee)' },
+  pumpAdapter: { hsCode: '391740', originCountry: 'US', customsDescription: 'PVC pipe fitting (threaded adapter)' },
+  sprayer: { hsCode: '842490', originCountry: 'CN', customsDescription: 'Plastic misting nozzle for a spray manifold' },
+  netCup: { hsCode: '392690', originCountry: 'CN', customsDescription: 'Plastic net cup for plants' },
+  collar: { hsCode: '392690', originCountry: 'CN', customsDescription: 'Plastic foam plant collar' },
+  drainFitting: { hsCode: '391740', originCountry: 'CN', customsDescription: 'Plastic bulkhead drain fitting with cap' },
+  grommet: { hsCode: '401699', originCountry: 'CN', customsDescription: 'Rubber grommet' },
+  pump: { hsCode: '841370', originCountry: 'CN', customsDescription: 'Submersible electric water pump' },
+  tote27A: { hsCode: '392310', originCountry: 'US', customsDescription: 'Plastic storage tote with lid' },
+  tote27B: { hsCode: '392310', originCountry: 'US', customsDescription: 'Plastic storage tote with lid' },
+  tote10: { hsCode: '392310', originCountry: 'US', customsDescription: 'Plastic storage tote with lid' },
+  tubing: { hsCode: '391732', originCountry: 'US', customsDescription: 'Flexible PVC tubing' },
+  primer: { hsCode: '381400', originCountry: 'US', customsDescription: 'PVC primer (solvent)' },
+  cement: { hsCode: '350691', originCountry: 'US', customsDescription: 'PVC solvent cement (adhesive)' },
+}
+
 /** Adds the demo parts; a SKU already present is left as it is, so running it twice changes nothing. */
 export async function seedDemoParts(db: Db) {
   // Parse through the same contract as the API so the demo never holds a part the forms would refuse.
-  const rows = DEMO_PARTS.map((p) => PartInputSchema.parse(p))
+  const rows = DEMO_PARTS.map((p) => {
+    const key = (Object.keys(S) as (keyof typeof S)[]).find((k) => S[k] === p.sku)
+    return PartInputSchema.parse({ ...p, ...(key ? DEMO_PART_CUSTOMS[key] : {}) })
+  })
   await db.insert(parts).values(rows).onConflictDoNothing({ target: parts.sku })
+  // A demo database seeded before parts had customs facts gets them; facts a shop set are kept.
+  for (const r of rows) {
+    if (r.hsCode) await db.update(parts).set({ hsCode: r.hsCode, originCountry: r.originCountry, customsDescription: r.customsDescription }).where(and(eq(parts.sku, r.sku), isNull(parts.hsCode), isNull(parts.originCountry)))
+  }
 }

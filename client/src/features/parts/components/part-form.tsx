@@ -3,6 +3,7 @@ import { useForm, useWatch } from 'react-hook-form'
 import type { z } from 'zod'
 import { PART_KINDS, PART_KIND_LABELS, PartInputSchema, type Part, type PartInput } from '@kitwright/shared/parts'
 import { parseDollars } from '@kitwright/shared/parts-csv'
+import { formatHsCode } from '@kitwright/shared/customs'
 import { formatLengthForInput } from '@kitwright/shared/domain/units'
 import type { Length } from '@kitwright/shared/domain/units'
 import { Button } from '../../../components/ui/button'
@@ -17,11 +18,20 @@ type Values = z.input<typeof PartInputSchema>
 const EMPTY: Values = {
   sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, supplier: '', leadTimeDays: null,
   reorderPoint: 0, reorderQuantity: 0, shelfLocation: '', nominalSize: '', outsideDiameter: null, stickLengths: [],
+  hsCode: '', originCountry: '', customsDescription: '',
 }
 
 function toValues(part: Part): Values {
   const { id: _id, active: _a, createdAt: _c, updatedAt: _u, ...input } = part
-  return { ...input, supplier: input.supplier ?? '', shelfLocation: input.shelfLocation ?? '', nominalSize: input.nominalSize ?? '' }
+  return {
+    ...input,
+    supplier: input.supplier ?? '',
+    shelfLocation: input.shelfLocation ?? '',
+    nominalSize: input.nominalSize ?? '',
+    hsCode: input.hsCode ? formatHsCode(input.hsCode) : '',
+    originCountry: input.originCountry ?? '',
+    customsDescription: input.customsDescription ?? '',
+  }
 }
 
 const wholeOrNull = (v: unknown) => (v === null || v === undefined || String(v).trim() === '' ? null : Number(v))
@@ -115,6 +125,19 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
       <Field label="Reorder quantity" error={errors.reorderQuantity?.message}>
         <Input inputMode="numeric" aria-invalid={!!errors.reorderQuantity} {...form.register('reorderQuantity', { valueAsNumber: true })} />
       </Field>
+      <fieldset className="grid gap-4 rounded-md border border-stone-200 p-3 md:col-span-3 md:grid-cols-3">
+        <legend className="px-1 font-bold">Customs (printed on the declaration of shipments abroad)</legend>
+        <Field label="HS code" hint="6 to 10 digits, e.g. 8413.70" error={errors.hsCode?.message}>
+          <Input aria-invalid={!!errors.hsCode} {...form.register('hsCode')} />
+        </Field>
+        <Field label="Country of origin" hint="Two letters (ISO 3166-1), e.g. US, CN" error={errors.originCountry?.message}>
+          <Input aria-invalid={!!errors.originCountry} maxLength={2} className="uppercase" {...form.register('originCountry')} />
+        </Field>
+        <Field label="Customs description" hint="Plain words, e.g. Submersible electric water pump" error={errors.customsDescription?.message}>
+          <Input aria-invalid={!!errors.customsDescription} {...form.register('customsDescription')} />
+        </Field>
+        <p className="text-sm text-stone-600 md:col-span-3">Net weight is the weight of one unit above; the declared value comes from the order's price. Check HS codes with your customs broker or the tariff of the country of import.</p>
+      </fieldset>
       <div className="flex items-end md:col-span-3">
         <Button type="submit" disabled={pending}>
           {submitLabel}
