@@ -57,7 +57,10 @@ const env = {
   S3_ACCESS_KEY_ID: process.env.S3_ACCESS_KEY_ID ?? 'S3RVER',
   S3_SECRET_ACCESS_KEY: process.env.S3_SECRET_ACCESS_KEY ?? 'S3RVER',
   SMTP_URL: process.env.SMTP_URL ?? `smtp://127.0.0.1:${localPorts.smtp}`,
-  CARRIER_URL: process.env.CARRIER_URL ?? `http://127.0.0.1:${localPorts.carrier}`,
+  // The carrier's shipping API through its SDK, pointed at the local stand-in unless a real account is given.
+  CARRIER_API_URL: process.env.CARRIER_API_KEY ? (process.env.CARRIER_API_URL ?? '') : `http://127.0.0.1:${localPorts.carrier}/v2/`,
+  CARRIER_API_KEY: process.env.CARRIER_API_KEY ?? 'local-stand-in',
+  CARRIER_WEBHOOK_SECRET: process.env.CARRIER_WEBHOOK_SECRET ?? localSecret('carrier-webhook'),
 }
 
 try {

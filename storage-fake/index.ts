@@ -19,7 +19,7 @@ const tlsFiles = process.env.FAKE_S3_TLS_CERT_FILE && process.env.FAKE_S3_TLS_KE
 
 const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket, address: s3Host, allowedOrigins, tls: tlsFiles })
 const smtp = await startSmtpCatcher({ port: smtpPort, directory: path.join(dir, 'mail') })
-const carrier = await startCarrierFake({ port: carrierPort })
+const carrier = await startCarrierFake({ port: carrierPort, directory: path.join(dir, 'carrier') })
 console.log(`[storage-fake] S3 on ${tlsFiles ? 'https' : 'http'}://${s3Host}:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}`)
 console.log('ready')
 

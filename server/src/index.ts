@@ -1,6 +1,6 @@
 import { createServer as createHttpsServer } from 'node:https'
 import { createApp } from './app'
-import { carrierFromEnv } from './features/shipping/carrier'
+import { carrierFromEnv } from './features/shipping/easypost-carrier'
 import { createDb } from './db/client'
 import { readEnv } from './env'
 import { createJobs } from './lib/jobs'
@@ -23,7 +23,7 @@ const { app } = createApp({
   mail,
   storage: createStorage(storageConfigFromEnv(env)),
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
-  carrier: carrierFromEnv(env.CARRIER_URL),
+  carrier: carrierFromEnv(process.env),
   publicUrl: env.PUBLIC_URL,
   trustProxy: env.TRUST_PROXY,
   served: { listenHost: env.HOST, https: !!env.tls, caCertificate: env.tls?.caCertificate ?? null },

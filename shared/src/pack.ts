@@ -55,6 +55,13 @@ export const BuyLabelSchema = z
 /** Buy the label. */
 export type BuyLabel = z.infer<typeof BuyLabelSchema>
 
+/** Void the label, with why (kept in the audit and on the order's timeline). */
+export const VoidLabelSchema = z
+  .object({ reason: z.string({ error: 'Say why the label is voided' }).trim().min(3, 'Say why the label is voided').max(500, 'Use at most 500 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only') })
+  .strict()
+/** Void the label, with why. */
+export type VoidLabel = z.infer<typeof VoidLabelSchema>
+
 /** One of the carrier's services with its price for these parcels. */
 export const QuoteSchema = z.object({ service: z.string(), name: z.string(), days: z.number().int(), chargeCents: z.number().int() })
 /** A carrier's price for a service. */
@@ -110,6 +117,8 @@ export const ParcelSchema = z.object({
   billableGrams: z.number().int(),
   /** The parcel's SSCC-18, once the label is bought. */
   sscc: z.string().nullable(),
+  /** The parcel's own tracking number, once the label is bought. */
+  trackingNumber: z.string().nullable().default(null),
 })
 /** A parcel. */
 export type Parcel = z.infer<typeof ParcelSchema>
@@ -133,6 +142,15 @@ export const PackViewSchema = z.object({
       chargeCents: z.number().int().nullable(),
       partialApproval: z.object({ by: PersonSchema, at: z.string(), note: z.string() }).nullable(),
       shippedAt: z.string().nullable(),
+      /** The carrier's latest tracking status (`in_transit`, `delivered`…) and when it was reported. */
+      trackingStatus: z.string().nullable().default(null),
+      trackingUpdatedAt: z.string().nullable().default(null),
+      /** Labels of this shipment voided so far, with why and what the carrier said of the refund. */
+      voidedLabels: z
+        .array(z.object({ trackingNumbers: z.array(z.string()), service: z.string(), reason: z.string(), at: z.string(), refundStatus: z.string().nullable() }))
+        .default([]),
+      /** Whether the current label may be voided by this shipment's state (a shipped one needs a planner). */
+      canVoid: z.boolean().default(false),
     })
     .nullable(),
   items: z.array(PackItemSchema),
@@ -146,6 +164,8 @@ export const PackViewSchema = z.object({
   blockers: z.array(z.string()),
   canLabel: z.boolean(),
   canShip: z.boolean(),
+  /** A label purchase is under way (or was cut short): Buy again finishes it with the same key. */
+  canFinishBuying: z.boolean().default(false),
   parcels: z.array(ParcelSchema),
   boxes: z.array(BoxSchema),
 })

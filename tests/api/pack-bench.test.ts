@@ -168,7 +168,7 @@ describe('shipping', () => {
     const labelled = view(await packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'express', parcels: parcelsIn }), 201)
     expect(labelled.shipment).toMatchObject({ status: 'labelled', service: 'express' })
     const tracking = labelled.shipment!.trackingNumber!
-    expect(tracking).toMatch(/^KWT\d+$/)
+    expect(tracking).toMatch(/^BP\d+$/)
     expect(error(await tick(packer, order.id, v.items[1]!.key), 409).message).toMatch(/label .* is bought/)
 
     const heldBefore = await t.db.execute<{ n: number }>(sql`select coalesce(sum(quantity), 0)::int as n from stock_moves where work_order_id in ${units.map((u) => u.wo.id)} and kind in ('reserve', 'release')`)

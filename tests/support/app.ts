@@ -1,7 +1,7 @@
 import request from 'supertest'
 import type { Role } from '@kitwright/shared/roles'
 import { createApp } from '../../server/src/app'
-import { carrierFromEnv } from '../../server/src/features/shipping/carrier'
+import { carrierFromEnv } from '../../server/src/features/shipping/easypost-carrier'
 import type { Deps } from '../../server/src/deps'
 import { createJobs } from '../../server/src/lib/jobs'
 import { createLogger } from '../../server/src/lib/logger'
@@ -36,7 +36,7 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     mail: { smtpUrl: process.env.SMTP_URL, from: 'orders@kitwright-test.example' },
     storeWebhookSecret: TEST_STORE_SECRET,
     // The run's carrier stand-in (started by `npm test`).
-    carrier: carrierFromEnv(process.env.CARRIER_URL),
+    carrier: carrierFromEnv(process.env),
     publicUrl: 'http://localhost:3000',
     storage: createStorage(options.storage ?? testStorageConfig()),
   }

@@ -23,15 +23,27 @@ const DEMO_SENDER = {
   senderPhone: '555-0100',
 }
 
+/** The demo shop's carrier: the invented carrier of the local stand-in (storage-fake/carrier.ts). A real shop sets its own. */
+export const DEMO_CARRIER = 'Brindlepost'
+
+/** The demo shop's e-mail identity: invented addresses on the reserved `.example` domain. */
+export const DEMO_MAIL_IDENTITY = {
+  mailFromName: 'Mistwell Tote Works',
+  mailFromAddress: 'orders@mistwell.example',
+  replyToAddress: 'workshop@mistwell.example',
+}
+
 /**
  * The demo shop's shipping boxes (outside sizes invented to fit the demo totes) and its ship-from
- * address and SSCC prefix, when not set yet. Running it twice changes nothing.
+ * address, e-mail sender and SSCC prefix, when not set yet. Running it twice changes nothing.
  */
 export async function seedDemoShipping(db: Db) {
   await db
     .update(shopSettings)
     .set({ ...DEMO_SENDER, gs1CompanyPrefix: DEMO_GS1_COMPANY_PREFIX })
     .where(isNull(shopSettings.senderName))
+  await db.update(shopSettings).set(DEMO_MAIL_IDENTITY).where(isNull(shopSettings.mailFromAddress))
+  await db.update(shopSettings).set({ carrierName: DEMO_CARRIER }).where(isNull(shopSettings.carrierName))
   const cartons = await db.select({ id: parts.id, sku: parts.sku, weightGrams: parts.weightGrams }).from(parts).where(inArray(parts.sku, [S.cartonLarge, S.cartonSmall]))
   const part = (sku: string) => cartons.find((c) => c.sku === sku)
   const large = part(S.cartonLarge)

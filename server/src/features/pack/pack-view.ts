@@ -1,3 +1,4 @@
+import { z } from 'zod'
 import type { DimDivisor } from '@kitwright/shared/domain/weights'
 import type { PackItem, PackView, Parcel } from '@kitwright/shared/pack'
 import type { Db, Tx } from '../../db/client'
@@ -17,6 +18,7 @@ import {
   standingChecks,
   unitsOfOrder,
   userName,
+  voidedLabelsOf,
 } from './pack.queries'
 
 type Conn = Db | Tx
@@ -112,6 +114,7 @@ export function labelSettingsProblems(settings: ShopSettingsRow): string[] {
     problems.push('The ship-from address is not set: the owner sets it in the shop settings')
   }
   if (!settings.gs1CompanyPrefix) problems.push('The GS1 company prefix for parcel SSCCs is not set: the owner sets it in the shop settings')
+  if (!settings.carrierName) problems.push('The shop\'s carrier is not set: the owner sets it in the shop settings (the carrier name as the shipping service names it)')
   return problems
 }
 
@@ -125,6 +128,31 @@ export function shippingSplit(data: Pick<PackData, 'items' | 'shipment'>) {
   const backOrdered: string[] = []
   for (const [id, items] of byUnit) (partial && !complete(items) ? backOrdered : shipping).push(id)
   return { shipping, backOrdered, byUnit }
+}
+
+const BuyingParcelsSchema = z.object({
+  weighed: z.array(
+    z.object({
+      position: z.number().int(),
+      boxId: z.string().uuid(),
+      boxName: z.string(),
+      length: z.number().int(),
+      width: z.number().int(),
+      height: z.number().int(),
+      workOrderIds: z.array(z.string().uuid()),
+      estimatedGrams: z.number().int(),
+      scaleGrams: z.number().int().nullable(),
+      actualGrams: z.number().int(),
+      dimensionalGrams: z.number().int(),
+      billableGrams: z.number().int(),
+    }),
+  ),
+})
+
+/** The parcels of a purchase under way, as recorded before the carrier was called. */
+function buyingParcels(labelRequest: unknown) {
+  const parsed = BuyingParcelsSchema.safeParse(labelRequest)
+  return parsed.success ? parsed.data.weighed : null
 }
 
 /** The pack bench's view: items, blockers, the parcels proposed (or recorded, once labelled). */
@@ -144,12 +172,16 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
   }
   if (shipping.length === 0 && items.length > 0) blockers.push('Nothing is confirmed to ship yet: scan or tick the items going now')
   if (!shipment && items.length > 0) blockers.push('Scan the first item to start packing')
-  if (!options.carrierReady) blockers.push('No carrier is set up (CARRIER_URL): labels cannot be bought')
+  if (!options.carrierReady) blockers.push('No carrier is set up (CARRIER_API_KEY): labels cannot be bought')
   blockers.push(...labelSettingsProblems(settings))
   if (data.boxes.length === 0) blockers.push('No shipping box is set up: add the boxes first')
 
   let parcels: Parcel[] = []
-  if (shipment && shipment.status !== 'packing') {
+  const buying = shipment?.status === 'buying' ? buyingParcels(shipment.labelRequest) : null
+  if (buying) {
+    // A purchase under way: the parcels as the packer set them, without SSCCs or tracking numbers yet.
+    parcels = buying.map((p) => ({ ...p, serials: p.workOrderIds.map((id) => serialOf.get(id) ?? '?'), sscc: null, trackingNumber: null }))
+  } else if (shipment && shipment.status !== 'packing') {
     parcels = (await parcelsOf(db, shipment.id)).map((p) => ({
       position: p.position,
       boxId: p.boxId,
@@ -165,12 +197,14 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
       dimensionalGrams: p.dimensionalGrams,
       billableGrams: p.billableGrams,
       sscc: p.sscc,
+      trackingNumber: p.trackingNumber,
     }))
   } else {
     const boxById = new Map(data.boxes.map((b) => [b.id, b]))
     parcels = proposeParcels(shipping.map((id) => data.weights.get(id)!), data.boxes).map((p, i) => ({
       ...weighParcel({ position: i + 1, workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null }, boxById.get(p.boxId)!, data.weights, divisorOf(settings)),
       sscc: null,
+      trackingNumber: null,
     }))
   }
   const status = shipment?.status ?? 'packing'
@@ -195,6 +229,10 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
               ? { by: { id: shipment.partialApprovedBy, name: data.partialApprovedByName ?? 'Unknown user' }, at: shipment.partialApprovedAt.toISOString(), note: shipment.partialNote ?? '' }
               : null,
           shippedAt: shipment.shippedAt?.toISOString() ?? null,
+          trackingStatus: shipment.trackingStatus,
+          trackingUpdatedAt: shipment.trackingUpdatedAt?.toISOString() ?? null,
+          voidedLabels: (await voidedLabelsOf(db, shipment.id)).map((l) => ({ trackingNumbers: l.trackingNumbers, service: l.service, reason: l.voidReason ?? '', at: l.voidedAt?.toISOString() ?? '', refundStatus: l.refundStatus })),
+          canVoid: shipment.status === 'labelled' || shipment.status === 'shipped',
         }
       : null,
     items,
@@ -204,6 +242,8 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
     blockers: status === 'packing' ? blockers : [],
     canLabel: status === 'packing' && blockers.length === 0,
     canShip: status === 'labelled',
+    // A purchase under way keeps the box closed; the bench may tap Buy again to finish it.
+    canFinishBuying: status === 'buying',
     parcels,
     boxes: data.boxes.map((b) => ({ id: b.id, code: b.code, name: b.name, length: b.length, width: b.width, height: b.height, weightGrams: b.weightGrams })),
   }

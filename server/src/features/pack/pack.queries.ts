@@ -13,6 +13,7 @@ import {
   parcels,
   parts,
   shipments,
+  shippingLabels,
   shopSettings,
   users,
   workOrders,
@@ -76,6 +77,7 @@ export function bomOfRevisions(db: Conn, revisionIds: readonly string[]) {
       kind: parts.kind,
       unitOfMeasure: parts.unitOfMeasure,
       weightGrams: parts.weightGrams,
+      electrical: parts.electrical,
       quantity: bomLines.quantity,
     })
     .from(bomLines)
@@ -150,4 +152,9 @@ export async function shippingSettings(db: Conn) {
 export async function nextSsccSerials(tx: Tx, count: number): Promise<number[]> {
   const result = await tx.execute<{ n: string }>(sql`select nextval('sscc_serial_seq')::text as n from generate_series(1, ${count})`)
   return result.rows.map((r) => Number(r.n))
+}
+
+/** The labels of a shipment that were voided, newest first. */
+export function voidedLabelsOf(db: Conn, shipmentId: string) {
+  return db.select().from(shippingLabels).where(and(eq(shippingLabels.shipmentId, shipmentId), eq(shippingLabels.status, 'voided'))).orderBy(desc(shippingLabels.voidedAt))
 }

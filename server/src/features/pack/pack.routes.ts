@@ -1,11 +1,14 @@
 import { z } from 'zod'
-import { ApprovePartialSchema, BuyLabelSchema, PackCodeSchema, PackItemKeySchema, PaperQuerySchema, QuoteRequestSchema } from '@kitwright/shared/pack'
+import { ApprovePartialSchema, BuyLabelSchema, PackCodeSchema, PackItemKeySchema, PaperQuerySchema, QuoteRequestSchema, VoidLabelSchema } from '@kitwright/shared/pack'
 import type { Deps } from '../../deps'
 import { auditContext } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { packingSlip, shippingLabel } from './documents.service'
-import { approvePartial, buyLabel, lookupForPacking, packView, quoteShipment, scanItem, tickItem, undoItem } from './pack.service'
+import { approvePartial, lookupForPacking, packView, quoteShipment, scanItem, tickItem, undoItem } from './pack.service'
+import { CarrierEventRejected } from '../shipping/carrier'
+import { applyTrackingEvent, buyLabel, voidLabel } from '../shipping/labels.service'
+import { HttpError } from '../../lib/http-errors'
 import { shipShipment } from './ship.service'
 
 const BENCH = ['admin', 'planner', 'packer'] as const
@@ -39,6 +42,7 @@ export function packRouter(deps: Deps, routes: RouteTable) {
   r.post('/orders/:orderId/quote', BENCH, async (req, res) => {
     res.json(await quoteShipment(deps, OrderParams.parse(req.params).orderId, QuoteRequestSchema.parse(req.body)))
   })
+  // Exactly once: a second tap, a retry or a crash half-way ends with the one label (see labels.service).
   r.post('/orders/:orderId/label', BENCH, async (req, res) => {
     res.status(201).json(await buyLabel(deps, OrderParams.parse(req.params).orderId, BuyLabelSchema.parse(req.body), currentUser(req)))
   })
@@ -55,6 +59,26 @@ export function shipmentsRouter(deps: Deps, routes: RouteTable) {
     const { shipmentId } = ShipmentParams.parse(req.params)
     const { paper } = PaperQuerySchema.parse(req.query)
     res.type('application/pdf').set('content-disposition', `inline; filename="packing-slip-${paper}.pdf"`).send(await packingSlip(deps.db, shipmentId, paper))
+  })
+  // Before shipping a bench voids its own label; after shipping only the office (checked in the service).
+  r.post('/:shipmentId/void-label', BENCH, async (req, res) => {
+    const { shipmentId } = ShipmentParams.parse(req.params)
+    res.json(await voidLabel(deps, shipmentId, VoidLabelSchema.parse(req.body), currentUser(req), auditContext(req)))
+  })
+  // The carrier's signed tracking events. Public: the signature, not a session, says who is calling.
+  r.post('/tracking-events', 'public', async (req, res) => {
+    if (!deps.carrier) throw new HttpError(404, 'not_found', 'No carrier is set up on this server')
+    let event
+    try {
+      event = deps.carrier.readEvent(req.rawBody ?? Buffer.alloc(0), req.headers)
+    } catch (err) {
+      if (!(err instanceof CarrierEventRejected)) throw err
+      req.log.warn({ reason: err.message }, 'carrier tracking event rejected')
+      throw new HttpError(401, 'unauthenticated', `Event refused: ${err.message}`)
+    }
+    if (!event) return void res.json({ received: true, ignored: true })
+    const { duplicate } = await applyTrackingEvent(deps, event)
+    res.json({ received: true, duplicate })
   })
   r.get('/:shipmentId/label.pdf', BENCH, async (req, res) => {
     const { shipmentId } = ShipmentParams.parse(req.params)

@@ -1,18 +1,17 @@
 import { and, eq, isNull } from 'drizzle-orm'
-import type { ApprovePartial, BuyLabel, PackView, Quote, QuoteRequest } from '@kitwright/shared/pack'
-import { sscc } from '@kitwright/shared/domain/gs1'
+import type { ApprovePartial, PackView, Quote, QuoteRequest } from '@kitwright/shared/pack'
 import { LENGTH_BASE_PER_MM } from '@kitwright/shared/domain/units'
 import type { Db, Tx } from '../../db/client'
-import { packChecks, parcels, shipments, type ShipmentRow } from '../../db/schema/index'
+import { packChecks, shipments, type ShipmentRow } from '../../db/schema/index'
 import type { Deps } from '../../deps'
 import type { SessionUser } from '../../lib/auth'
 import { recordAudit, type AuditContext } from '../../lib/audit'
 import { BadRequest, Conflict, NotFound, Unavailable } from '../../lib/http-errors'
 import { addOrderEvent } from '../orders/orders.service'
-import type { ShipmentRequest } from '../shipping/carrier'
+import type { Carrier, ShipmentRequest } from '../shipping/carrier'
 import { weighParcel } from './parcel-weights'
 import { buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
-import { findBinByCode, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, nextSsccSerials, openShipmentOf } from './pack.queries'
+import { findBinByCode, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, openShipmentOf } from './pack.queries'
 
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
 
@@ -52,7 +51,8 @@ async function openShipment(tx: Tx, data: PackData, actor: SessionUser): Promise
   const open = await openShipmentOf(tx, order.id)
   if (open) {
     const locked = (await lockShipment(tx, open.id))!
-    if (locked.status !== 'packing') throw new Conflict(`The label for order ${order.number} is bought; the box is closed. Ship it as labelled (voiding a label is not in Kitwright yet)`)
+    if (locked.status === 'buying') throw new Conflict(`The label for order ${order.number} is being bought; the box is closed. Wait for it, or void the label to open the box again`)
+    if (locked.status !== 'packing') throw new Conflict(`The label for order ${order.number} is bought; the box is closed. Ship it as labelled, or void the label (with the reason) to open the box again`)
     return locked
   }
   const [created] = await tx.insert(shipments).values({ orderId: order.id, createdBy: actor.id }).returning()
@@ -139,8 +139,8 @@ export async function approvePartial(deps: PackDeps, orderId: string, input: App
   return packView(deps, orderId)
 }
 
-/** Checks the parcels cover exactly the units going now, and weighs them. */
-async function weighRequest(deps: PackDeps, orderId: string, input: QuoteRequest) {
+/** Checks the parcels cover exactly the units going now, and weighs them into the carrier's request. */
+export async function weighRequest(deps: PackDeps, orderId: string, input: QuoteRequest) {
   const data = await loadPackData(deps.db, orderId)
   const view = await buildPackView(deps.db, data, { carrierReady: Boolean(deps.carrier) })
   if (!view.canLabel) throw new Conflict(`Not ready for a label: ${view.blockers.join('; ')}`)
@@ -173,53 +173,24 @@ async function weighRequest(deps: PackDeps, orderId: string, input: QuoteRequest
 }
 
 function carrierOf(deps: PackDeps) {
-  if (!deps.carrier) throw new Unavailable('No carrier is set up (CARRIER_URL): labels cannot be bought')
+  if (!deps.carrier) throw new Unavailable('No carrier is set up (CARRIER_API_KEY): labels cannot be bought')
   return deps.carrier
 }
 
-/** The carrier's services and prices for these parcels. */
-export async function quoteShipment(deps: PackDeps, orderId: string, input: QuoteRequest): Promise<Quote[]> {
-  const carrier = carrierOf(deps)
-  const { request } = await weighRequest(deps, orderId, input)
-  return carrier.quote(request)
+/** Asks the carrier whether it can deliver to the order's ship-to address; refuses with what to fix when not. */
+export async function checkShipTo(carrier: Carrier, request: ShipmentRequest, orderNumber: string) {
+  const check = await carrier.checkAddress(request.to)
+  if (!check.ok) throw new Conflict(`The carrier cannot deliver to order ${orderNumber}'s ship-to address: ${check.message}. Correct the address on the order (a planner), then quote again`)
 }
 
-/**
- * Buys the label: the carrier's tracking number, one SSCC per parcel from the shop's prefix and the
- * shop-wide serial sequence, and the parcels with their weights. The box is closed from here on.
- */
-export async function buyLabel(deps: PackDeps, orderId: string, input: BuyLabel, actor: SessionUser): Promise<PackView> {
+/** The carrier's services and prices for these parcels, of the shop's carrier only. */
+export async function quoteShipment(deps: PackDeps, orderId: string, input: QuoteRequest): Promise<Quote[]> {
   const carrier = carrierOf(deps)
-  const { data, weighed, request } = await weighRequest(deps, orderId, input)
-  const label = await carrier.buyLabel({ ...request, service: input.service })
-  await deps.db.transaction(async (tx) => {
-    const shipment = await lockShipment(tx, data.shipment!.id)
-    if (!shipment || shipment.status !== 'packing') throw new Conflict(`The label for order ${data.order.number} was bought already`)
-    const serials = await nextSsccSerials(tx, weighed.length)
-    const s = data.settings
-    await tx.insert(parcels).values(
-      weighed.map((p, i) => ({
-        shipmentId: shipment.id,
-        position: p.position,
-        boxId: p.boxId,
-        boxName: p.boxName,
-        length: p.length,
-        width: p.width,
-        height: p.height,
-        workOrderIds: p.workOrderIds,
-        estimatedGrams: p.estimatedGrams,
-        scaleGrams: p.scaleGrams,
-        actualGrams: p.actualGrams,
-        dimensionalGrams: p.dimensionalGrams,
-        billableGrams: p.billableGrams,
-        sscc: sscc({ extensionDigit: s.ssccExtensionDigit, companyPrefix: s.gs1CompanyPrefix!, serialReference: serials[i]! }),
-      })),
-    )
-    await tx
-      .update(shipments)
-      .set({ status: 'labelled', carrier: carrier.name, service: label.service, trackingNumber: label.trackingNumber, chargeCents: label.chargeCents, labelData: { routingCode: label.routingCode }, labelledAt: new Date(), labelledBy: actor.id })
-      .where(eq(shipments.id, shipment.id))
-    await addOrderEvent(tx, { orderId, kind: 'label_bought', message: `Label bought: ${carrier.name} ${label.service}, tracking ${label.trackingNumber}, ${weighed.length} parcel${weighed.length === 1 ? '' : 's'}`, actor })
-  })
-  return packView(deps, orderId)
+  const { data, request } = await weighRequest(deps, orderId, input)
+  const carrierName = data.settings.carrierName
+  if (!carrierName) throw new Conflict('The shop has no carrier set: an owner sets it in shop settings (the carrier name as the shipping service names it)')
+  await checkShipTo(carrier, request, data.order.number)
+  const quotes = (await carrier.quote(request)).filter((q) => q.carrier.toLowerCase() === carrierName.toLowerCase())
+  if (quotes.length === 0) throw new Conflict(`The carrier account offers no service of ${carrierName} for these parcels; check the carrier name in shop settings`)
+  return quotes.map((q) => ({ service: q.service, name: q.name, days: q.days, chargeCents: q.chargeCents }))
 }

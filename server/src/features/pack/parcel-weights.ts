@@ -65,7 +65,7 @@ export function weighParcel(
   box: BoxRow,
   units: ReadonlyMap<string, UnitWeight>,
   divisor: DimDivisor,
-): Omit<Parcel, 'sscc'> {
+): Omit<Parcel, 'sscc' | 'trackingNumber'> & { boxId: string } {
   const contents = input.workOrderIds.map((id) => units.get(id)!)
   const estimatedGrams = contents.reduce((sum, u) => sum + u.grams, 0) + box.weightGrams
   const actual = input.scaleGrams ?? Math.max(1, estimatedGrams)

@@ -41,7 +41,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     const units = data.units.filter((u) => ids.includes(u.workOrder.id))
     const locked = await tx.select().from(workOrders).where(inArray(workOrders.id, ids)).for('update')
     const notReady = locked.filter((w) => w.status !== 'built')
-    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${w.status}`).join('; ')}. Take it out of the box; the label cannot be voided in Kitwright yet, so tell the planner`)
+    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${w.status}`).join('; ')}. Take it out of the box and void the label (with the reason) to open the box again`)
 
     const now = new Date()
     await tx.update(workOrders).set({ status: 'shipped', updatedAt: now }).where(inArray(workOrders.id, ids))
@@ -68,7 +68,9 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     await tx.update(shipments).set({ status: 'shipped', shippedAt: now, shippedBy: actor.id }).where(eq(shipments.id, shipment.id))
     const serials = units.map((u) => u.workOrder.serial)
     const backOrdered = remaining.map((r) => r.serial)
-    const summary = `Shipped ${serials.join(', ')} of order ${order.number}: ${shipment.carrier} ${shipment.service}, tracking ${shipment.trackingNumber}, ${packed.length} parcel${packed.length === 1 ? '' : 's'}${backOrdered.length ? `; back-ordered ${backOrdered.join(', ')}` : ''}`
+    // Each parcel has its own tracking number; shipments labelled before that carry one for all.
+    const tracking = packed.map((p) => p.trackingNumber).filter((t): t is string => Boolean(t)).join(', ') || (shipment.trackingNumber ?? '')
+    const summary = `Shipped ${serials.join(', ')} of order ${order.number}: ${shipment.carrier} ${shipment.service}, tracking ${tracking}, ${packed.length} parcel${packed.length === 1 ? '' : 's'}${backOrdered.length ? `; back-ordered ${backOrdered.join(', ')}` : ''}`
     await addOrderEvent(tx, { orderId: order.id, kind: status === 'shipped' ? 'shipped' : 'partially_shipped', message: summary, data: { shipmentId: shipment.id, trackingNumber: shipment.trackingNumber, serials }, actor })
     await recordAudit(tx, audit, { action: 'shipment.create', entityType: 'order', entityId: order.id, summary, data: { shipmentId: shipment.id } })
 
@@ -78,7 +80,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
       orderNumber: order.number,
       carrier: shipment.carrier ?? 'the carrier',
       service: shipment.service ?? '',
-      trackingNumber: shipment.trackingNumber ?? '',
+      trackingNumber: tracking,
       units: await Promise.all(
         units.map(async (u) => {
           const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit')
@@ -87,6 +89,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
         }),
       ),
       backOrdered,
+      electrical: bom.some((b) => b.electrical),
     })
     // One e-mail per shipment: a second attempt for the same shipment is dropped by the outbox.
     mailQueued = (await queueMail(tx, deps.jobs, { to: order.customerEmail, ...content, orderId: order.id, purpose: `shipped:${shipment.id}` })) !== null

@@ -1,5 +1,8 @@
-import { z } from 'zod'
-import { Unavailable } from '../../lib/http-errors'
+/**
+ * The seam between Kitwright and a carrier's label service. Kitwright speaks to this interface only;
+ * `easypost-carrier.ts` fits it over a hosted shipping API's official SDK, and another carrier's SDK
+ * gets an adapter of its own beside it.
+ */
 
 /** An address as a carrier takes it. */
 export interface CarrierAddress {
@@ -10,6 +13,7 @@ export interface CarrierAddress {
   region: string | null
   postalCode: string
   country: string
+  phone?: string | null
 }
 
 /** One parcel as a carrier rates it: billable weight in grams, outside size in millimetres. */
@@ -28,63 +32,63 @@ export interface ShipmentRequest {
   reference: string
 }
 
-const QuoteSchema = z.object({ service: z.string(), name: z.string(), days: z.number().int(), chargeCents: z.number().int() })
-const QuotesSchema = z.object({ quotes: z.array(QuoteSchema) })
-const LabelSchema = z.object({
-  trackingNumber: z.string().min(1),
-  service: z.string(),
-  chargeCents: z.number().int(),
-  /** What the carrier wants printed on the label besides the tracking number (its sort code). */
-  routingCode: z.string(),
-})
+/** One of the carrier's services with its price for these parcels. */
+export interface CarrierQuote {
+  carrier: string
+  service: string
+  name: string
+  days: number
+  chargeCents: number
+}
 
-export type CarrierQuote = z.infer<typeof QuoteSchema>
-export type CarrierLabel = z.infer<typeof LabelSchema>
+/** A label the carrier sold: one tracking number per parcel, in parcel order. */
+export interface CarrierLabel {
+  /** The carrier's id of the purchase (all parcels). */
+  carrierRef: string
+  carrier: string
+  service: string
+  chargeCents: number
+  parcels: { trackingNumber: string; carrierParcelRef: string }[]
+  /** What the carrier wants printed besides the tracking number (its sort code), if anything. */
+  routingCode: string | null
+}
 
-/** A carrier's label service: rates for the parcels, and a label bought for one service. */
+/** The carrier's answer to a refund request. */
+export type RefundStatus = 'submitted' | 'refunded' | 'rejected'
+
+/** Where a parcel is, in the carrier's words. */
+export interface TrackingUpdate {
+  /** The carrier's event id (a redelivery repeats it). */
+  eventId: string
+  trackingNumber: string
+  /** `pre_transit`, `in_transit`, `out_for_delivery`, `delivered`, `return_to_sender`, `failure`… */
+  status: string
+  /** The carrier's latest line of detail, if any. */
+  detail: string | null
+  at: string
+}
+
+export type AddressCheck = { ok: true } | { ok: false; message: string }
+
+/** A carrier's label service. Every call that spends money carries the caller's idempotency key. */
 export interface Carrier {
-  /** The carrier's name, as printed on the label and stored on the shipment. */
-  readonly name: string
+  /** Whether the carrier can deliver to the address, and what to fix when not. */
+  checkAddress(address: CarrierAddress): Promise<AddressCheck>
+  /** Prices for the parcels, of every carrier and service the account offers. */
   quote(request: ShipmentRequest): Promise<CarrierQuote[]>
-  buyLabel(request: ShipmentRequest & { service: string }): Promise<CarrierLabel>
+  /** Records the parcels with the carrier, unpaid; the same key gives back the same purchase. Returns the carrier's id of it. */
+  prepareLabel(request: ShipmentRequest, idempotencyKey: string): Promise<string>
+  /** Pays for the label of a prepared purchase; when it was paid for already, gives that label back. */
+  buyLabel(carrierRef: string, choice: { carrier: string; service: string }, idempotencyKey: string): Promise<CarrierLabel>
+  /** The label of a purchase, if the carrier sold it (to reconcile after a crash), else null. */
+  findLabel(carrierRef: string): Promise<CarrierLabel | null>
+  /** Asks the carrier to refund every parcel's label. */
+  voidLabel(carrierParcelRefs: string[]): Promise<RefundStatus>
+  /** A parcel's latest tracking status, asked of the carrier. */
+  trackingStatus(trackingNumber: string, carrier: string): Promise<Omit<TrackingUpdate, 'eventId'>>
+  /** Checks a signed tracking event's signature and reads it; throws `CarrierEventRejected` when it does not verify. */
+  readEvent(rawBody: Buffer, headers: Record<string, string | string[] | undefined>): TrackingUpdate | null
 }
 
-/** The carrier's own words when it refused, or its status. */
-async function failure(res: Response): Promise<string> {
-  const body: unknown = await res.json().catch(() => null)
-  const message = z.object({ error: z.object({ message: z.string() }) }).safeParse(body)
-  return message.success ? message.data.error.message : `the carrier answered ${res.status}`
-}
-
-/**
- * A carrier reached over HTTP with JSON: `POST {base}/v1/quotes` and `POST {base}/v1/labels`. The
- * local stand-in (storage-fake/carrier.ts) speaks it; a real carrier gets an adapter of its own
- * behind the same interface.
- */
-export function httpCarrier(baseUrl: string, name = 'Kitwright test carrier'): Carrier {
-  const base = baseUrl.replace(/\/+$/, '')
-  async function post<S extends z.ZodType>(path: string, body: unknown, schema: S): Promise<z.infer<S>> {
-    let res: Response
-    try {
-      res = await fetch(`${base}${path}`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify(body), signal: AbortSignal.timeout(15_000) })
-    } catch (err) {
-      throw new Unavailable(`The carrier at ${base} cannot be reached (${err instanceof Error ? err.message : String(err)}); try again in a minute`)
-    }
-    if (!res.ok) throw new Unavailable(`The carrier refused: ${await failure(res)}`)
-    return schema.parse(await res.json())
-  }
-  return {
-    name,
-    async quote(request) {
-      return (await post('/v1/quotes', request, QuotesSchema)).quotes
-    },
-    buyLabel(request) {
-      return post('/v1/labels', request, LabelSchema)
-    },
-  }
-}
-
-/** The carrier chosen by the environment: `CARRIER_URL` set → that carrier over HTTP; unset → none. */
-export function carrierFromEnv(url: string | undefined): Carrier | null {
-  return url ? httpCarrier(url) : null
-}
+/** A tracking event whose signature does not verify, or that is not an event at all. */
+export class CarrierEventRejected extends Error {}
