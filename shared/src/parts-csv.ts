@@ -15,6 +15,7 @@ export const PART_CSV_COLUMNS = [
   'unit_of_measure',
   'unit_cost',
   'weight_g',
+  'electrical',
   'supplier',
   'lead_time_days',
   'reorder_point',
@@ -42,6 +43,7 @@ export const PART_FIELD_COLUMNS: Record<keyof PartInput, PartCsvColumn> = {
   unitOfMeasure: 'unit_of_measure',
   unitCostCents: 'unit_cost',
   weightGrams: 'weight_g',
+  electrical: 'electrical',
   supplier: 'supplier',
   leadTimeDays: 'lead_time_days',
   reorderPoint: 'reorder_point',
@@ -99,6 +101,7 @@ export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvCol
     unit_of_measure: part.unitOfMeasure,
     unit_cost: (part.unitCostCents / 100).toFixed(2),
     weight_g: String(part.weightGrams),
+    electrical: part.electrical ? 'yes' : 'no',
     supplier: part.supplier ?? '',
     lead_time_days: part.leadTimeDays === null ? '' : String(part.leadTimeDays),
     reorder_point: String(part.reorderPoint),
@@ -165,6 +168,10 @@ export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): Part
   if (!active && !['no', 'n', 'false', '0'].includes(activeText)) {
     errors.push({ column: 'active', message: `Write yes or no for active (found "${cell('active')}")` })
   }
+  // Blank keeps what the catalog says (no, for a new part).
+  const electricalText = cell('electrical').toLowerCase()
+  const electrical = electricalText === '' ? undefined : ['yes', 'y', 'true', '1'].includes(electricalText) ? true : ['no', 'n', 'false', '0'].includes(electricalText) ? false : null
+  if (electrical === null) errors.push({ column: 'electrical', message: `Write yes or no for electrical, whether it runs on mains power (found "${cell('electrical')}")` })
   const od = cell('outside_diameter')
   const sticks = cell('stick_lengths')
 
@@ -175,6 +182,7 @@ export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): Part
     unitOfMeasure: cell('unit_of_measure') || 'each',
     unitCostCents: cost ?? 0,
     weightGrams: weight ?? 0,
+    ...(typeof electrical === 'boolean' ? { electrical } : {}),
     supplier: cell('supplier'),
     leadTimeDays: whole('lead_time_days', 'the lead time in days', null),
     reorderPoint: whole('reorder_point', 'the reorder point', 0) ?? 0,

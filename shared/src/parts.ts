@@ -50,6 +50,8 @@ export const PartInputSchema = z
     unitOfMeasure: z.string().trim().min(1, 'Enter a unit such as each, stick or bag').max(20),
     unitCostCents: z.number().int('Whole cents').min(0, 'Cannot be negative').max(100_000_000),
     weightGrams: z.number().int('Whole grams').min(0, 'Cannot be negative').max(1_000_000),
+    /** Runs on mains power (a pump, a timer): a box holding it gets the electrical cautions. Left out: unchanged (no, for a new part). */
+    electrical: z.boolean({ error: 'Say yes or no: does it run on mains power?' }).optional(),
     supplier: optionalText,
     leadTimeDays: z.number().int('Whole days').min(0, 'Cannot be negative').max(365).nullish().transform((v) => v ?? null),
     reorderPoint: z.number().int().min(0, 'Cannot be negative'),
@@ -87,6 +89,8 @@ export const PartSchema = z.object({
   unitOfMeasure: z.string(),
   unitCostCents: z.number().int(),
   weightGrams: z.number().int(),
+  /** Runs on mains power: the care sheet of a box holding it carries the electrical cautions. */
+  electrical: z.boolean(),
   supplier: z.string().nullable(),
   leadTimeDays: z.number().int().nullable(),
   reorderPoint: z.number().int(),

@@ -30,3 +30,86 @@ export const UpdateShopSettingsSchema = z
   .strict()
 /** What the admin may change in the shop's settings. */
 export type UpdateShopSettings = z.infer<typeof UpdateShopSettingsSchema>
+
+/** Free text on one line (names go into mail headers and labels: no line breaks). */
+const oneLine = (what: string, max: number) =>
+  z
+    .string({ error: `Enter the ${what}` })
+    .trim()
+    .min(1, `Enter the ${what}`)
+    .max(max, `Use at most ${max} characters`)
+    .regex(/^[^\r\n]*$/, `Keep the ${what} on one line`)
+/** Optional one-line text: blank means none (null). */
+const optionalLine = (what: string, max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `Use at most ${max} characters`)
+    .regex(/^[^\r\n]*$/, `Keep the ${what} on one line`)
+    .nullish()
+    .transform((v) => (v ? v : null))
+/** An e-mail address, or blank for none (null). */
+const optionalEmail = (what: string) =>
+  z
+    .string()
+    .trim()
+    .toLowerCase()
+    .max(254, 'Use at most 254 characters')
+    .nullish()
+    .transform((v) => (v ? v : null))
+    .pipe(z.email(`Enter the ${what} as an address such as orders@your-shop.example, or leave it blank`).nullable())
+
+/** The shop's ship-from address: on every shipping label, and on the packing slip as the return address. */
+export const ShipFromAddressSchema = z
+  .object({
+    name: oneLine('name on the ship-from address', 120),
+    line1: oneLine('street address', 200),
+    line2: optionalLine('second address line', 200),
+    city: oneLine('city', 100),
+    region: optionalLine('state or region', 100),
+    postalCode: oneLine('postal code', 20),
+    country: z
+      .string({ error: 'Enter the two-letter country code, e.g. US' })
+      .trim()
+      .toUpperCase()
+      .regex(/^[A-Z]{2}$/, 'Use the two-letter country code (ISO 3166-1 alpha-2), e.g. US, CA, GB'),
+    phone: optionalLine('phone number', 40),
+  })
+  .strict()
+/** The shop's ship-from (and return) address. */
+export type ShipFromAddress = z.infer<typeof ShipFromAddressSchema>
+
+/**
+ * Who the shop is to its customers (admin only): the name on every mail, slip and label, the sender
+ * and reply-to of every e-mail, the ship-from address, and the public address every link starts with.
+ */
+export const ShopIdentitySchema = z.object({
+  shopName: z.string(),
+  /** The From name of every e-mail; null: the shop name. */
+  mailFromName: z.string().nullable(),
+  /** The From address of every e-mail; null: {@link ShopIdentitySchema.shape.mailFromFallback}. */
+  mailFromAddress: z.string().nullable(),
+  /** Where customers' replies go; null: to the From address. */
+  replyToAddress: z.string().nullable(),
+  /** The ship-from / return address; null until the owner sets it (no label can be bought before). */
+  shipFrom: ShipFromAddressSchema.nullable(),
+  /** Read-only: the address people and customers reach Kitwright by (PUBLIC_URL in the environment). */
+  publicUrl: z.string(),
+  /** Read-only: the sender address used until the owner sets one (MAIL_FROM in the environment). */
+  mailFromFallback: z.string(),
+})
+/** Who the shop is to its customers. */
+export type ShopIdentity = z.infer<typeof ShopIdentitySchema>
+
+/** What the admin sets of the shop's identity: every field, each time (blank optional fields mean none). */
+export const UpdateShopIdentitySchema = z
+  .object({
+    shopName: oneLine('shop name', 120),
+    mailFromName: optionalLine('sender name', 120),
+    mailFromAddress: optionalEmail('sender e-mail'),
+    replyToAddress: optionalEmail('reply-to e-mail'),
+    shipFrom: ShipFromAddressSchema.nullable(),
+  })
+  .strict()
+/** What the admin sets of the shop's identity. */
+export type UpdateShopIdentity = z.input<typeof UpdateShopIdentitySchema>

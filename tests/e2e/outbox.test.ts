@@ -22,7 +22,7 @@ beforeAll(async () => {
       shopName: 'Mistwell Tote Works',
       customerName: 'Liesel Kettleby',
       orderNumber: subjectMark,
-      promisedShipDate: '2026-03-14',
+      standing: { status: 'open', paymentStatus: 'paid', onHold: false, promisedShipDate: '2026-03-14' },
       lines: [{ description: '12-site aeroponic tote kit', sku: 'MW-TOTE-12', quantity: 1 }],
     })
     await db.insert(mailMessages).values({ to: 'liesel.kettleby@post.example', ...content, status: 'sent', attempts: 1, sentAt: new Date(), purpose: `e2e-${subjectMark}` })
@@ -50,7 +50,7 @@ describe('the outbox, in Chromium', () => {
     const frame = page.frameLocator('iframe[title="Message as the customer sees it"]')
     await frame.getByText(`Thank you for your order ${subjectMark}`).waitFor()
     expect(await frame.locator('li').first().textContent()).toContain('12-site aeroponic tote kit')
-    expect(await frame.getByText(/Saturday, March 14, 2026/).count()).toBe(1)
+    expect(await frame.getByText(/Saturday, Mar 14, 2026/).count()).toBe(1)
     expect(new URL(page.url()).searchParams.get('message')).not.toBeNull()
     await page.getByRole('button', { name: 'Close' }).click()
     await frame.locator('body').waitFor({ state: 'detached' })

@@ -1,7 +1,7 @@
 /**
- * The customer's care and safety sheet printed with the packing slip. The pump runs on mains power
- * in water: the electrical cautions come first, and every one defers to local codes and licensed
- * practice.
+ * The customer's care and safety sheet printed with the packing slip. A pump runs on mains power
+ * in water: when the box holds a part marked electrical, the electrical cautions are printed, and
+ * they defer to local codes and licensed practice. A box with no electrical part gets none of them.
  */
 export const ELECTRICAL_CAUTIONS = [
   'Plug the pump only into a ground-fault protected outlet (GFCI / RCD). If you are not sure an outlet is protected, have a licensed electrician check it.',
@@ -19,3 +19,8 @@ export const CARE_NOTES = [
 
 export const LOCAL_CODES =
   'These notes do not replace local electrical codes, the pump maker’s instructions, or the advice of a licensed electrician: where they differ, those come first.'
+
+/** Whether the care sheet of a box carries the electrical cautions: only when the box holds a part that runs on mains power. */
+export function needsElectricalCautions(partsInBox: readonly { electrical: boolean }[]): boolean {
+  return partsInBox.some((p) => p.electrical)
+}

@@ -5,7 +5,10 @@ import { createPdf, pdfBuffer, PAPER } from './pdf-document'
 
 export interface PackingSlip {
   shopName: string
+  /** The ship-from address, which is also where returns go. */
   sender: string[]
+  /** The shop's e-mail for questions and returns (reply-to, else the sender), when set. */
+  contact: string | null
   orderNumber: string
   placedAt: string
   customerName: string
@@ -15,6 +18,8 @@ export interface PackingSlip {
   backOrdered: string[]
   /** The fill line per kit revision in the parcel: depth in base units above the tote floor, and the volume. */
   fillLines: { kit: string; depth: number; litres: number }[]
+  /** The parts in the box that run on mains power (e.g. the pump): the electrical cautions are printed only when there are some. */
+  electricalParts: string[]
 }
 
 /**
@@ -30,7 +35,9 @@ export async function packingSlipPdf(slip: PackingSlip, paper: 'letter' | 'a4'):
   doc.fillColor('#111111').font('bold').fontSize(22).text(slip.shopName, margin, margin, { width: width - 200 })
   doc.font('body').fontSize(9.5).fillColor('#333333')
   // The sender's name is usually the shop's: print it once.
+  if (slip.sender.length > 0) doc.font('bold').text('Returns to', { width: width - 200 }).font('body')
   for (const line of slip.sender.filter((l, i) => i > 0 || l !== slip.shopName)) doc.text(line, { width: width - 200 })
+  if (slip.contact) doc.text(`Questions: ${slip.contact}`, { width: width - 200 })
   doc.image(await code128Png(slip.orderNumber, 12), pw - margin - 190, margin - 6, { fit: [190, 60], align: 'center' })
   doc.font('bold').fontSize(12).fillColor('#111111').text(`Order ${slip.orderNumber}`, pw - margin - 190, margin + 58, { width: 190, align: 'center' })
 
@@ -64,12 +71,14 @@ export async function packingSlipPdf(slip: PackingSlip, paper: 'letter' | 'a4'):
   }
 
   // The care and safety sheet, boxed, on the same page when it fits.
-  const needed = 300
+  const electrical = slip.electricalParts.length > 0
+  const needed = electrical ? 300 : 160
   if (doc.y + needed > ph - margin) doc.addPage({ size: PAPER[paper], margin })
   else doc.moveDown(1)
   const boxTop = doc.y
   const inner = width - 20
-  doc.fillColor('#7c2d12').font('bold').fontSize(14).text('Care and safety: read before you fill the tote and plug in the pump', margin + 10, boxTop + 8, { width: inner })
+  const title = electrical ? 'Care and safety: read before you fill the tote and plug in the pump' : 'Care: read before you fill the tote'
+  doc.fillColor('#7c2d12').font('bold').fontSize(14).text(title, margin + 10, boxTop + 8, { width: inner })
   doc.moveDown(0.3)
   doc.fillColor('#111111').font('bold').fontSize(11).text('Reservoir fill line', margin + 10, doc.y, { width: inner })
   doc.font('body').fontSize(10)
@@ -84,12 +93,14 @@ export async function packingSlipPdf(slip: PackingSlip, paper: 'letter' | 'a4'):
     )
   }
   for (const c of CARE_NOTES) doc.text(`•  ${c}`, margin + 10, doc.y, { width: inner })
-  doc.moveDown(0.3)
-  doc.font('bold').fontSize(11).fillColor('#7c2d12').text('Electricity and water', margin + 10, doc.y, { width: inner })
-  doc.font('body').fontSize(10).fillColor('#111111')
-  for (const c of ELECTRICAL_CAUTIONS) doc.text(`•  ${c}`, margin + 10, doc.y, { width: inner })
-  doc.moveDown(0.3)
-  doc.font('bold').fontSize(10).text(LOCAL_CODES, margin + 10, doc.y, { width: inner })
+  if (electrical) {
+    doc.moveDown(0.3)
+    doc.font('bold').fontSize(11).fillColor('#7c2d12').text(`Electricity and water (${slip.electricalParts.join(', ')})`, margin + 10, doc.y, { width: inner })
+    doc.font('body').fontSize(10).fillColor('#111111')
+    for (const c of ELECTRICAL_CAUTIONS) doc.text(`•  ${c}`, margin + 10, doc.y, { width: inner })
+    doc.moveDown(0.3)
+    doc.font('bold').fontSize(10).text(LOCAL_CODES, margin + 10, doc.y, { width: inner })
+  }
   const boxBottom = doc.y + 8
   doc.save().lineWidth(2).strokeColor('#d97706').rect(margin, boxTop, width, boxBottom - boxTop).stroke().restore()
   return pdfBuffer(doc)

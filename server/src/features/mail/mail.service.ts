@@ -6,7 +6,7 @@ import type { Deps } from '../../deps'
 import { NotFound } from '../../lib/http-errors'
 import type { JobContext, Jobs } from '../../lib/jobs'
 import { addOrderEvent } from '../orders/orders.service'
-import { getShopSettings } from '../settings/settings.service'
+import { mailSender } from '../settings/settings.service'
 import { toMailMessage, toMailSummary } from './mail.mapper'
 import { smtpTransport } from './mailer'
 
@@ -48,10 +48,12 @@ export async function deliverMail(deps: Pick<Deps, 'db' | 'mail'>, mailId: strin
   await deps.db.transaction(async (tx) => {
     const [mail] = await tx.select().from(mailMessages).where(eq(mailMessages.id, mailId)).for('update')
     if (!mail || mail.status === 'sent') return
-    const { shopName } = await getShopSettings(tx)
+    // The sender is read as the message goes out, so a sender changed in the settings applies to the next mail.
+    const sender = await mailSender(tx, deps.mail.from)
     try {
       await smtpTransport(deps.mail.smtpUrl).sendMail({
-        from: { name: shopName, address: deps.mail.from },
+        from: sender.from,
+        ...(sender.replyTo ? { replyTo: sender.replyTo } : {}),
         to: mail.to,
         subject: mail.subject,
         text: mail.text,

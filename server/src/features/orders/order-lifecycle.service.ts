@@ -2,9 +2,13 @@ import { and, asc, count, eq, inArray, notInArray } from 'drizzle-orm'
 import { ORDER_PRIORITY_LABELS, type OrderDetail, type UpdateOrderPlan } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
 import { bins, cutRunCuts, cutRuns, cutRunSticks, offcuts, orders, workOrders, type OrderRow } from '../../db/schema/index'
+import type { Deps } from '../../deps'
 import { recordAudit, type AuditContext } from '../../lib/audit'
+import type { Jobs } from '../../lib/jobs'
 import { Conflict, NotFound } from '../../lib/http-errors'
 import { freeBin } from '../bins/bins.service'
+import { queueOrderCancelledMail } from '../mail/order-cancelled-mail'
+import { refreshOrderReceivedMail } from '../mail/order-received-mail'
 import { insertMoves } from '../stock/stock.queries'
 import { releaseReservation } from '../stock/stock.service'
 import { addOrderEvent, getOrder, type OrderActor } from './orders.service'
@@ -24,6 +28,8 @@ export interface CancelBy {
   reason?: string
   /** The store's event id, kept on the timeline. */
   eventId?: string
+  /** The job queue the customer's cancellation e-mail is queued on. */
+  jobs: Jobs
 }
 
 /** What a cancellation did. */
@@ -40,8 +46,9 @@ export interface CancelOutcome {
  * had reserved; its bin goes back on the rack; pieces already cut for it return to stock as offcuts
  * (an `offcuts` row of the piece's length and an `offcut_in` move), when at or above the minimum
  * offcut of its cut run, as the cut bench does for remnants; shorter ones are scrap. Pieces still to
- * cut on a published sheet are racked by the cut bench when cut. A cancelled order
- * changes nothing. A shipped order stays as it is: the store's cancel only notes it on the timeline,
+ * cut on a published sheet are racked by the cut bench when cut. The customer gets one cancellation
+ * e-mail, and an "order received" e-mail still waiting in the outbox drops its ship date. A cancelled
+ * order changes nothing. A shipped order stays as it is: the store's cancel only notes it on the timeline,
  * a planner is refused (409).
  */
 export async function cancelOrder(tx: Tx, order: OrderRow, by: CancelBy): Promise<CancelOutcome> {
@@ -124,6 +131,8 @@ export async function cancelOrder(tx: Tx, order: OrderRow, by: CancelBy): Promis
     data: { by: by.by, eventId: by.eventId ?? null, reason: by.reason ?? null, workOrders: serials, bins: held.map((b) => b.code), offcuts: stocked, scrapped, stillToCut },
     actor: by.actor,
   })
+  await refreshOrderReceivedMail(tx, order.id)
+  await queueOrderCancelledMail(tx, by.jobs, order.id)
   return { cancelled: true, workOrders: serials, offcuts: stocked, binsFreed: held.map((b) => b.code) }
 }
 
@@ -144,10 +153,10 @@ export async function stockCutPiece(
 }
 
 /** A planner cancels an order (409 when it is cancelled or shipped already), with the audit entry, in one transaction. */
-export async function cancelOrderByPlanner(db: Db, id: string, reason: string, actor: NonNullable<OrderActor>, audit: AuditContext): Promise<OrderDetail> {
-  return db.transaction(async (tx) => {
+export async function cancelOrderByPlanner(deps: Pick<Deps, 'db' | 'jobs'>, id: string, reason: string, actor: NonNullable<OrderActor>, audit: AuditContext): Promise<OrderDetail> {
+  return deps.db.transaction(async (tx) => {
     const order = await lockOrder(tx, id)
-    const outcome = await cancelOrder(tx, order, { by: 'planner', actor, reason })
+    const outcome = await cancelOrder(tx, order, { by: 'planner', actor, reason, jobs: deps.jobs })
     await recordAudit(tx, audit, {
       action: 'order.cancel',
       entityType: 'order',
@@ -167,6 +176,7 @@ export async function holdOrder(db: Db, id: string, reason: string, actor: NonNu
     if (order.heldAt) throw new Conflict(`Order ${order.number} is already on hold (${order.holdReason ?? 'no reason given'}); take it off hold first to change the reason`)
     await tx.update(orders).set({ heldAt: new Date(), holdReason: reason, heldBy: actor.id, updatedAt: new Date() }).where(eq(orders.id, order.id))
     await addOrderEvent(tx, { orderId: order.id, kind: 'held', message: `Put on hold: ${reason}. It is not released or shipped until taken off hold.`, data: { reason }, actor })
+    await refreshOrderReceivedMail(tx, order.id)
     await recordAudit(tx, audit, { action: 'order.hold', entityType: 'order', entityId: order.id, summary: `Put order ${order.number} on hold: ${reason}`, data: { reason } })
     return getOrder(tx, order.id)
   })
@@ -179,6 +189,7 @@ export async function liftOrderHold(db: Db, id: string, actor: NonNullable<Order
     if (!order.heldAt) throw new Conflict(`Order ${order.number} is not on hold`)
     await tx.update(orders).set({ heldAt: null, holdReason: null, heldBy: null, updatedAt: new Date() }).where(eq(orders.id, order.id))
     await addOrderEvent(tx, { orderId: order.id, kind: 'hold_lifted', message: `Taken off hold (it was held: ${order.holdReason ?? 'no reason given'}).`, data: { reason: order.holdReason }, actor })
+    await refreshOrderReceivedMail(tx, order.id)
     await recordAudit(tx, audit, { action: 'order.hold_lift', entityType: 'order', entityId: order.id, summary: `Took order ${order.number} off hold` })
     return getOrder(tx, order.id)
   })

@@ -47,7 +47,7 @@ export function ordersRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:id/cancel', planners, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)
-    res.json(await cancelOrderByPlanner(deps.db, id, CancelOrderSchema.parse(req.body).reason, currentUser(req), auditContext(req)))
+    res.json(await cancelOrderByPlanner(deps, id, CancelOrderSchema.parse(req.body).reason, currentUser(req), auditContext(req)))
   })
   r.post('/', planners, async (req, res) => {
     const order = await createPhoneOrder(deps.db, NewOrderSchema.parse(req.body), currentUser(req))

@@ -4,10 +4,12 @@ import { formatWeight } from '@kitwright/shared/domain/weights'
 import type { Db } from '../../db/client'
 import type { OrderRow, ShopSettingsRow } from '../../db/schema/index'
 import { Conflict, NotFound } from '../../lib/http-errors'
+import { shipFromOf } from '../settings/settings.service'
+import { needsElectricalCautions } from '../labels/care-sheet'
 import { packingSlipPdf, type PackingSlip } from '../labels/packing-slip.pdf'
 import { shippingLabelPdf } from '../labels/shipping-label.pdf'
 import { loadPackData, shippingSplit } from './pack-view'
-import { findShipment, parcelsOf } from './pack.queries'
+import { bomOfRevisions, findShipment, parcelsOf } from './pack.queries'
 
 function addressLines(a: { name: string; line1: string; line2: string | null; city: string; region: string | null; postalCode: string; country: string }) {
   return [a.name, a.line1, ...(a.line2 ? [a.line2] : []), `${a.city}${a.region ? `, ${a.region}` : ''} ${a.postalCode}`, a.country]
@@ -17,9 +19,10 @@ function shipToLines(o: OrderRow) {
   return addressLines({ name: o.shipName, line1: o.shipLine1, line2: o.shipLine2, city: o.shipCity, region: o.shipRegion, postalCode: o.shipPostalCode, country: o.shipCountry })
 }
 
+/** The shop's ship-from address (also where returns go), as set on the settings page. */
 function senderLines(s: ShopSettingsRow) {
-  if (!s.senderName || !s.senderLine1 || !s.senderCity || !s.senderPostalCode || !s.senderCountry) return []
-  return addressLines({ name: s.senderName, line1: s.senderLine1, line2: s.senderLine2, city: s.senderCity, region: s.senderRegion, postalCode: s.senderPostalCode, country: s.senderCountry })
+  const a = shipFromOf(s)
+  return a ? addressLines({ ...a, line2: a.line2 ?? null, region: a.region ?? null }) : []
 }
 
 async function shipmentData(db: Db, shipmentId: string) {
@@ -56,12 +59,16 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
     const depth = depthForVolume(frame.data.tote, ml / 1000, 'L')
     if (depth.ok) fillLines.push({ kit: `${rev.kitName} (${rev.kitSku} rev ${rev.revision.code})`, depth: depth.depth, litres: ml / 1000 })
   }
+  // Electrical cautions only when something in this box runs on mains power.
+  const bom = await bomOfRevisions(db, [...new Set(units.map((u) => u.revision.id))])
+  const electricalParts = needsElectricalCautions(bom) ? [...new Set(bom.filter((b) => b.electrical).map((b) => b.name))] : []
   const placed = data.order.placedAt.toISOString().slice(0, 10)
   const backOrdered = data.units.filter((u) => !going.has(u.workOrder.id) && u.workOrder.status !== 'shipped').map((u) => u.workOrder.serial)
   return packingSlipPdf(
     {
       shopName: data.settings.shopName,
       sender: senderLines(data.settings),
+      contact: data.settings.replyToAddress ?? data.settings.mailFromAddress,
       orderNumber: data.order.number,
       placedAt: placed,
       customerName: data.order.customerName,
@@ -70,6 +77,7 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
       lines,
       backOrdered: shipment.partialApprovedAt || shipment.status !== 'packing' ? backOrdered : [],
       fillLines,
+      electricalParts,
     },
     paper,
   )

@@ -12,7 +12,13 @@ export interface ShippedMailInput {
   /** `recordUrl`: the customer's signed link to the unit's build record, or null for a spare-parts pack. */
   units: { serial: string; description: string; recordUrl: string | null }[]
   backOrdered: string[]
+  /** Whether the parcel holds a part that runs on mains power: only then does the e-mail repeat the electrical cautions. */
+  electrical: boolean
 }
+
+const ELECTRICAL_NOTE =
+  'Before you fill the tote and plug in the pump, read the care and safety sheet in the box: ground-fault protected outlet only, a drip loop in the cord, and unplug before reaching into the water.'
+const CARE_NOTE = 'Before you fill the tote, read the care sheet in the box.'
 
 /** The words of the "shipped" e-mail: tracking number, what is in the parcel with links to each build record, what follows. */
 export function shippedMailContent(input: ShippedMailInput) {
@@ -31,7 +37,7 @@ export function shippedMailContent(input: ShippedMailInput) {
     ...lines,
     ...later,
     '',
-    'Before you fill the tote and plug in the pump, read the care and safety sheet in the box: ground-fault protected outlet only, a drip loop in the cord, and unplug before reaching into the water.',
+    input.electrical ? ELECTRICAL_NOTE : CARE_NOTE,
     '',
     `The ${input.shopName} workshop`,
   ].join('\n')
@@ -43,7 +49,7 @@ export function shippedMailContent(input: ShippedMailInput) {
     `<p>Your order <strong>${escapeHtml(input.orderNumber)}</strong> is on its way with ${escapeHtml(input.carrier)} (${escapeHtml(input.service)}).<br>Tracking number: <strong>${escapeHtml(input.trackingNumber)}</strong></p>`,
     `<p>In the parcel:</p><ul>${items}</ul>`,
     partial ? `<p>The rest (${escapeHtml(input.backOrdered.join(', '))}) follows in a later parcel; we will write again when it ships.</p>` : '',
-    '<p>Before you fill the tote and plug in the pump, read the care and safety sheet in the box: ground-fault protected outlet only, a drip loop in the cord, and unplug before reaching into the water.</p>',
+    `<p>${input.electrical ? ELECTRICAL_NOTE : CARE_NOTE}</p>`,
     `<p>The ${escapeHtml(input.shopName)} workshop</p>`,
   ].join('\n')
   return { subject, text, html }

@@ -10,6 +10,7 @@ export function toPart(row: PartRow): Part {
     unitOfMeasure: row.unitOfMeasure,
     unitCostCents: row.unitCostCents,
     weightGrams: row.weightGrams,
+    electrical: row.electrical,
     supplier: row.supplier,
     leadTimeDays: row.leadTimeDays,
     reorderPoint: row.reorderPoint,

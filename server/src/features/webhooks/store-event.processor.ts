@@ -29,7 +29,7 @@ export async function processStoreEvent(deps: StoreEventDeps, storeEventId: stri
       const event = StoreEventSchema.parse(row.payload)
       const order = await orderByNumber(tx, event.orderNumber)
       if (event.type === 'order.paid') await applyPaid(tx, deps, event, row)
-      else if (order && event.type === 'order.cancelled') await cancelOrder(tx, order, { by: 'store', actor: null, eventId: event.eventId, reason: event.reason })
+      else if (order && event.type === 'order.cancelled') await cancelOrder(tx, order, { by: 'store', actor: null, eventId: event.eventId, reason: event.reason, jobs: deps.jobs })
       else if (order && event.type === 'order.address_changed') await applyAddressChange(tx, order, event, { early: false })
       // With no order yet, the event waits, stored and marked processed, for its paid event (applyPaid reads it back).
       await tx.update(storeEvents).set({ processedAt: new Date(), error: null }).where(eq(storeEvents.id, row.id))
@@ -90,7 +90,7 @@ async function applyPaid(tx: Tx, deps: StoreEventDeps, event: Paid, row: StoreEv
   }
   const cancel = early.find((e): e is Cancelled => e.type === 'order.cancelled')
   if (cancel) {
-    await cancelOrder(tx, current, { by: 'store', actor: null, eventId: cancel.eventId, reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment' })
+    await cancelOrder(tx, current, { by: 'store', actor: null, eventId: cancel.eventId, reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment', jobs: deps.jobs })
     return
   }
   await queueOrderReceivedMail(tx, deps.jobs, order.id)
