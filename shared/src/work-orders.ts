@@ -56,6 +56,28 @@ export const ReleaseResultSchema = z.object({
 /** What a release did. */
 export type ReleaseResult = z.infer<typeof ReleaseResultSchema>
 
+/** What a bulk release would do, order by order, in the turn each gets stock (see domain/release-plan). */
+export const ReleasePreviewSchema = z.object({
+  plan: z.array(
+    z.object({
+      orderId: uuid,
+      number: z.string(),
+      priority: z.enum(['normal', 'rush']),
+      promisedShipDate: z.string().nullable(),
+      turn: z.number().int(),
+      outcome: z.enum(['release', 'release_short', 'refuse']),
+      reason: z.string().nullable(),
+      parts: z.array(
+        z.object({ partId: uuid, sku: z.string(), name: z.string(), needed: z.number().int(), freeBefore: z.number().int(), takes: z.number().int(), short: z.number().int() }),
+      ),
+    }),
+  ),
+  /** Ids that match no order. */
+  missing: z.array(z.string()),
+})
+/** What a bulk release would do. */
+export type ReleasePreview = z.infer<typeof ReleasePreviewSchema>
+
 /** The field key under which a release refused for shortage names a short part: `short.<SKU>`. */
 export function shortageFieldKey(sku: string): string {
   return `short.${sku}`

@@ -2,7 +2,7 @@ import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { NewOrderSchema, OrderDetailSchema, type NewOrderDraft } from '@kitwright/shared/orders'
-import { ReleaseResultSchema, ShortagesSchema } from '@kitwright/shared/work-orders'
+import { ReleasePreviewSchema, ReleaseResultSchema, ShortagesSchema } from '@kitwright/shared/work-orders'
 import { bomLines, cutParts, kitRevisions, kits, orderLines, orders, parts, shopSettings, stockMoves, users, workOrders } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/db/seed'
 import { createKit, releaseRevision, saveRevision } from '../../server/src/features/kits/kits.service'
@@ -197,6 +197,48 @@ describe('releasing an order into work orders', () => {
     const result = ReleaseResultSchema.parse(res.body)
     expect(result.released.map((r) => r.number)).toEqual([good.number])
     expect(result.refused).toEqual([{ orderId: bad.id, number: bad.number, status: 409, message: expect.stringContaining('cancelled') }])
+  })
+})
+
+describe('bulk release by priority', () => {
+  it('gives scarce stock to rush first, then the oldest promise, whatever order the orders were ticked in; the preview said so first', async () => {
+    // 2 packs' worth free (4 valves, 2 per pack); three one-pack orders.
+    const { kitSku } = await starvedKit(4, 2)
+    const line = [{ kitSku, quantity: 1, unitPriceCents: 100 }]
+    const newest = await postOrder(buildNewOrder({ promisedShipDate: '2099-06-20', lines: line }))
+    const oldest = await postOrder(buildNewOrder({ promisedShipDate: '2099-06-01', lines: line }))
+    const rush = await postOrder(buildNewOrder({ promisedShipDate: '2099-06-15', lines: line }))
+    await t.db.update(orders).set({ priority: 'rush' }).where(eq(orders.id, rush.id))
+    const ticked = [newest.id, oldest.id, rush.id]
+
+    const preview = ReleasePreviewSchema.parse((await planner.post('/api/orders/release/preview').send({ orderIds: ticked })).body)
+    // By hand: turn 1 rush takes 2 (4 → 2), turn 2 the oldest promise takes 2 (2 → 0), turn 3 finds 0 free.
+    expect(preview.plan.map((p) => [p.number, p.turn, p.outcome])).toEqual([
+      [rush.number, 1, 'release'],
+      [oldest.number, 2, 'release'],
+      [newest.number, 3, 'refuse'],
+    ])
+    expect(await t.db.$count(workOrders, inArray(workOrders.orderId, ticked))).toBe(0) // the preview wrote nothing
+
+    const result = ReleaseResultSchema.parse((await planner.post('/api/orders/release').send({ orderIds: ticked })).body)
+    expect(result.released.map((r) => r.number)).toEqual([rush.number, oldest.number])
+    expect(result.refused).toEqual([{ orderId: newest.id, number: newest.number, status: 409, message: expect.stringContaining('needs 2, 0 free') }])
+  })
+
+  it('when nothing can be released, one summary names every order and why', async () => {
+    const { kitSku } = await starvedKit(0, 1)
+    const a = await postOrder(buildNewOrder({ lines: [{ kitSku, quantity: 1, unitPriceCents: 100 }] }))
+    const b = await postOrder(buildNewOrder({ lines: [{ kitSku, quantity: 1, unitPriceCents: 100 }] }))
+    const res = await planner.post('/api/orders/release').send({ orderIds: [a.id, b.id] })
+    expect(res.status).toBe(409)
+    const body = ApiErrorBodySchema.parse(res.body)
+    expect(body.error.message).toMatch(/^None of the 2 orders was released:\n• .+\n• .+$/)
+    expect(Object.keys(body.error.fields ?? {}).sort()).toEqual([`orders.${a.id}`, `orders.${b.id}`].sort())
+  })
+
+  it('the preview is for admins and planners only', async () => {
+    const { agent } = await signedInAs(app, t, 'packer')
+    expect((await agent.post('/api/orders/release/preview').send({ orderIds: [] })).status).toBe(403)
   })
 })
 

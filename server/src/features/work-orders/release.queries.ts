@@ -8,6 +8,21 @@ export async function lockOrder(tx: Tx, id: string) {
   return row
 }
 
+/** The order as it stands, without locking it (the release preview only reads). */
+export async function selectOrderForRelease(tx: Tx, id: string) {
+  const [row] = await tx.select().from(orders).where(eq(orders.id, id))
+  return row
+}
+
+/** What bulk release sorts by: priority, promised ship date, placed. */
+export async function selectReleaseSortKeys(db: Db, ids: readonly string[]) {
+  if (ids.length === 0) return []
+  return db
+    .select({ id: orders.id, number: orders.number, priority: orders.priority, promisedShipDate: orders.promisedShipDate, placedAt: orders.placedAt })
+    .from(orders)
+    .where(inArray(orders.id, [...ids]))
+}
+
 export async function selectLines(tx: Tx, orderId: string) {
   return tx.select().from(orderLines).where(eq(orderLines.orderId, orderId)).orderBy(asc(orderLines.lineNo))
 }

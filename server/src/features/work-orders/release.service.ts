@@ -1,4 +1,5 @@
-import type { ReleaseOrders, ReleaseResult, ReleasedOrder, ReleaseShortage } from '@kitwright/shared/work-orders'
+import { compareReleasePriority, planRelease, type ReleaseCandidate } from '@kitwright/shared/domain/release-plan'
+import type { ReleaseOrders, ReleasePreview, ReleaseResult, ReleasedOrder, ReleaseShortage } from '@kitwright/shared/work-orders'
 import { shortageFieldKey } from '@kitwright/shared/work-orders'
 import type { Db, Tx } from '../../db/client'
 import { Conflict, HttpError, NotFound } from '../../lib/http-errors'
@@ -16,7 +17,9 @@ import {
   selectKitsByStoreProduct,
   selectLines,
   selectNewestReleasedRevisions,
+  selectOrderForRelease,
   selectOrderNumbersById,
+  selectReleaseSortKeys,
   selectRevisionsWithCutParts,
 } from './release.queries'
 
@@ -25,12 +28,54 @@ export function formatSerial(n: number): string {
   return `U-${n}`
 }
 
-/** Free stock per part (on hand − all reservations), read after the parts are locked. */
-async function lockedAvailable(tx: Tx, partIds: readonly string[]): Promise<Map<string, number>> {
-  await lockParts(tx, partIds)
+/** Free stock per part (on hand − all reservations); `lock` first when the caller is about to reserve. */
+async function freeStock(tx: Tx, partIds: readonly string[], { lock }: { lock: boolean }): Promise<Map<string, number>> {
+  if (lock) await lockParts(tx, partIds)
   const available = new Map<string, number>()
   for (const b of await selectBuckets(tx, partIds)) available.set(b.partId, (available.get(b.partId) ?? 0) + b.onHand - b.reserved)
   return available
+}
+
+type OrderRow = NonNullable<Awaited<ReturnType<typeof lockOrder>>>
+type LineRow = Awaited<ReturnType<typeof selectLines>>[number]
+
+/** Why this order cannot be released at all, whatever the stock (null when it can). */
+function releaseBlocker(order: OrderRow): HttpError | null {
+  if (order.status === 'cancelled') return new Conflict(`Order ${order.number} is cancelled; a cancelled order cannot be released`)
+  if (order.status !== 'open') return new Conflict(`Order ${order.number} is already released; its work orders are on the order page`)
+  if (order.heldAt) return onHoldConflict(order, 'released')
+  if (order.source === 'store' && order.paymentStatus !== 'paid') {
+    return new Conflict(`Order ${order.number} is not paid yet (payment ${order.paymentStatus}); release it when the store reports it paid`)
+  }
+  return null
+}
+
+function unmappedLine(order: OrderRow, line: LineRow): Conflict {
+  return new Conflict(`Order ${order.number}, line ${line.lineNo}: ${line.sku} (${line.description}) maps to no kit; set it as the store product of a kit, then release`, {
+    [`lines.${line.lineNo - 1}.kitId`]: 'Maps to no kit',
+  })
+}
+
+function noReleasedRevision(order: OrderRow, line: LineRow): Conflict {
+  return new Conflict(`Order ${order.number}: kit ${line.sku} has no released revision; release one on the kits page, then release the order`, {
+    [`lines.${line.lineNo - 1}.kitId`]: 'No released revision',
+  })
+}
+
+type Revision = Awaited<ReturnType<typeof selectNewestReleasedRevisions>>[number]
+type BomRow = Awaited<ReturnType<typeof selectBomLines>>[number]
+
+/** What the whole order needs per part: each line's kit revision BOM × the line's units. */
+function orderNeeds(lines: readonly { kitId: string | null; quantity: number }[], revisions: ReadonlyMap<string, Revision>, bom: readonly BomRow[]) {
+  const needed = new Map<string, { sku: string; name: string; quantity: number }>()
+  for (const line of lines) {
+    const rev = revisions.get(line.kitId!)!
+    for (const b of bom.filter((x) => x.revisionId === rev.id)) {
+      const n = needed.get(b.partId) ?? { sku: b.sku, name: b.name, quantity: 0 }
+      needed.set(b.partId, { ...n, quantity: n.quantity + b.quantity * line.quantity })
+    }
+  }
+  return needed
 }
 
 /**
@@ -50,12 +95,8 @@ async function lockedAvailable(tx: Tx, partIds: readonly string[]): Promise<Map<
 export async function releaseOrder(tx: Tx, orderId: string, options: { allowShort: boolean; automatic?: boolean }, actor: Actor | null): Promise<ReleasedOrder> {
   const order = await lockOrder(tx, orderId)
   if (!order) throw new NotFound('No such order')
-  if (order.status === 'cancelled') throw new Conflict(`Order ${order.number} is cancelled; a cancelled order cannot be released`)
-  if (order.status !== 'open') throw new Conflict(`Order ${order.number} is already released; its work orders are on the order page`)
-  if (order.heldAt) throw onHoldConflict(order, 'released')
-  if (order.source === 'store' && order.paymentStatus !== 'paid') {
-    throw new Conflict(`Order ${order.number} is not paid yet (payment ${order.paymentStatus}); release it when the store reports it paid`)
-  }
+  const blocker = releaseBlocker(order)
+  if (blocker) throw blocker
 
   // A line that mapped to no kit when it came in may map now, if the planner has since set the store product on a kit.
   const lines = await selectLines(tx, order.id)
@@ -63,38 +104,21 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
   const byProduct = new Map((await selectKitsByStoreProduct(tx, unmapped.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k]))
   for (const line of unmapped) {
     const kit = line.storeProductId ? byProduct.get(line.storeProductId) : undefined
-    if (!kit) {
-      throw new Conflict(`Order ${order.number}, line ${line.lineNo}: ${line.sku} (${line.description}) maps to no kit; set it as the store product of a kit, then release`, {
-        [`lines.${line.lineNo - 1}.kitId`]: 'Maps to no kit',
-      })
-    }
+    if (!kit) throw unmappedLine(order, line)
     await mapLineToKit(tx, line.id, kit)
     Object.assign(line, { kitId: kit.id, sku: kit.sku, description: kit.name })
     await addOrderEvent(tx, { orderId: order.id, kind: 'note', message: `Line ${line.lineNo} now maps to kit ${kit.sku} (${kit.name})`, actor })
   }
 
   const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(lines.map((l) => l.kitId!))])).map((r) => [r.kitId, r]))
-  for (const line of lines) {
-    if (!revisions.has(line.kitId!)) {
-      throw new Conflict(`Order ${order.number}: kit ${line.sku} has no released revision; release one on the kits page, then release the order`, {
-        [`lines.${line.lineNo - 1}.kitId`]: 'No released revision',
-      })
-    }
-  }
+  for (const line of lines) if (!revisions.has(line.kitId!)) throw noReleasedRevision(order, line)
   const revisionIds = [...new Set([...revisions.values()].map((r) => r.id))]
   const bom = await selectBomLines(tx, revisionIds)
   const withCuts = await selectRevisionsWithCutParts(tx, revisionIds)
 
   // What the whole order needs, against what is free once the parts are locked.
-  const needed = new Map<string, { sku: string; name: string; quantity: number }>()
-  for (const line of lines) {
-    const rev = revisions.get(line.kitId!)!
-    for (const b of bom.filter((x) => x.revisionId === rev.id)) {
-      const n = needed.get(b.partId) ?? { sku: b.sku, name: b.name, quantity: 0 }
-      needed.set(b.partId, { ...n, quantity: n.quantity + b.quantity * line.quantity })
-    }
-  }
-  const free = await lockedAvailable(tx, [...needed.keys()])
+  const needed = orderNeeds(lines, revisions, bom)
+  const free = await freeStock(tx, [...needed.keys()], { lock: true })
   const short = [...needed.entries()].filter(([partId, n]) => n.quantity > Math.max(0, free.get(partId) ?? 0))
   if (short.length > 0 && !options.allowShort) {
     const words = short.map(([partId, n]) => `${n.sku} ${n.name}: needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`)
@@ -168,14 +192,57 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
 }
 
 /**
- * Releases each order in its own transaction. The answer lists what was released and what was
- * refused and why; when nothing could be released, the refusal itself is thrown (for one order,
- * its own 409 or 404, naming what is short).
+ * What a bulk release would do, without doing it: the orders in the turn they would get stock (rush
+ * first, then the oldest promise), what each would take, and which would be refused and why. Read in
+ * one transaction so the picture is consistent; nothing is written or locked.
+ */
+export async function previewRelease(db: Db, input: ReleaseOrders): Promise<ReleasePreview> {
+  return db.transaction(async (tx) => {
+    const candidates: ReleaseCandidate[] = []
+    const missing: string[] = []
+    for (const orderId of [...new Set(input.orderIds)]) {
+      const order = await selectOrderForRelease(tx, orderId)
+      if (!order) {
+        missing.push(orderId)
+        continue
+      }
+      const base = { orderId, number: order.number, priority: order.priority, promisedShipDate: order.promisedShipDate, placedAt: order.placedAt.toISOString() }
+      const blocker = releaseBlocker(order)
+      if (blocker) {
+        candidates.push({ ...base, blocked: blocker.message, needs: [] })
+        continue
+      }
+      const lines = await selectLines(tx, order.id)
+      const byProduct = new Map((await selectKitsByStoreProduct(tx, lines.flatMap((l) => (l.kitId === null && l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k.id]))
+      const mapped = lines.map((l) => ({ ...l, kitId: l.kitId ?? (l.storeProductId ? (byProduct.get(l.storeProductId) ?? null) : null) }))
+      const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(mapped.flatMap((l) => (l.kitId ? [l.kitId] : [])))])).map((r) => [r.kitId, r]))
+      const unmapped = mapped.find((l) => l.kitId === null)
+      const unreleased = mapped.find((l) => l.kitId !== null && !revisions.has(l.kitId))
+      const why = unmapped ? unmappedLine(order, unmapped) : unreleased ? noReleasedRevision(order, unreleased) : null
+      if (why) {
+        candidates.push({ ...base, blocked: why.message, needs: [] })
+        continue
+      }
+      const bom = await selectBomLines(tx, [...new Set([...revisions.values()].map((r) => r.id))])
+      const needs = [...orderNeeds(mapped, revisions, bom).entries()].map(([partId, n]) => ({ partId, ...n }))
+      candidates.push({ ...base, blocked: null, needs })
+    }
+    const free = await freeStock(tx, [...new Set(candidates.flatMap((c) => c.needs.map((n) => n.partId)))], { lock: false })
+    return { plan: planRelease(candidates, free, { allowShort: input.allowShort }), missing }
+  })
+}
+
+/**
+ * Releases each order in its own transaction, in priority order (rush first, then the oldest
+ * promised date; see planRelease), so scarce stock goes where it is most needed whatever order the
+ * planner ticked them in. The answer lists what was released and what was refused and why; when
+ * nothing could be released, the refusal itself is thrown (for one order, its own 409 or 404,
+ * naming what is short; for several, one summary with a line per order).
  */
 export async function releaseOrders(db: Db, input: ReleaseOrders, actor: Actor): Promise<ReleaseResult> {
   const result: ReleaseResult = { released: [], refused: [] }
   const errors: HttpError[] = []
-  for (const orderId of [...new Set(input.orderIds)]) {
+  for (const orderId of await inPriorityOrder(db, [...new Set(input.orderIds)])) {
     try {
       result.released.push(await db.transaction((tx) => releaseOrder(tx, orderId, { allowShort: input.allowShort }, actor)))
     } catch (err) {
@@ -189,7 +256,16 @@ export async function releaseOrders(db: Db, input: ReleaseOrders, actor: Actor):
   if (result.released.length === 0) {
     if (errors.length === 1) throw errors[0]!
     const fields = Object.fromEntries(result.refused.map((r) => [`orders.${r.orderId}`, r.message]))
-    throw new Conflict(`None of the ${errors.length} orders was released: ${result.refused.map((r) => r.message).join(' | ')}`, fields)
+    throw new Conflict(`None of the ${errors.length} orders was released:\n${result.refused.map((r) => `• ${r.message}`).join('\n')}`, fields)
   }
   return result
+}
+
+/** The ids sorted as planRelease gives out stock; unknown ids last (they answer 404). */
+async function inPriorityOrder(db: Db, ids: string[]): Promise<string[]> {
+  const keys = await selectReleaseSortKeys(db, ids)
+  const known = keys.map((k) => ({ orderId: k.id, number: k.number, priority: k.priority, promisedShipDate: k.promisedShipDate, placedAt: k.placedAt.toISOString() }))
+  known.sort(compareReleasePriority)
+  const found = new Set(known.map((k) => k.orderId))
+  return [...known.map((k) => k.orderId), ...ids.filter((id) => !found.has(id))]
 }

@@ -3,7 +3,7 @@ import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
-import { releaseOrders } from './release.service'
+import { previewRelease, releaseOrders } from './release.service'
 import { listShortages } from './shortages.service'
 
 /** Releasing orders into work orders; mounted beside the orders routes. */
@@ -16,6 +16,9 @@ export function releaseRouter(deps: Deps, routes: RouteTable) {
       await recordAudit(deps.db, auditContext(req), { action: 'order.release', entityType: 'order', entityId: order.orderId, summary: `Released order ${order.number} into ${order.workOrders.length} work order(s): ${serials}` })
     }
     res.json(result)
+  })
+  r.post('/release/preview', ['admin', 'planner'], async (req, res) => {
+    res.json(await previewRelease(deps.db, ReleaseOrdersSchema.parse(req.body)))
   })
   return r
 }
