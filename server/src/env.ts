@@ -5,13 +5,11 @@ import { z } from 'zod'
 
 /** An http(s) address with nothing after the host and port: the app is served from the root. */
 const origin = (message: string) =>
-  z
-    .string()
-    .url(message)
-    .refine((v) => {
-      const u = new URL(v)
-      return (u.protocol === 'http:' || u.protocol === 'https:') && u.pathname === '/' && !u.search && !u.hash
-    }, message)
+  z.string().refine((v) => {
+    if (!URL.canParse(v)) return false
+    const u = new URL(v)
+    return (u.protocol === 'http:' || u.protocol === 'https:') && u.pathname === '/' && !u.search && !u.hash
+  }, message)
 
 const EnvSchema = z.object({
   NODE_ENV: z.enum(['development', 'production', 'test']).default('development'),
