@@ -54,3 +54,22 @@ export function formatHsCode(digits: string): string {
 export const CUSTOMS_FORMS = ['CN 22', 'CN 23'] as const
 /** A UPU customs declaration form. */
 export type CustomsForm = (typeof CUSTOMS_FORMS)[number]
+
+/** Which form a parcel's declaration is on: CN 22 up to 300 SDR, CN 23 above (see domain/customs.ts). */
+export const CustomsFormSchema = z.enum(CUSTOMS_FORMS)
+
+/**
+ * Whether a shipment needs a customs declaration (it leaves the ship-from country), whether it can be
+ * printed, what is missing, and per recorded parcel its form, value (cents of `currency`) and net weight.
+ */
+export const CustomsSummarySchema = z.object({
+  required: z.boolean(),
+  shipFromCountry: z.string().nullable(),
+  shipToCountry: z.string(),
+  currency: z.string(),
+  ready: z.boolean(),
+  problems: z.array(z.string()),
+  parcels: z.array(z.object({ position: z.number().int(), form: CustomsFormSchema, valueCents: z.number().int(), netGrams: z.number().int() })),
+})
+/** A shipment's customs summary. */
+export type CustomsSummary = z.infer<typeof CustomsSummarySchema>
