@@ -18,6 +18,7 @@ import { usersRouter } from './features/users/users.routes'
 import { publicRecordRouter } from './features/build/public-record.routes'
 import { buildRouter, unitsRouter } from './features/build/build.routes'
 import { packRouter, shipmentsRouter } from './features/pack/pack.routes'
+import { customsRouter } from './features/pack/customs.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { reportsRouter } from './features/reports/reports.routes'
@@ -53,7 +54,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, reportsRouter, tabletsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)
