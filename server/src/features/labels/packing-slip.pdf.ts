@@ -3,6 +3,12 @@ import { code128Png } from './barcode'
 import { CARE_NOTES, ELECTRICAL_CAUTIONS, LOCAL_CODES } from './care-sheet'
 import { createPdf, pdfBuffer, PAPER } from './pdf-document'
 
+/** One thing in the box: a unit or a pack, with what comes with it. */
+export interface SlipLine {
+  title: string
+  detail: string
+}
+
 export interface PackingSlip {
   shopName: string
   /** The ship-from address, which is also where returns go. */
@@ -14,7 +20,12 @@ export interface PackingSlip {
   customerName: string
   shipTo: string[]
   trackingNumber: string | null
-  lines: { title: string; detail: string }[]
+  lines: SlipLine[]
+  /**
+   * The parcels once the label is bought, each with its own tracking number and what is in it: one
+   * section each. Empty before: `lines` is then printed as what goes in this shipment.
+   */
+  parcels: { position: number; of: number; trackingNumber: string | null; boxName: string; lines: SlipLine[] }[]
   backOrdered: string[]
   /** The fill line per kit revision in the parcel: depth in base units above the tote floor, and the volume. */
   fillLines: { kit: string; depth: number; litres: number }[]
@@ -54,16 +65,30 @@ export async function packingSlipPdf(slip: PackingSlip, paper: 'letter' | 'a4'):
   doc.font('body').text(slip.customerName, margin + width / 2, doc.y, { width: width / 2 })
   doc.y = Math.max(doc.y, top + 80)
 
-  doc.moveDown(0.5)
-  doc.font('bold').fontSize(13).text('In this parcel', margin, doc.y)
-  doc.moveTo(margin, doc.y + 2).lineTo(pw - margin, doc.y + 2).lineWidth(0.75).strokeColor('#999999').stroke()
-  doc.moveDown(0.4)
-  for (const line of slip.lines) {
-    const y = doc.y
-    doc.save().lineWidth(0.75).strokeColor('#333333').rect(margin, y + 2, 9, 9).stroke().restore()
-    doc.font('bold').fontSize(11).fillColor('#111111').text(line.title, margin + 16, y, { width: width - 16 })
-    doc.font('body').fontSize(9.5).fillColor('#333333').text(line.detail, margin + 16, doc.y, { width: width - 16 })
-    doc.moveDown(0.35)
+  // One section per parcel with its own tracking number; before the label, what goes in this shipment.
+  const sections =
+    slip.parcels.length > 0
+      ? slip.parcels.map((p) => ({ heading: `Parcel ${p.position} of ${p.of}`, aside: p.trackingNumber ? `Tracking ${p.trackingNumber}` : '', note: p.boxName, lines: p.lines }))
+      : [{ heading: 'In this shipment', aside: '', note: 'Parcels and their tracking numbers are printed once the label is bought', lines: slip.lines }]
+  for (const section of sections) {
+    doc.moveDown(0.5)
+    // A parcel's heading never sits alone at the foot of a page.
+    if (doc.y + 60 > ph - margin) doc.addPage({ size: PAPER[paper], margin })
+    const headTop = doc.y
+    doc.font('bold').fontSize(13).fillColor('#111111').text(section.heading, margin, headTop, { width: width / 2 })
+    if (section.aside) doc.font('bold').fontSize(12).text(section.aside, margin + width / 2, headTop + 1, { width: width / 2, align: 'right' })
+    doc.y = Math.max(doc.y, headTop + 16)
+    doc.moveTo(margin, doc.y + 2).lineTo(pw - margin, doc.y + 2).lineWidth(0.75).strokeColor('#999999').stroke()
+    doc.moveDown(0.3)
+    doc.font('body').fontSize(9).fillColor('#555555').text(section.note, margin, doc.y, { width })
+    doc.moveDown(0.3)
+    for (const line of section.lines) {
+      const y = doc.y
+      doc.save().lineWidth(0.75).strokeColor('#333333').rect(margin, y + 2, 9, 9).stroke().restore()
+      doc.font('bold').fontSize(11).fillColor('#111111').text(line.title, margin + 16, y, { width: width - 16 })
+      doc.font('body').fontSize(9.5).fillColor('#333333').text(line.detail, margin + 16, doc.y, { width: width - 16 })
+      doc.moveDown(0.35)
+    }
   }
   if (slip.backOrdered.length > 0) {
     doc.moveDown(0.3)

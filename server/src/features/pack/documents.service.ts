@@ -6,7 +6,7 @@ import type { OrderRow, ShopSettingsRow } from '../../db/schema/index'
 import { Conflict, NotFound } from '../../lib/http-errors'
 import { shipFromOf } from '../settings/settings.service'
 import { needsElectricalCautions } from '../labels/care-sheet'
-import { packingSlipPdf, type PackingSlip } from '../labels/packing-slip.pdf'
+import { packingSlipPdf, type PackingSlip, type SlipLine } from '../labels/packing-slip.pdf'
 import { shippingLabelPdf } from '../labels/shipping-label.pdf'
 import { loadPackData, shippingSplit } from './pack-view'
 import { bomOfRevisions, findShipment, parcelsOf } from './pack.queries'
@@ -42,15 +42,24 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
   const recorded = shipment.status === 'packing' ? [] : await parcelsOf(db, shipment.id)
   const going = new Set(recorded.length ? recorded.flatMap((p) => p.workOrderIds) : shippingSplit(data).shipping)
   const units = data.units.filter((u) => going.has(u.workOrder.id))
-  const lines: PackingSlip['lines'] = []
+  const lineOf = new Map<string, SlipLine>()
   for (const u of units) {
     const bags = data.items.filter((i) => i.workOrderId === u.workOrder.id && i.kind === 'bag')
     const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit') || u.revision.frameInputs !== null
-    lines.push({
+    lineOf.set(u.workOrder.id, {
       title: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`,
       detail: built ? `Revision ${u.revision.code}, assembled and leak-tested${bags.length ? `; with ${bags.map((b) => b.description.split(' of loose')[0]!.toLowerCase()).join(', ')} of loose parts` : ''}` : `Spare-parts pack, revision ${u.revision.code}`,
     })
   }
+  const lines = [...lineOf.values()]
+  // Each parcel its own section: its tracking number and the units the packer put in it (bags travel with their unit).
+  const parcels: PackingSlip['parcels'] = recorded.map((p) => ({
+    position: p.position,
+    of: recorded.length,
+    trackingNumber: p.trackingNumber ?? shipment.trackingNumber,
+    boxName: p.boxName,
+    lines: p.workOrderIds.map((id) => lineOf.get(id)).filter((l) => l !== undefined),
+  }))
   const fillLines: PackingSlip['fillLines'] = []
   for (const rev of new Map(units.map((u) => [u.revision.id, u])).values()) {
     const frame = RevisionFrameSchema.safeParse(rev.revision.frameInputs)
@@ -73,8 +82,10 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
       placedAt: placed,
       customerName: data.order.customerName,
       shipTo: shipToLines(data.order),
-      trackingNumber: shipment.trackingNumber,
+      // With parcel sections each carries its own tracking number.
+      trackingNumber: parcels.length > 0 ? null : shipment.trackingNumber,
       lines,
+      parcels,
       backOrdered: shipment.partialApprovedAt || shipment.status !== 'packing' ? backOrdered : [],
       fillLines,
       electricalParts,
