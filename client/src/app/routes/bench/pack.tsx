@@ -7,6 +7,7 @@ import { ScanField } from '../../../components/ui/scan-field'
 import { Caution } from '../../../components/ui/section'
 import { meOptions } from '../../../features/auth/api/auth-queries'
 import { packOrderOptions, useLookup, useScanItem } from '../../../features/pack-bench/api/pack-queries'
+import { BuyingPanel } from '../../../features/pack-bench/components/buying-panel'
 import { LabelledPanel } from '../../../features/pack-bench/components/labelled-panel'
 import { OrderHeader } from '../../../features/pack-bench/components/order-header'
 import { PackingList } from '../../../features/pack-bench/components/packing-list'
@@ -104,6 +105,7 @@ export function Component() {
           <PrintLinks view={view} />
           <Caution>The slip carries the customer's care and safety sheet (fill line, ground-fault protected outlet, drip loop): put it in the box on top.</Caution>
           {packing && view.canLabel && <ParcelsPanel key={`${view.shipment?.id}-${view.shippingSerials.join()}`} view={view} onError={setProblem} />}
+          {view.shipment?.status === 'buying' && <BuyingPanel view={view} onError={setProblem} />}
           {view.shipment?.status === 'labelled' && <LabelledPanel view={view} onShipped={(r) => { setProblem(null); setShipped(r) }} onError={setProblem} />}
         </>
       )}

@@ -31,6 +31,10 @@ export const useApprovePartial = () =>
   useViewAction((v: { orderId: string; note: string }) => apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }))
 export const useBuyLabel = () => useViewAction((v: BuyLabel & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/label`, PackViewSchema, { method: 'POST', body: { service: v.service, parcels: v.parcels } }))
 
+/** Voids the shipment's label with why; the carrier is asked to refund it. */
+export const useVoidLabel = () =>
+  useViewAction((v: { shipmentId: string; reason: string }) => apiFetch(`/shipments/${v.shipmentId}/void-label`, PackViewSchema, { method: 'POST', body: { reason: v.reason } }))
+
 export function useQuote() {
   return useMutation({ mutationFn: (v: QuoteRequest & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/quote`, z.array(QuoteSchema), { method: 'POST', body: { parcels: v.parcels } }) })
 }

@@ -4,6 +4,7 @@ import type { PackView, ShipResult } from '@kitwright/shared/pack'
 import { Button } from '../../../components/ui/button'
 import { useLengthUnit } from '../../../lib/shop-settings'
 import { useShip } from '../api/pack-queries'
+import { VoidLabel } from './void-label'
 
 /** The label is bought: the parcels with their SSCCs, and one tap to ship. */
 export function LabelledPanel({ view, onShipped, onError }: { view: PackView; onShipped: (result: ShipResult) => void; onError: (message: string) => void }) {
@@ -19,12 +20,18 @@ export function LabelledPanel({ view, onShipped, onError }: { view: PackView; on
         {view.parcels.map((p) => (
           <li key={p.position}>
             Parcel {p.position} ({p.serials.join(', ')}): {p.boxName}, billable {formatWeight(p.billableGrams, unit)}, SSCC {p.sscc ? formatSscc(p.sscc, 7) : ''}
+            {p.trackingNumber && (
+              <>
+                , tracking <span className="font-mono">{p.trackingNumber}</span>
+              </>
+            )}
           </li>
         ))}
       </ul>
       <Button size="bench" className="h-20 w-full text-2xl" disabled={ship.isPending} onClick={() => ship.mutate(view.order.id, { onSuccess: onShipped, onError: (e) => onError(e.message) })}>
         Ship order {view.order.number}
       </Button>
+      <VoidLabel view={view} onError={onError} />
     </div>
   )
 }
