@@ -45,8 +45,14 @@ export const shopSettings = pgTable(
     leadTimeDays: integer().notNull().default(7),
     /** When on, the job that takes a paid store order in also releases it (short stock left as a shortage). */
     autoReleasePaid: boolean().notNull().default(false),
+    /** How long the nesting engine may plan one cut run by default (ms); "take longer" on a run passes more. */
+    nestingTimeLimitMs: integer().notNull().default(2000),
     updatedAt: updatedAt(),
   },
-  (t) => [check('shop_settings_single_row', sql`${t.id} = 1`), check('shop_settings_lead_time_days_range', sql`${t.leadTimeDays} between 0 and 250`)],
+  (t) => [
+    check('shop_settings_single_row', sql`${t.id} = 1`),
+    check('shop_settings_lead_time_days_range', sql`${t.leadTimeDays} between 0 and 250`),
+    check('shop_settings_nesting_time_limit_range', sql`${t.nestingTimeLimitMs} between 500 and 120000`),
+  ],
 )
 export type ShopSettingsRow = typeof shopSettings.$inferSelect

@@ -1,0 +1,2 @@
+ALTER TABLE "shop_settings" ADD COLUMN "nesting_time_limit_ms" integer DEFAULT 2000 NOT NULL;--> statement-breakpoint
+ALTER TABLE "shop_settings" ADD CONSTRAINT "shop_settings_nesting_time_limit_range" CHECK ("shop_settings"."nesting_time_limit_ms" between 500 and 120000);
