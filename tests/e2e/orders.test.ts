@@ -2,6 +2,7 @@ import type { Page } from 'playwright-core'
 import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { DEMO_USERS } from '../../server/src/db/seed'
 import { browserPerTest, signIn } from '../support/browser'
+import { buildNewOrder } from '../support/order-factories'
 
 const baseUrl = inject('baseUrl')
 let page: Page
@@ -137,5 +138,45 @@ describe('orders, in Chromium', () => {
     expect(cells.slice(1, 5)).toEqual(['3 each', '2', '0', '1 each'])
     expect(cells.at(-1)).toBe('20 each')
     await shot('shortages')
+  })
+  it('releases chosen orders by priority after a preview, and sums up the refusals in one place', async () => {
+    // Our own pack kit with 2 valves in stock, 1 per pack, and three one-pack phone orders.
+    const api = page.request
+    const post = async (path: string, data: unknown, method: 'post' | 'put' = 'post') => {
+      const res = await api[method](`${baseUrl}/api${path}`, { data })
+      expect(res.status(), await res.text()).toBeLessThan(300)
+      return (await res.json()) as { id: string; revisions: { id: string }[] }
+    }
+    const part = await post('/parts', { sku: 'E2E-FLOAT-B', name: 'Float valve (bulk test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 0 })
+    await post('/stock/receive', { lines: [{ partId: part.id, quantity: 2 }] })
+    const kit = await post('/kits', { sku: 'E2E-PACK-BULK', name: 'Float valve pack (bulk test)', storeProductId: null, description: null })
+    const rev = kit.revisions[0]!.id
+    const step = { text: 'Bag the valve.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null }
+    await post(`/revisions/${rev}`, { notes: null, frame: null, leakTest: null, bomLines: [{ partId: part.id, quantity: 1, note: null }], cutParts: [], buildSteps: [step] }, 'put')
+    await post(`/revisions/${rev}/release`, {})
+    const line = [{ kitSku: 'E2E-PACK-BULK', quantity: 1, unitPriceCents: 900 }]
+    await post('/orders', buildNewOrder({ number: 'P-BULK-3', promisedShipDate: '2031-07-30', lines: line }))
+    await post('/orders', buildNewOrder({ number: 'P-BULK-1', promisedShipDate: '2031-07-01', lines: line }))
+    await post('/orders', buildNewOrder({ number: 'P-BULK-2', promisedShipDate: '2031-07-15', lines: line }))
+
+    await page.goto(`${baseUrl}/orders?q=P-BULK`)
+    for (const n of ['P-BULK-3', 'P-BULK-1', 'P-BULK-2']) await page.getByLabel(`Choose ${n} to release`).check()
+    await page.getByRole('button', { name: 'Release chosen orders…' }).click()
+    const preview = page.getByRole('table', { name: 'Release preview' })
+    await preview.waitFor()
+    // By hand: 2 free; P-BULK-1 (Jul 1) takes 1, P-BULK-2 (Jul 15) takes 1, P-BULK-3 (Jul 30) finds none.
+    const rows = await preview.getByRole('row').allTextContents()
+    expect(rows.slice(1).map((r) => r.match(/P-BULK-\d/)![0])).toEqual(['P-BULK-1', 'P-BULK-2', 'P-BULK-3'])
+    expect(rows[3]).toContain('Will not be released')
+    expect(rows[3]).toContain('needs 1, 0 free')
+    await shot('orders-release-preview')
+
+    await page.getByRole('button', { name: 'Release 2 order(s) as shown' }).click()
+    const summary = page.getByRole('status', { name: 'Release summary' })
+    await summary.getByText('Released 2 orders into 2 work orders.').waitFor()
+    expect(await summary.getByRole('listitem').allTextContents()).toEqual([expect.stringContaining('P-BULK-3')])
+    await shot('orders-release-summary')
+    await summary.getByRole('button', { name: 'Close' }).click()
+    await summary.waitFor({ state: 'detached' })
   })
 })

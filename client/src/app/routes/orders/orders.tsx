@@ -1,16 +1,13 @@
 import { useQuery } from '@tanstack/react-query'
 import { useCallback, useState } from 'react'
 import { Link, useSearchParams } from 'react-router-dom'
-import { toast } from 'sonner'
 import { OrderListQuerySchema, type OrderListQuery } from '@kitwright/shared/orders'
 import { querySearchWithDefaults, queryToSearch } from '@kitwright/shared/pagination'
-import { Button } from '../../../components/ui/button'
 import { paths } from '../../../config/paths'
 import { ordersExportHref, ordersListOptions } from '../../../features/orders/api/order-queries'
-import { useReleaseOrders } from '../../../features/orders/api/use-release-orders'
+import { BulkReleasePanel } from '../../../features/orders/components/bulk-release-panel'
 import { OrdersFilters } from '../../../features/orders/components/orders-filters'
 import { OrdersTable } from '../../../features/orders/components/orders-table'
-import { ApiError } from '../../../lib/api-client'
 
 const linkButton = 'inline-flex h-11 items-center rounded-md px-4 font-bold'
 
@@ -19,7 +16,6 @@ export function Component() {
   // Page, sort, filters and search live in the URL; a bad or stale link falls back to defaults.
   const query = querySearchWithDefaults(OrderListQuerySchema, searchParams)
   const list = useQuery(ordersListOptions(query))
-  const release = useReleaseOrders()
   const [selected, setSelected] = useState<ReadonlySet<string>>(new Set())
   const toggle = useCallback((id: string) => setSelected((prev) => (prev.has(id) ? new Set([...prev].filter((x) => x !== id)) : new Set([...prev, id]))), [])
   const onQueryChange = useCallback(
@@ -27,20 +23,6 @@ export function Component() {
       setSearchParams((prev) => queryToSearch(OrderListQuerySchema, { ...querySearchWithDefaults(OrderListQuerySchema, prev), ...change }), { replace: true }),
     [setSearchParams],
   )
-  const releaseSelected = () =>
-    release.mutate(
-      { orderIds: [...selected] },
-      {
-        onSuccess: (r) => {
-          setSelected(new Set())
-          const units = r.released.reduce((s, o) => s + o.workOrders.length, 0)
-          toast.success(`Released ${r.released.length} order${r.released.length === 1 ? '' : 's'} into ${units} work orders`)
-          for (const refused of r.refused) toast.error(refused.message, { duration: 10_000 })
-        },
-        onError: (err) => toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright', { duration: 10_000 }),
-      },
-    )
-
   return (
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
@@ -56,20 +38,7 @@ export function Component() {
         </a>
       </div>
       <OrdersFilters query={query} onQueryChange={onQueryChange} />
-      {selected.size > 0 && (
-        <div className="flex flex-wrap items-center gap-3 rounded-lg border border-brand-600 bg-brand-50 p-3">
-          <span className="font-bold">
-            {selected.size} order{selected.size === 1 ? '' : 's'} chosen
-          </span>
-          <Button onClick={releaseSelected} disabled={release.isPending}>
-            Release chosen orders
-          </Button>
-          <Button variant="ghost" onClick={() => setSelected(new Set())}>
-            Clear
-          </Button>
-          <span className="text-stone-700">An order short of stock is refused and stays open; open it to release it anyway.</span>
-        </div>
-      )}
+      {selected.size > 0 && <BulkReleasePanel key={[...selected].join()} orderIds={[...selected]} onDone={() => setSelected(new Set())} />}
       {list.isError ? (
         <p role="alert" className="text-red-700">
           {list.error.message}

@@ -1,5 +1,5 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query'
-import { ReleaseResultSchema, type ReleaseOrdersInput } from '@kitwright/shared/work-orders'
+import { ReleasePreviewSchema, ReleaseResultSchema, type ReleaseOrdersInput } from '@kitwright/shared/work-orders'
 import { apiFetch } from '../../../lib/api-client'
 import { orderKeys } from './order-queries'
 
@@ -15,5 +15,12 @@ export function useReleaseOrders() {
         // The shortages page reads the same work orders.
         qc.invalidateQueries({ queryKey: ['shortages'] }),
       ]),
+  })
+}
+
+/** What releasing these orders would do (who gets stock, who is refused), without doing it. */
+export function useReleasePreview() {
+  return useMutation({
+    mutationFn: (input: ReleaseOrdersInput) => apiFetch('/orders/release/preview', ReleasePreviewSchema, { method: 'POST', body: input }),
   })
 }
