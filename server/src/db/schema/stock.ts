@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm'
-import { check, index, integer, pgEnum, pgTable, text, uuid } from 'drizzle-orm/pg-core'
+import { check, index, integer, pgEnum, pgSequence, pgTable, text, uuid } from 'drizzle-orm/pg-core'
 import { OFFCUT_STATUSES, STOCK_MOVE_KINDS } from '@kitwright/shared/stock'
 import { createdAt, id } from './columns'
 import { parts } from './parts'
@@ -8,11 +8,22 @@ import { users } from './users'
 export const stockMoveKindEnum = pgEnum('stock_move_kind', STOCK_MOVE_KINDS)
 export const offcutStatusEnum = pgEnum('offcut_status', OFFCUT_STATUSES)
 
+/** Numbers of offcut labels, shop-wide and never reused. */
+export const offcutCodeSeq = pgSequence('offcut_code_seq', { startWith: 1 })
+
 /** A remnant of pipe at or above the shop's minimum, kept in stock with its own length and label. */
 export const offcuts = pgTable(
   'offcuts',
   {
     id: id(),
+    /**
+     * The code on its label, `OC-` and a number from a sequence: unique by construction (a unique
+     * constraint besides), short enough for a Code 128 on a 2 × 1 in label.
+     */
+    code: text()
+      .notNull()
+      .unique()
+      .default(sql`'OC-' || lpad(nextval('offcut_code_seq')::text, 6, '0')`),
     partId: uuid().notNull().references(() => parts.id),
     length: integer().notNull(),
     status: offcutStatusEnum().notNull().default('in_stock'),
