@@ -130,8 +130,9 @@ export async function customsDeclaration(db: Db, shipmentId: string): Promise<Bu
   if (missing.length > 0) throw new Conflict(`The customs declaration cannot be printed: ${parcels.map((p) => missingText(p.declaration)).filter(Boolean).join('; ')}. A planner sets them on the part (Catalog → Parts)`)
   const s = data.settings
   const o = data.order
-  const sender = [s.senderName, s.senderLine1, s.senderLine2, [s.senderCity, s.senderRegion, s.senderPostalCode].filter(Boolean).join(' '), s.senderCountry].filter((l): l is string => Boolean(l))
-  const addressee = [o.shipName, o.shipLine1, o.shipLine2, [o.shipCity, o.shipRegion, o.shipPostalCode].filter(Boolean).join(' '), o.shipCountry].filter((l): l is string => Boolean(l))
+  // The country is printed by name under each address.
+  const sender = [s.senderName, s.senderLine1, s.senderLine2, [s.senderCity, s.senderRegion, s.senderPostalCode].filter(Boolean).join(' ')].filter((l): l is string => Boolean(l))
+  const addressee = [o.shipName, o.shipLine1, o.shipLine2, [o.shipCity, o.shipRegion, o.shipPostalCode].filter(Boolean).join(' ')].filter((l): l is string => Boolean(l))
   return customsDeclarationPdf({
     sender,
     senderCountry: s.senderCountry ?? '',

@@ -4,6 +4,7 @@ import type { PackItem, PackView, Parcel } from '@kitwright/shared/pack'
 import type { Db, Tx } from '../../db/client'
 import type { BoxRow, OrderRow, ShipmentRow, ShopSettingsRow } from '../../db/schema/index'
 import { NotFound } from '../../lib/http-errors'
+import { customsProblems } from './customs.service'
 import { proposeParcels, unitGrams, weighParcel, type UnitWeight } from './parcel-weights'
 import {
   activeBoxes,
@@ -174,6 +175,8 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
   if (!shipment && items.length > 0) blockers.push('Scan the first item to start packing')
   if (!options.carrierReady) blockers.push('No carrier is set up (CARRIER_API_KEY): labels cannot be bought')
   blockers.push(...labelSettingsProblems(settings))
+  // A shipment abroad needs every part's HS code and origin for its customs declaration.
+  if (items.length > 0) blockers.push(...(await customsProblems(db, data)))
   if (data.boxes.length === 0) blockers.push('No shipping box is set up: add the boxes first')
 
   let parcels: Parcel[] = []
