@@ -14,9 +14,11 @@ export const kits = pgTable('kits', {
   name: text().notNull(),
   storeProductId: text().unique(),
   description: text(),
+  /** The kit's list price in cents: a phone order's unit price starts from it. */
+  priceCents: integer(),
   createdAt: createdAt(),
   updatedAt: updatedAt(),
-})
+}, (t) => [check('kits_price_not_negative', sql`${t.priceCents} >= 0`)])
 export type KitRow = typeof kits.$inferSelect
 
 /**

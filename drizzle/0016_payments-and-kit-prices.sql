@@ -1,0 +1,1 @@
+ALTER TABLE "kits" ADD CONSTRAINT "kits_price_not_negative" CHECK ("kits"."price_cents" >= 0);
