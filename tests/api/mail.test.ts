@@ -8,6 +8,7 @@ import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { MailMessageSchema, MailPageSchema } from '@kitwright/shared/mail'
 import { DEMO_SHOP_NAME, seedDemo } from '../../server/src/db/seed'
+import { DEMO_MAIL_IDENTITY } from '../../server/src/db/seed-shipping'
 import { mailMessages, orders } from '../../server/src/db/schema/index'
 import { startWorkers } from '../../server/src/workers'
 import { startSmtpCatcher } from '../../storage-fake/smtp'
@@ -63,7 +64,9 @@ describe('the "order received" e-mail', () => {
     expect(await caught(mailDir, 'mw-m-1001@buyer.example')).toHaveLength(1)
     const [mail] = messages
     expect(mail!.subject).toBe(`${DEMO_SHOP_NAME}: we have your order MW-M-1001`)
-    expect(mail!.from?.value[0]).toMatchObject({ name: DEMO_SHOP_NAME, address: 'orders@kitwright-test.example' })
+    // The demo shop's sender from its settings (MAIL_FROM, the deps' address, is only the fallback before one is set).
+    expect(mail!.from?.value[0]).toMatchObject({ name: DEMO_MAIL_IDENTITY.mailFromName, address: DEMO_MAIL_IDENTITY.mailFromAddress })
+    expect(mail!.replyTo?.value[0]?.address).toBe(DEMO_MAIL_IDENTITY.replyToAddress)
     expect(mail!.text).toContain('Hello Rowan,')
     expect(mail!.text).toMatch(/1 × .*\(MW-TOTE-12\)/)
     expect(mail!.text).toMatch(/2 × .*\(MW-SPARE-CUP12\)/)

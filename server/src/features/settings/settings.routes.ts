@@ -6,7 +6,7 @@ import { getShopIdentity, getShopSettings, updateShopIdentity, updateShopSetting
 
 export function settingsRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/settings')
-  const env: IdentityEnvironment = { publicUrl: deps.publicUrl, mailFrom: deps.mail.from }
+  const env = (): IdentityEnvironment => ({ publicUrl: deps.publicUrl, mailFrom: deps.mail.from })
   // Every bench shows lengths in the shop's unit, so every signed-in user reads the settings.
   r.get('/', 'signed-in', async (_req, res) => {
     res.json(await getShopSettings(deps.db))
@@ -19,10 +19,10 @@ export function settingsRouter(deps: Deps, routes: RouteTable) {
   })
   // The shop's identity holds its mail sender and addresses: the owner's page only.
   r.get('/identity', ['admin'], async (_req, res) => {
-    res.json(await getShopIdentity(deps.db, env))
+    res.json(await getShopIdentity(deps.db, env()))
   })
   r.put('/identity', ['admin'], async (req, res) => {
-    res.json(await updateShopIdentity(deps.db, UpdateShopIdentitySchema.parse(req.body), env, auditContext(req)))
+    res.json(await updateShopIdentity(deps.db, UpdateShopIdentitySchema.parse(req.body), env(), auditContext(req)))
   })
   return r
 }
