@@ -22,14 +22,31 @@ export const BuildLookupQuerySchema = z.object({
 /** A scanned bin code or serial. */
 export type BuildLookupQuery = z.infer<typeof BuildLookupQuerySchema>
 
-/** Tick a build step; the measurement, in the step's unit, when the step asks for one. */
+/**
+ * Tick a build step. The measurement, when the step asks for one, as the bench typed it (`18 1/2`,
+ * `18-1/2"`, `470 mm`; read by domain/measurement.ts into the step's unit) or as a number in the
+ * step's unit. A value outside the step's limits needs `reason`.
+ */
 export const TickStepSchema = z
   .object({
-    measurement: z.number({ error: 'Enter the measurement as a number' }).finite().nullish().transform((v) => v ?? null),
+    measurement: z
+      .union([z.number({ error: 'Enter the measurement' }).finite(), z.string().trim().max(40, 'That measurement is too long: type the number and its unit')], {
+        error: 'Enter the measurement as the shop writes it, e.g. 18 1/2 or 470 mm',
+      })
+      .nullish()
+      .transform((v) => (v === '' || v === undefined ? null : v)),
+    reason: z
+      .string()
+      .trim()
+      .max(500, 'Use at most 500 characters')
+      .nullish()
+      .transform((v) => (v ? v : null)),
   })
   .strict()
 /** Tick a build step. */
 export type TickStep = z.infer<typeof TickStepSchema>
+/** Tick a build step, as the bench sends it. */
+export type TickStepInput = z.input<typeof TickStepSchema>
 
 /** Ask for a presigned upload of one photo. */
 export const PresignPhotoSchema = z
@@ -88,6 +105,8 @@ export const StepTickSchema = z.object({
   at: z.string(),
   measurement: z.number().nullable(),
   outOfLimits: z.boolean(),
+  /** Why an out-of-limits value was recorded. */
+  outOfLimitsReason: z.string().nullable(),
   undoneAt: z.string().nullable(),
   undoneBy: PersonSchema.nullable(),
 })
@@ -133,6 +152,8 @@ export type LeakTest = z.infer<typeof LeakTestSchema>
 export const ReworkEntrySchema = z.object({
   id: uuid,
   reason: z.string(),
+  /** What sent it: a failed leak test or an out-of-limits measurement. */
+  cause: z.enum(['leak_test', 'measurement', 'other']),
   by: PersonSchema,
   at: z.string(),
   resolvedAt: z.string().nullable(),
@@ -152,6 +173,10 @@ export const BuildStepStateSchema = z.object({
   measurementUnit: z.string().nullable(),
   measurementMin: z.number().nullable(),
   measurementMax: z.number().nullable(),
+  /** May be ticked at any point; the other steps go in order. */
+  freeOrder: z.boolean(),
+  /** An out-of-limits measurement sends the unit to rework. */
+  outOfLimitsRework: z.boolean(),
   tick: StepTickSchema.nullable(),
   history: z.array(StepTickSchema),
 })
@@ -164,6 +189,8 @@ export const BuildReadinessSchema = z.object({
   photosMissing: z.number().int(),
   /** `not_required` when the revision has no leak test protocol (spare-parts packs). */
   leakTest: z.enum(['not_required', 'none', 'passed', 'failed']),
+  /** Rework entries not yet resolved (a failed leak test, an out-of-limits measurement). */
+  openRework: z.number().int(),
   ready: z.boolean(),
 })
 /** What still stands between the unit and the pack bench. */
@@ -220,3 +247,28 @@ export const SerialParamsSchema = z.object({
 export const WorkOrderParamsSchema = z.object({ workOrderId: uuid })
 /** A work order and one of its steps in a URL. */
 export const StepParamsSchema = z.object({ workOrderId: uuid, stepId: uuid })
+
+/** An out-of-limits measurement standing on a unit not yet shipped: for the planner's attention. */
+export const MeasurementFlagSchema = z.object({
+  tickId: uuid,
+  workOrderId: uuid,
+  serial: z.string(),
+  workOrderStatus: WorkOrderStatusSchema,
+  orderId: uuid,
+  orderNumber: z.string(),
+  kitSku: z.string(),
+  revisionCode: z.string(),
+  stepPosition: z.number().int(),
+  stepText: z.string(),
+  measurement: z.number(),
+  unit: z.string().nullable(),
+  min: z.number().nullable(),
+  max: z.number().nullable(),
+  reason: z.string().nullable(),
+  /** The revision sends such a unit to rework. */
+  rework: z.boolean(),
+  by: z.string(),
+  at: z.string(),
+})
+/** An out-of-limits measurement for the planner's attention. */
+export type MeasurementFlag = z.infer<typeof MeasurementFlagSchema>

@@ -98,6 +98,10 @@ export const BuildStepInputSchema = z
     measurementUnit: OptionalText(20),
     measurementMin: z.number().nullish().transform((v) => v ?? null),
     measurementMax: z.number().nullish().transform((v) => v ?? null),
+    /** May be done at any point of the build; the other steps go in order. */
+    freeOrder: z.boolean().default(false),
+    /** A measurement outside the limits sends the unit to rework, not only a flag with a reason. */
+    outOfLimitsRework: z.boolean().default(false),
   })
   .superRefine((s, ctx) => {
     if (!s.measurementRequired) return
@@ -215,6 +219,8 @@ export const RevisionDetailSchema = z.object({
       measurementUnit: z.string().nullable(),
       measurementMin: z.number().nullable(),
       measurementMax: z.number().nullable(),
+      freeOrder: z.boolean(),
+      outOfLimitsRework: z.boolean(),
     }),
   ),
   rollup: RevisionRollupSchema,

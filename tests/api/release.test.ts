@@ -71,7 +71,7 @@ async function starvedKit(stock: number, perUnit: number) {
     leakTest: null,
     bomLines: [{ partId: part.id, quantity: perUnit, note: null }],
     cutParts: [],
-    buildSteps: [{ text: 'Bag the valves.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null }],
+    buildSteps: [{ text: 'Bag the valves.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null, freeOrder: false, outOfLimitsRework: false }],
   })
   const [owner] = await t.db.select().from(users).where(eq(users.role, 'admin')).limit(1)
   await releaseRevision(t.db, rev, owner!)

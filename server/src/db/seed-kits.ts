@@ -27,6 +27,8 @@ const step = (text: string, extra: Partial<Step> = {}): Step => ({
   measurementUnit: null,
   measurementMin: null,
   measurementMax: null,
+  freeOrder: false,
+  outOfLimitsRework: false,
   ...extra,
 })
 
@@ -43,6 +45,8 @@ function manifoldSteps(insideWidth: number): Step[] {
       measurementUnit: 'in',
       measurementMin: Math.round((width - 0.25) * 100) / 100,
       measurementMax: Math.round((width + 0.25) * 100) / 100,
+      // The wrong tote cannot be built into this revision: the unit waits in rework for the right one.
+      outOfLimitsRework: true,
       caution: 'A tote outside these limits is the wrong tote for this revision: stop and ask the planner.',
     }),
     step('Dry-fit the manifold from the bin: elbows at the corners, tees for the cross runs and the riser. Check every piece against its label.'),

@@ -3,6 +3,7 @@ import { useSearchParams } from 'react-router-dom'
 import { REPORT_TIME_ZONE, ReportRangeQuerySchema, type ReportRangeQuery } from '@kitwright/shared/reports'
 import { Section } from '../../components/ui/section'
 import { meOptions } from '../../features/auth/api/auth-queries'
+import { MeasurementFlagsPanel } from '../../features/build-bench/components/measurement-flags-panel'
 import {
   cutRunYieldOptions,
   firstPassYieldOptions,
@@ -106,6 +107,7 @@ export function Component() {
         <div className="space-y-6">
           <WipPanel report={wip.data} />
           <ShortPartsPanel shortages={shortages.data} />
+          <MeasurementFlagsPanel />
         </div>
       </div>
 

@@ -27,7 +27,7 @@ export function protocolOf(r: KitRevisionRow): LeakTestProtocol | null {
 
 /**
  * What stands between the unit and the pack bench: every step ticked, a photo for every step that
- * needs one, and the latest leak test passed (when the revision has a protocol).
+ * needs one, no rework left open, and the latest leak test passed (when the revision has a protocol).
  */
 export function readinessOf(
   steps: readonly Pick<BuildStepRow, 'id' | 'photoRequired'>[],
@@ -35,6 +35,7 @@ export function readinessOf(
   photos: readonly Pick<UnitPhotoRow, 'buildStepId'>[],
   tests: readonly Pick<LeakTestRow, 'attempt' | 'passed'>[],
   hasProtocol: boolean,
+  rework: readonly Pick<ReworkEntryRow, 'resolvedAt'>[],
 ): BuildReadiness {
   const ticked = new Set(ticks.filter((t) => t.undoneAt === null).map((t) => t.buildStepId))
   const photographed = new Set(photos.map((p) => p.buildStepId))
@@ -42,8 +43,9 @@ export function readinessOf(
   const photosMissing = steps.filter((s) => s.photoRequired && !photographed.has(s.id)).length
   const latest = [...tests].sort((a, b) => a.attempt - b.attempt).at(-1)
   const leakTest = !hasProtocol ? 'not_required' : !latest ? 'none' : latest.passed ? 'passed' : 'failed'
-  const ready = stepsLeft === 0 && photosMissing === 0 && (leakTest === 'passed' || leakTest === 'not_required')
-  return { stepsLeft, photosMissing, leakTest, ready }
+  const openRework = rework.filter((r) => r.resolvedAt === null).length
+  const ready = stepsLeft === 0 && photosMissing === 0 && openRework === 0 && (leakTest === 'passed' || leakTest === 'not_required')
+  return { stepsLeft, photosMissing, leakTest, openRework, ready }
 }
 
 /** Everything recorded for one unit, as the build bench and the build record show it. */
@@ -73,6 +75,7 @@ export async function loadBuildPage(db: Db | Tx, storage: Storage, wo: WorkOrder
     at: t.tickedAt.toISOString(),
     measurement: t.measurement === null ? null : Number(t.measurement),
     outOfLimits: t.outOfLimits,
+    outOfLimitsReason: t.outOfLimitsReason,
     undoneAt: t.undoneAt?.toISOString() ?? null,
     undoneBy: maybePerson(t.undoneBy),
   })
@@ -95,6 +98,8 @@ export async function loadBuildPage(db: Db | Tx, storage: Storage, wo: WorkOrder
         measurementUnit: s.measurementUnit,
         measurementMin: s.measurementMin === null ? null : Number(s.measurementMin),
         measurementMax: s.measurementMax === null ? null : Number(s.measurementMax),
+        freeOrder: s.freeOrder,
+        outOfLimitsRework: s.outOfLimitsRework,
         tick: history.find((t) => t.undoneAt === null) ?? null,
         history,
       }
@@ -128,11 +133,12 @@ export async function loadBuildPage(db: Db | Tx, storage: Storage, wo: WorkOrder
     rework: rework.map((r: ReworkEntryRow) => ({
       id: r.id,
       reason: r.reason,
+      cause: r.leakTestId !== null ? ('leak_test' as const) : r.stepTickId !== null ? ('measurement' as const) : ('other' as const),
       by: person(r.createdBy),
       at: r.createdAt.toISOString(),
       resolvedAt: r.resolvedAt?.toISOString() ?? null,
       resolvedBy: maybePerson(r.resolvedBy),
     })),
-    readiness: readinessOf(steps, ticks, photos, tests, protocol !== null),
+    readiness: readinessOf(steps, ticks, photos, tests, protocol !== null, rework),
   }
 }

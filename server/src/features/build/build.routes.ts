@@ -14,6 +14,7 @@ import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { lookupForBuild, recordLeakTest, tickStep, undoTick } from './build.service'
+import { listMeasurementFlags } from './measurement-flags'
 import { confirmPhoto, presignPhoto } from './photos.service'
 import { getUnitRecord } from './unit-record.service'
 
@@ -24,14 +25,20 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/build')
   const audit = (req: Request, action: string, workOrderId: string, summary: string) =>
     recordAudit(deps.db, auditContext(req), { action, entityType: 'work_order', entityId: workOrderId, summary })
+  // The planner's list of out-of-limits measurements on units still in the shop.
+  r.get('/out-of-limits', ['admin', 'planner'], async (_req, res) => {
+    res.json(await listMeasurementFlags(deps.db))
+  })
   r.get('/lookup', BENCH, async (req, res) => {
     const { code } = BuildLookupQuerySchema.parse(req.query)
     res.json(await lookupForBuild(deps.db, deps.storage, code))
   })
   r.post('/:workOrderId/steps/:stepId/tick', BENCH, async (req, res) => {
     const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
-    const page = await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req))
-    await audit(req, 'build.tick', workOrderId, `Ticked a build step of ${page.workOrder.serial}`)
+    const { page, outOfLimits } = await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req))
+    const step = page.steps.find((s) => s.id === stepId)
+    const flagged = outOfLimits && step?.tick ? ` (out of limits: ${step.tick.measurement} ${step.measurementUnit ?? ''}, ${step.tick.outOfLimitsReason ?? ''})` : ''
+    await audit(req, 'build.tick', workOrderId, `Ticked step ${step?.position ?? ''} of ${page.workOrder.serial}${flagged}`)
     res.json(page)
   })
   r.post('/:workOrderId/steps/:stepId/undo', BENCH, async (req, res) => {

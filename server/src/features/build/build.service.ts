@@ -1,9 +1,10 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { BUILDABLE_STATUSES, type BuildPage, type RecordLeakTestSchema, type TickStep } from '@kitwright/shared/build'
 import { judgeLeakTest, toPascals } from '@kitwright/shared/domain/leak-test'
+import { outsideLimits, parseMeasurement } from '@kitwright/shared/domain/measurement'
 import type { z } from 'zod'
 import type { Db, Tx } from '../../db/client'
-import { buildStepTicks, leakTests, reworkEntries, workOrders, type WorkOrderRow } from '../../db/schema/index'
+import { buildStepTicks, leakTests, reworkEntries, workOrders, type BuildStepRow, type WorkOrderRow } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, Forbidden, NotFound } from '../../lib/http-errors'
 import type { Storage } from '../../lib/storage'
@@ -19,6 +20,7 @@ import {
   lastAttempt,
   lockWorkOrder,
   namesOf,
+  reworkOfWorkOrder,
   standingTick,
   stepsOfRevision,
   ticksOfWorkOrder,
@@ -77,8 +79,9 @@ export async function lookupForBuild(db: Db, storage: Storage, code: string): Pr
 }
 
 /**
- * Moves the unit on once everything is done: every step ticked, the photos taken, the latest leak
- * test passed (or none required) → built. Called after every change, inside its transaction.
+ * Moves the unit on once everything is done: every step ticked, the photos taken, no rework open,
+ * the latest leak test passed (or none required) → built; a failed test or open rework → rework.
+ * Called after every change, inside its transaction.
  */
 async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
   const found = await findRevisionWithKit(tx, wo.kitRevisionId)
@@ -87,10 +90,11 @@ async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
   const ticks = await ticksOfWorkOrder(tx, wo.id)
   const photos = await confirmedPhotos(tx, wo.id)
   const tests = await leakTestsOfWorkOrder(tx, wo.id)
-  const readiness = readinessOf(steps, ticks, photos, tests, found ? protocolOf(found.revision) !== null : false)
+  const rework = await reworkOfWorkOrder(tx, wo.id)
+  const readiness = readinessOf(steps, ticks, photos, tests, found ? protocolOf(found.revision) !== null : false, rework)
   let status: WorkOrderRow['status'] = wo.status
   if (readiness.ready) status = 'built'
-  else if (readiness.leakTest === 'failed') status = 'rework'
+  else if (readiness.leakTest === 'failed' || readiness.openRework > 0) status = 'rework'
   else if (ticks.length > 0 || tests.length > 0) status = 'building'
   if (status !== wo.status) await tx.update(workOrders).set({ status, updatedAt: new Date() }).where(eq(workOrders.id, wo.id))
 }
@@ -101,11 +105,28 @@ async function reload(db: Db, storage: Storage, workOrderId: string): Promise<Bu
   return loadBuildPage(db, storage, wo)
 }
 
+/** Limits as the bench reads them: `17.75–18.25 in`, `at least 10 psi`. */
+function limitsText(min: number | null, max: number | null, unit: string | null): string {
+  const u = unit ? ` ${unit}` : ''
+  if (min !== null && max !== null) return `${min}–${max}${u}`
+  if (min !== null) return `at least ${min}${u}`
+  return `at most ${max}${u}`
+}
+
+/** The earlier steps still to do before this one: none for a free-order step, else every earlier step that is not free-order. */
+function stepsBefore(step: BuildStepRow, steps: readonly BuildStepRow[], ticked: ReadonlySet<string>): BuildStepRow[] {
+  if (step.freeOrder) return []
+  return steps.filter((s) => s.position < step.position && !s.freeOrder && !ticked.has(s.id))
+}
+
 /**
- * Ticks one step for one unit. A step that takes a measurement needs it (out of limits is flagged
- * and still recorded); a step that needs a photo needs the photo first. The first tick starts the build.
+ * Ticks one step for one unit. Steps go in order, except those the revision marks free-order. A
+ * step that takes a measurement needs it, typed as the shop writes lengths (domain/measurement.ts);
+ * a value outside the limits needs a reason, is recorded and flagged, and sends the unit to rework
+ * when the revision says so. A step that needs a photo needs the photo first. The first tick starts the build.
  */
-export async function tickStep(db: Db, storage: Storage, workOrderId: string, stepId: string, input: TickStep, actor: SessionUser): Promise<BuildPage> {
+export async function tickStep(db: Db, storage: Storage, workOrderId: string, stepId: string, input: TickStep, actor: SessionUser): Promise<{ page: BuildPage; outOfLimits: boolean }> {
+  let outOfLimits = false
   await db.transaction(async (tx) => {
     const wo = await lockBuildable(tx, workOrderId)
     const step = await findStep(tx, wo.kitRevisionId, stepId)
@@ -115,15 +136,48 @@ export async function tickStep(db: Db, storage: Storage, workOrderId: string, st
       const names = await namesOf(tx, [standing.tickedBy])
       throw new Conflict(`Step ${step.position} is already ticked by ${names.get(standing.tickedBy) ?? 'someone'}; undo it first to tick it again`)
     }
-    let outOfLimits = false
+    const steps = await stepsOfRevision(tx, wo.kitRevisionId)
+    const ticked = new Set((await ticksOfWorkOrder(tx, wo.id)).filter((t) => t.undoneAt === null).map((t) => t.buildStepId))
+    const before = stepsBefore(step, steps, ticked)
+    if (before.length > 0) {
+      const list = before.map((s) => s.position).join(', ')
+      throw new Conflict(`Steps go in order: do step${before.length > 1 ? 's' : ''} ${list} before step ${step.position}`)
+    }
+    let measurement: number | null = null
+    const unit = step.measurementUnit ?? ''
     if (step.measurementRequired) {
       if (input.measurement === null) {
-        const unit = step.measurementUnit ?? ''
         throw new BadRequest(`Step ${step.position} needs a measurement in ${unit} before it can be ticked`, { measurement: `Enter the measurement in ${unit}` })
+      }
+      if (typeof input.measurement === 'number') measurement = input.measurement
+      else {
+        const parsed = parseMeasurement(input.measurement, step.measurementUnit)
+        if (!parsed.ok) throw new BadRequest(`Step ${step.position}: ${parsed.message}`, { measurement: parsed.message })
+        measurement = parsed.value
       }
       const min = step.measurementMin === null ? null : Number(step.measurementMin)
       const max = step.measurementMax === null ? null : Number(step.measurementMax)
-      outOfLimits = (min !== null && input.measurement < min) || (max !== null && input.measurement > max)
+      outOfLimits = outsideLimits(measurement, min, max)
+      if (outOfLimits && !input.reason) {
+        const then = step.outOfLimitsRework ? 'the unit then goes to rework' : 'it is flagged to the planner'
+        throw new BadRequest(`${measurement} ${unit} is outside the limits of step ${step.position} (${limitsText(min, max, step.measurementUnit)}): measure again, or give a reason to record it (${then})`, {
+          reason: 'Say why this out-of-limits value is recorded',
+        })
+      }
+      if (outOfLimits && step.outOfLimitsRework) {
+        const [tick] = await tx
+          .insert(buildStepTicks)
+          .values({ workOrderId: wo.id, buildStepId: step.id, tickedBy: actor.id, measurement: String(measurement), outOfLimits, outOfLimitsReason: input.reason })
+          .returning()
+        await tx.insert(reworkEntries).values({
+          workOrderId: wo.id,
+          stepTickId: tick!.id,
+          reason: `Step ${step.position} measured ${measurement} ${unit}, outside ${limitsText(min, max, step.measurementUnit)}: ${input.reason}`,
+          createdBy: actor.id,
+        })
+        await settle(tx, wo)
+        return
+      }
     } else if (input.measurement !== null) {
       throw new BadRequest(`Step ${step.position} takes no measurement`, { measurement: 'Leave the measurement out for this step' })
     }
@@ -135,12 +189,13 @@ export async function tickStep(db: Db, storage: Storage, workOrderId: string, st
       workOrderId: wo.id,
       buildStepId: step.id,
       tickedBy: actor.id,
-      measurement: input.measurement === null ? null : String(input.measurement),
+      measurement: measurement === null ? null : String(measurement),
       outOfLimits,
+      outOfLimitsReason: outOfLimits ? input.reason : null,
     })
     await settle(tx, wo)
   })
-  return reload(db, storage, workOrderId)
+  return { page: await reload(db, storage, workOrderId), outOfLimits }
 }
 
 /** Undoes a step's standing tick: only the one who ticked it, or a planner or admin. The tick stays on record as undone. */
@@ -159,14 +214,20 @@ export async function undoTick(db: Db, storage: Storage, workOrderId: string, st
       .update(buildStepTicks)
       .set({ undoneAt: new Date(), undoneBy: actor.id })
       .where(and(eq(buildStepTicks.id, tick.id), isNull(buildStepTicks.undoneAt)))
+    // The out-of-limits value that sent the unit to rework is withdrawn: measuring again decides anew.
+    await tx
+      .update(reworkEntries)
+      .set({ resolvedAt: new Date(), resolvedBy: actor.id })
+      .where(and(eq(reworkEntries.stepTickId, tick.id), isNull(reworkEntries.resolvedAt)))
     await settle(tx, wo)
   })
   return reload(db, storage, workOrderId)
 }
 
 /**
- * Records a leak test, judged on the server by the revision's protocol. A failure sends the unit to
- * rework with the reason; a pass resolves open rework and, with every step done, makes it built.
+ * Records a leak test, judged on the server by the revision's protocol; refused until every build step
+ * is ticked. A failure sends the unit to rework with the reason; a pass resolves open leak-test
+ * rework and, with nothing else open, makes it built.
  * Each test is a new attempt, so first-pass yield can be counted.
  */
 export async function recordLeakTest(
@@ -181,6 +242,14 @@ export async function recordLeakTest(
     const found = await findRevisionWithKit(tx, wo.kitRevisionId)
     const protocol = found ? protocolOf(found.revision) : null
     if (!protocol) throw new Conflict(`Revision ${found?.revision.code ?? ''} of ${found?.kit.sku ?? 'this kit'} has no leak test protocol; there is no leak test to record`)
+    // The leak test comes after the build: every step must be ticked first.
+    const steps = await stepsOfRevision(tx, wo.kitRevisionId)
+    const ticked = new Set((await ticksOfWorkOrder(tx, wo.id)).filter((t) => t.undoneAt === null).map((t) => t.buildStepId))
+    const left = steps.filter((s) => !ticked.has(s.id))
+    if (left.length > 0) {
+      const list = left.map((s) => s.position).join(', ')
+      throw new Conflict(`The leak test comes after every build step: tick step${left.length > 1 ? 's' : ''} ${list} of unit ${wo.serial} first`)
+    }
     const startPressurePa = toPascals(input.startPressure, input.unit)
     const endPressurePa = toPascals(input.endPressure, input.unit)
     const verdict = judgeLeakTest(protocol, { startPressurePa, endPressurePa, holdMinutes: input.holdMinutes, leaks: input.leaks }, input.unit)
@@ -204,10 +273,11 @@ export async function recordLeakTest(
       })
       .returning()
     if (verdict.passed) {
+      // A pass settles leak-test rework; an out-of-limits measurement stays until it is measured again.
       await tx
         .update(reworkEntries)
         .set({ resolvedAt: new Date(), resolvedBy: actor.id })
-        .where(and(eq(reworkEntries.workOrderId, wo.id), isNull(reworkEntries.resolvedAt)))
+        .where(and(eq(reworkEntries.workOrderId, wo.id), isNull(reworkEntries.resolvedAt), isNull(reworkEntries.stepTickId)))
     } else {
       const note = input.leakNote ? ` (${input.leakNote})` : ''
       await tx.insert(reworkEntries).values({ workOrderId: wo.id, leakTestId: test!.id, reason: `Leak test ${attempt} failed: ${reason}${note}`, createdBy: actor.id })

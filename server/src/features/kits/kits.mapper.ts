@@ -64,6 +64,8 @@ export function toRevisionDetail(tree: Tree, kerf: number): RevisionDetail {
       measurementUnit: s.measurementUnit,
       measurementMin: s.measurementMin === null ? null : Number(s.measurementMin),
       measurementMax: s.measurementMax === null ? null : Number(s.measurementMax),
+      freeOrder: s.freeOrder,
+      outOfLimitsRework: s.outOfLimitsRework,
     })),
     rollup: rollUp({ bomLines: tree.bomLines, cutParts: tree.cutParts, kerf }),
     releasedAt: tree.releasedAt?.toISOString() ?? null,

@@ -1,12 +1,15 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import {
   BuildPageSchema,
+  MeasurementFlagSchema,
   PresignedPhotoSchema,
   UnitRecordSchema,
   type BuildPage,
   type PhotoContentType,
   type RecordLeakTestInput,
+  type TickStepInput,
 } from '@kitwright/shared/build'
+import { z } from 'zod'
 import { apiFetch } from '../../../lib/api-client'
 import { putToPresignedUrl } from './put-to-presigned-url'
 
@@ -15,6 +18,12 @@ export const buildKeys = {
   lookup: (code: string) => [...buildKeys.all, 'lookup', code.trim().toUpperCase()] as const,
   units: () => [...buildKeys.all, 'unit'] as const,
   unit: (serial: string) => [...buildKeys.units(), serial.toUpperCase()] as const,
+  outOfLimits: () => [...buildKeys.all, 'out-of-limits'] as const,
+}
+
+/** Out-of-limits measurements on units still in the shop, for the planner. */
+export function measurementFlagsOptions() {
+  return queryOptions({ queryKey: buildKeys.outOfLimits(), queryFn: ({ signal }) => apiFetch('/build/out-of-limits', z.array(MeasurementFlagSchema), { signal }) })
 }
 
 /** The build page of a scanned bin or serial. Not refetched on focus: a built unit would answer 409 and hide the page. */
@@ -49,8 +58,8 @@ function useSetPage(code: string) {
 export function useTickStep(code: string) {
   const setPage = useSetPage(code)
   return useMutation({
-    mutationFn: ({ workOrderId, stepId, measurement }: { workOrderId: string; stepId: string; measurement: number | null }) =>
-      apiFetch(`/build/${workOrderId}/steps/${stepId}/tick`, BuildPageSchema, { method: 'POST', body: { measurement } }),
+    mutationFn: ({ workOrderId, stepId, ...body }: TickStepInput & { workOrderId: string; stepId: string }) =>
+      apiFetch(`/build/${workOrderId}/steps/${stepId}/tick`, BuildPageSchema, { method: 'POST', body }),
     onSuccess: setPage,
   })
 }

@@ -23,6 +23,7 @@ export function BuildSummary({ page }: { page: BuildPage }) {
   if (r.photosMissing > 0) left.push(`${r.photosMissing} photo${r.photosMissing === 1 ? '' : 's'} to take`)
   if (r.leakTest === 'none') left.push('the leak test to run')
   if (r.leakTest === 'failed') left.push('a passing leak test after the fix')
+  if (r.openRework > 0 && r.leakTest !== 'failed') left.push('the rework below')
   const openRework = page.rework.filter((x) => x.resolvedAt === null)
   return (
     <div className="space-y-3">
@@ -48,7 +49,7 @@ export function BuildSummary({ page }: { page: BuildPage }) {
       </p>
       {openRework.map((x) => (
         <div key={x.id} className="rounded-lg border-4 border-red-700 bg-red-50 p-4 text-xl">
-          <p className="font-bold">Rework: fix this, then run the leak test again.</p>
+          <p className="font-bold">{x.cause === 'measurement' ? 'Rework: fix this, then undo the step and measure again.' : 'Rework: fix this, then run the leak test again.'}</p>
           <p>{x.reason}</p>
           <p className="text-base text-stone-700">
             Sent by {x.by.name}, {formatWhen(x.at)}

@@ -45,6 +45,8 @@ export function LeakTestForm({ code, page }: { code: string; page: BuildPage }) 
     },
   })
   const { errors } = form.formState
+  // The server refuses the test until every step is ticked: say so here, before anyone fills it in.
+  const stepsLeft = page.steps.filter((s) => !s.tick).map((s) => s.position)
   const unit = form.watch('unit')
   const p = (pa: number) => formatPressure(pa, unit)
   const submit = (input: LeakTestValues) =>
@@ -103,7 +105,12 @@ export function LeakTestForm({ code, page }: { code: string; page: BuildPage }) 
       <NumberField label="Where exactly / note" error={errors.leakNote?.message}>
         <input type="text" className={big} {...form.register('leakNote')} />
       </NumberField>
-      <Button type="submit" size="bench" disabled={record.isPending} className="text-xl">
+      {stepsLeft.length > 0 && (
+        <p className="rounded-md border-2 border-amber-600 bg-amber-50 p-3 text-xl font-bold">
+          The leak test comes after every build step: tick step{stepsLeft.length > 1 ? 's' : ''} {stepsLeft.join(', ')} first.
+        </p>
+      )}
+      <Button type="submit" size="bench" disabled={record.isPending || stepsLeft.length > 0} className="text-xl">
         Record leak test
       </Button>
     </form>

@@ -64,6 +64,8 @@ export interface RevisionFormValues {
     measurementUnit: string
     measurementMin: string
     measurementMax: string
+    freeOrder: boolean
+    outOfLimitsRework: boolean
   }[]
 }
 
@@ -122,6 +124,8 @@ export function toFormValues(rev: RevisionDetail, format: Format): RevisionFormV
       measurementUnit: s.measurementUnit ?? '',
       measurementMin: numberText(s.measurementMin),
       measurementMax: numberText(s.measurementMax),
+      freeOrder: s.freeOrder,
+      outOfLimitsRework: s.outOfLimitsRework,
     })),
   }
 }
@@ -230,6 +234,8 @@ export function toContent(values: RevisionFormValues, parse: Parse): Converted<R
       measurementUnit: s.measurementRequired ? s.measurementUnit || null : null,
       measurementMin: limit(s.measurementMin, 'measurementMin'),
       measurementMax: limit(s.measurementMax, 'measurementMax'),
+      freeOrder: s.freeOrder,
+      outOfLimitsRework: s.measurementRequired && s.outOfLimitsRework,
     }
   })
   if (Object.keys(errors).length) return { value: null, errors }

@@ -5,7 +5,7 @@ import { Section } from '../../../components/ui/section'
 import { errorAt } from './field-error'
 import type { RevisionFormValues } from './revision-form-model'
 
-const EMPTY_STEP = { text: '', caution: '', photoRequired: false, measurementRequired: false, measurementUnit: '', measurementMin: '', measurementMax: '' }
+const EMPTY_STEP = { text: '', caution: '', photoRequired: false, measurementRequired: false, measurementUnit: '', measurementMin: '', measurementMax: '', freeOrder: false, outOfLimitsRework: false }
 
 /** The build bench's steps, in order, each with its caution and what it must record. */
 export function StepsSection({ readOnly }: { readOnly: boolean }) {
@@ -42,11 +42,17 @@ export function StepsSection({ readOnly }: { readOnly: boolean }) {
                 <label className="flex items-center gap-2">
                   <input type="checkbox" className="size-5" {...register(`buildSteps.${i}.measurementRequired`)} /> Measurement required
                 </label>
+                <label className="flex items-center gap-2">
+                  <input type="checkbox" className="size-5" {...register(`buildSteps.${i}.freeOrder`)} /> Any order (the other steps go in order)
+                </label>
                 {steps[i]?.measurementRequired && (
                   <>
                     <Input aria-label={`Unit of step ${i + 1}`} placeholder="unit" className="w-24" {...register(`buildSteps.${i}.measurementUnit`)} />
                     <Input aria-label={`Lowest of step ${i + 1}`} placeholder="lowest" className="w-24" {...register(`buildSteps.${i}.measurementMin`)} />
                     <Input aria-label={`Highest of step ${i + 1}`} placeholder="highest" className="w-24" {...register(`buildSteps.${i}.measurementMax`)} />
+                    <label className="flex items-center gap-2">
+                      <input type="checkbox" className="size-5" {...register(`buildSteps.${i}.outOfLimitsRework`)} /> Out of limits sends the unit to rework
+                    </label>
                   </>
                 )}
               </div>
