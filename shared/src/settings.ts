@@ -11,6 +11,8 @@ export const ShopSettingsSchema = z.object({
   leadTimeDays: z.number().int().min(0),
   /** Whether the job that takes a paid store order in also releases it (allowing a shortage). */
   autoReleasePaid: z.boolean(),
+  /** How long the nesting engine may plan one cut run unless the planner asks for longer, in seconds. */
+  nestingTimeLimitSeconds: z.number(),
 })
 /** The shop's settings as the API shows them. */
 export type ShopSettings = z.infer<typeof ShopSettingsSchema>
@@ -25,6 +27,10 @@ export const UpdateShopSettingsSchema = z
     minOffcut: z.number().int().min(0, 'Cannot be negative'),
     leadTimeDays: z.number({ error: 'Enter the lead time in working days' }).int('Use a whole number of working days').min(0, 'Cannot be negative').max(250, 'At most 250 working days (about a year)'),
     autoReleasePaid: z.boolean({ error: 'Say yes or no' }),
+    nestingTimeLimitSeconds: z
+      .number({ error: 'Enter the planning time in seconds' })
+      .min(0.5, 'At least half a second')
+      .max(120, 'At most 120 seconds'),
   })
   .partial()
   .strict()

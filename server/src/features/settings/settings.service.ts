@@ -15,6 +15,7 @@ function toShopSettings(row: ShopSettingsRow): ShopSettings {
     minOffcut: row.minOffcut,
     leadTimeDays: row.leadTimeDays,
     autoReleasePaid: row.autoReleasePaid,
+    nestingTimeLimitSeconds: row.nestingTimeLimitMs / 1000,
   }
 }
 
@@ -29,7 +30,9 @@ export async function getShopSettings(db: Db | Tx): Promise<ShopSettings> {
 }
 
 export async function updateShopSettings(db: Db, input: UpdateShopSettings): Promise<ShopSettings> {
-  const [row] = await db.update(shopSettings).set({ ...input, updatedAt: new Date() }).where(eq(shopSettings.id, 1)).returning()
+  const { nestingTimeLimitSeconds, ...rest } = input
+  const change = nestingTimeLimitSeconds === undefined ? rest : { ...rest, nestingTimeLimitMs: Math.round(nestingTimeLimitSeconds * 1000) }
+  const [row] = await db.update(shopSettings).set({ ...change, updatedAt: new Date() }).where(eq(shopSettings.id, 1)).returning()
   if (!row) throw new NotFound('The shop has no settings yet; run the set-up (npm start) to create them')
   return toShopSettings(row)
 }

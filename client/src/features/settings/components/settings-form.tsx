@@ -26,6 +26,7 @@ const settingsFormSchema = (unit: LengthUnit) =>
       minOffcut: z.string(),
       leadTimeDays: UpdateShopSettingsSchema.shape.leadTimeDays.unwrap(),
       autoReleasePaid: z.boolean(),
+      nestingTimeLimitSeconds: UpdateShopSettingsSchema.shape.nestingTimeLimitSeconds.unwrap(),
     })
     .superRefine((v, ctx) => {
       for (const key of LENGTH_FIELDS) {
@@ -54,6 +55,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
       minOffcut: formatLengthForInput(settings.minOffcut, unit),
       leadTimeDays: settings.leadTimeDays,
       autoReleasePaid: settings.autoReleasePaid,
+      nestingTimeLimitSeconds: settings.nestingTimeLimitSeconds,
     },
   })
   const errors = form.formState.errors
@@ -66,6 +68,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
         minOffcut: lengthOf(v.minOffcut, unit),
         leadTimeDays: v.leadTimeDays,
         autoReleasePaid: v.autoReleasePaid,
+        nestingTimeLimitSeconds: v.nestingTimeLimitSeconds,
       },
       {
         onSuccess: (saved) => {
@@ -77,6 +80,7 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
             minOffcut: formatLengthForInput(saved.minOffcut, saved.displayUnit),
             leadTimeDays: saved.leadTimeDays,
             autoReleasePaid: saved.autoReleasePaid,
+            nestingTimeLimitSeconds: saved.nestingTimeLimitSeconds,
           })
         },
         onError: (err) => applyServerErrors(err, form.setError),
@@ -106,6 +110,13 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
           </Field>
         </div>
         <p className="text-sm text-stone-500">{hint}</p>
+        <Field
+          label="Time to plan a cut run (seconds)"
+          error={errors.nestingTimeLimitSeconds?.message}
+          hint="The planner gets the best plan found in this time, with how far it can be from the best possible; a run can be planned again for longer."
+        >
+          <Input type="number" min={0.5} max={120} step={0.5} {...form.register('nestingTimeLimitSeconds', { valueAsNumber: true })} aria-invalid={!!errors.nestingTimeLimitSeconds} className="w-32" />
+        </Field>
       </fieldset>
       <fieldset className="space-y-4">
         <legend className="text-xl font-bold">Orders</legend>
