@@ -24,6 +24,7 @@ import { releaseRouter, shortagesRouter } from './features/work-orders/work-orde
 import { reportsRouter } from './features/reports/reports.routes'
 import { tabletsRouter } from './features/tablets/tablets.routes'
 import { authenticate } from './lib/auth'
+import { clientFiles, compressAnswers } from './lib/client-files'
 import { errorHandler } from './lib/error-handler'
 import { NotFound } from './lib/http-errors'
 import { requestLogger } from './lib/logger'
@@ -46,9 +47,12 @@ export function createApp(deps: Deps) {
   // tablet to an https:// address nothing answers (tests/api/served-headers.test.ts).
   const directives = { ...photoStoreDirectives(deps.storage), fontSrc: ["'self'"], styleSrc: ["'self'", "'unsafe-inline'"] }
   const overHttps = helmet({ contentSecurityPolicy: { directives } })
-  const overHttp = helmet({ contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } }, strictTransportSecurity: false })
+  // Cross-Origin-Opener-Policy is honoured only on a trustworthy origin; over plain HTTP to a shop
+  // address Chromium ignores it and logs an error on every page, so it is sent over HTTPS only.
+  const overHttp = helmet({ contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } }, strictTransportSecurity: false, crossOriginOpenerPolicy: false })
   app.use((req, res, next) => (req.secure ? overHttps : overHttp)(req, res, next))
   app.use(requestLogger(deps.logger))
+  app.use(compressAnswers())
   app.use(express.json({ limit: '1mb', verify: keepRawBody }))
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
@@ -63,12 +67,7 @@ export function createApp(deps: Deps) {
   app.use('/api', () => {
     throw new NotFound('No such API route')
   })
-  if (deps.clientDist) {
-    const dist = deps.clientDist
-    app.use(express.static(dist, { index: false, maxAge: '1h' }))
-    // Client-side routes: every other GET gets the app's page; React Router takes it from there.
-    app.get(/.*/, (_req, res) => res.sendFile('index.html', { root: dist }))
-  }
+  if (deps.clientDist) app.use(clientFiles(deps.clientDist))
   app.use(errorHandler)
   return { app, routes }
 }
