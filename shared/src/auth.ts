@@ -32,4 +32,12 @@ export const MeSchema = z.object({
 /** The signed-in user as the API shows them. */
 export type Me = z.infer<typeof MeSchema>
 
+/**
+ * `GET /api/auth/me`: who is signed in, `null` when nobody is. Always a 200, so a browser opening
+ * the app before signing in logs no failed request.
+ */
+export const SessionSchema = z.object({ user: MeSchema.nullable() })
+/** Who is signed in, if anyone. */
+export type Session = z.infer<typeof SessionSchema>
+
 export { EmailSchema }

@@ -2,7 +2,7 @@ import { SignJWT } from 'jose'
 import request from 'supertest'
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import { eq } from 'drizzle-orm'
-import { MeSchema } from '@kitwright/shared/auth'
+import { MeSchema, SessionSchema } from '@kitwright/shared/auth'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { signInFailures, users } from '../../server/src/db/schema/index'
 import { SESSION_COOKIE } from '../../server/src/lib/auth'
@@ -19,6 +19,13 @@ beforeAll(async () => {
 })
 afterEach(() => t.truncate())
 afterAll(() => t.drop())
+
+/** The id of the user `/api/auth/me` names (it always answers 200), or null when nobody is signed in. */
+async function whoIsSignedIn(call: request.Test): Promise<string | null> {
+  const res = await call
+  expect(res.status).toBe(200)
+  return SessionSchema.parse(res.body).user?.id ?? null
+}
 
 function sessionCookie(res: request.Response): string | undefined {
   const raw = res.headers['set-cookie'] as unknown as string[] | undefined
@@ -37,7 +44,7 @@ describe('sign-in', () => {
     expect(cookie).toMatch(/SameSite=Lax/i)
     const me = await agent.get('/api/auth/me')
     expect(me.status).toBe(200)
-    expect(MeSchema.parse(me.body).id).toBe(user.id)
+    expect(SessionSchema.parse(me.body).user?.id).toBe(user.id)
   })
 
   it('signs in at a bench with a PIN', async () => {
@@ -88,21 +95,28 @@ describe('sign-in', () => {
     expect(ApiErrorBodySchema.parse(res.body).error.code).toBe('invalid')
   })
 
-  it('signs out: the cookie is cleared and /me answers 401', async () => {
+  it('signs out: the cookie is cleared and /me answers that nobody is signed in', async () => {
     const { agent } = await signedInAs(app, t, 'packer')
     const out = await agent.post('/api/auth/sign-out')
     expect(out.status).toBe(204)
-    expect((await agent.get('/api/auth/me')).status).toBe(401)
+    expect(await whoIsSignedIn(agent.get('/api/auth/me'))).toBeNull()
+  })
+
+  it('answers /me with 200 and no user to a browser that never signed in (no failed request in its console)', async () => {
+    const res = await request(app).get('/api/auth/me')
+    expect(res.status).toBe(200)
+    expect(SessionSchema.parse(res.body)).toEqual({ user: null })
   })
 })
 
 describe('tokens', () => {
-  it('treats a tampered or foreign-signed token as no token (401)', async () => {
+  it('treats a tampered or foreign-signed token as no token', async () => {
     const user = await insertUser(t.db)
     const forged = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(user.id).setIssuedAt().setExpirationTime('10m')
       .sign(new TextEncoder().encode('some-other-secret-some-other-secret'))
-    const res = await request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${forged}`)
-    expect(res.status).toBe(401)
+    expect(await whoIsSignedIn(request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${forged}`))).toBeNull()
+    // …and a route that needs a user refuses it.
+    expect((await request(app).get('/api/orders').set('Cookie', `${SESSION_COOKIE}=${forged}`)).status).toBe(401)
   })
 
   it('refuses an expired token', async () => {
@@ -110,7 +124,8 @@ describe('tokens', () => {
     const now = Math.floor(Date.now() / 1000)
     const expired = await new SignJWT({}).setProtectedHeader({ alg: 'HS256' }).setSubject(user.id).setIssuedAt(now - 3600).setExpirationTime(now - 60)
       .sign(TEST_TOKENS.secret)
-    expect((await request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${expired}`)).status).toBe(401)
+    expect(await whoIsSignedIn(request(app).get('/api/auth/me').set('Cookie', `${SESSION_COOKIE}=${expired}`))).toBeNull()
+    expect((await request(app).get('/api/orders').set('Cookie', `${SESSION_COOKIE}=${expired}`)).status).toBe(401)
   })
 
   it('renews a token past a quarter of its life (sliding session), not a fresh one', async () => {
@@ -128,9 +143,10 @@ describe('tokens', () => {
 
   it("stops a deactivated user's token at the next request, and refuses their sign-in", async () => {
     const { agent, user } = await signedInAs(app, t, 'assembler')
-    expect((await agent.get('/api/auth/me')).status).toBe(200)
+    expect(await whoIsSignedIn(agent.get('/api/auth/me'))).toBe(user.id)
     await t.db.update(users).set({ active: false }).where(eq(users.id, user.id))
-    expect((await agent.get('/api/auth/me')).status).toBe(401)
+    expect(await whoIsSignedIn(agent.get('/api/auth/me'))).toBeNull()
+    expect((await agent.get('/api/orders')).status).toBe(401)
     const again = await request(app).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
     expect(again.status).toBe(401)
     expect(again.body.error.message).toMatch(/deactivated/)

@@ -7,7 +7,7 @@ import path from 'node:path'
 import { inArray } from 'drizzle-orm'
 import { simpleParser } from 'mailparser'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { MeSchema } from '@kitwright/shared/auth'
+import { SessionSchema } from '@kitwright/shared/auth'
 import { createDb } from '../../server/src/db/client'
 import { mailMessages, orders, storeEvents } from '../../server/src/db/schema/index'
 import { signStoreDelivery } from '../../server/src/features/webhooks/store-signature'
@@ -91,7 +91,7 @@ describe('two API processes over one database and queue', () => {
     const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
     const me = await fetch(`${b!.url}/api/auth/me`, { headers: { cookie } })
     expect(me.status).toBe(200)
-    expect(MeSchema.parse(await me.json())).toMatchObject({ id: user.id, email: user.email })
+    expect(SessionSchema.parse(await me.json()).user).toMatchObject({ id: user.id, email: user.email })
     // And the list the planner reads answers alike on both.
     for (const api of apis) expect((await fetch(`${api.url}/api/orders`, { headers: { cookie } })).status).toBe(200)
   })

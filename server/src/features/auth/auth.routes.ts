@@ -1,8 +1,8 @@
-import { SignInSchema } from '@kitwright/shared/auth'
+import { SignInSchema, type Session } from '@kitwright/shared/auth'
 import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
 import { HttpError } from '../../lib/http-errors'
-import { clearSessionCookie, currentUser, setSessionCookie } from '../../lib/auth'
+import { clearSessionCookie, setSessionCookie } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { signIn } from './auth.service'
 
@@ -28,8 +28,9 @@ export function authRouter(deps: Deps, routes: RouteTable) {
     clearSessionCookie(res, deps.tokens)
     res.status(204).end()
   })
-  r.get('/me', 'signed-in', (req, res) => {
-    res.json(currentUser(req))
+  // Public: asking who is signed in is how the app starts; nobody signed in is an answer, not an error.
+  r.get('/me', 'public', (req, res) => {
+    res.json({ user: req.user ?? null } satisfies Session)
   })
   return r
 }

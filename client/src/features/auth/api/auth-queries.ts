@@ -1,7 +1,7 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import { z } from 'zod'
-import { MeSchema, type SignIn } from '@kitwright/shared/auth'
-import { ApiError, apiFetch } from '../../../lib/api-client'
+import { MeSchema, SessionSchema, type SignIn } from '@kitwright/shared/auth'
+import { apiFetch } from '../../../lib/api-client'
 
 export const authKeys = {
   me: ['auth', 'me'] as const,
@@ -11,14 +11,7 @@ export const authKeys = {
 export function meOptions() {
   return queryOptions({
     queryKey: authKeys.me,
-    queryFn: async ({ signal }) => {
-      try {
-        return await apiFetch('/auth/me', MeSchema, { signal })
-      } catch (err) {
-        if (err instanceof ApiError && err.status === 401) return null
-        throw err
-      }
-    },
+    queryFn: async ({ signal }) => (await apiFetch('/auth/me', SessionSchema, { signal })).user,
     staleTime: 60_000,
   })
 }
