@@ -1,11 +1,18 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import { z } from 'zod'
 import { PackViewSchema, QuoteSchema, ShipResultSchema, type BuyLabel, type PackView, type QuoteRequest } from '@kitwright/shared/pack'
+import { CustomsSummarySchema } from '@kitwright/shared/customs'
 import { apiFetch } from '../../../lib/api-client'
 
 export const packKeys = {
   all: ['pack-bench'] as const,
   order: (orderId: string) => [...packKeys.all, 'order', orderId] as const,
+  customs: (shipmentId: string, status: string) => [...packKeys.all, 'customs', shipmentId, status] as const,
+}
+
+/** Whether the shipment needs a customs declaration, and its form per parcel once the label is bought. */
+export function customsSummaryOptions(shipmentId: string, status: string) {
+  return queryOptions({ queryKey: packKeys.customs(shipmentId, status), queryFn: ({ signal }) => apiFetch(`/shipments/${shipmentId}/customs`, CustomsSummarySchema, { signal }) })
 }
 
 /** The pack view of one order; refreshed now and then, as a planner may approve a partial shipment meanwhile. */
@@ -49,3 +56,4 @@ export function useShip() {
 
 export const packingSlipHref = (shipmentId: string, paper: 'letter' | 'a4') => `/api/shipments/${shipmentId}/packing-slip.pdf?paper=${paper}`
 export const shippingLabelHref = (shipmentId: string) => `/api/shipments/${shipmentId}/label.pdf`
+export const customsDeclarationHref = (shipmentId: string) => `/api/shipments/${shipmentId}/customs-declaration.pdf`
