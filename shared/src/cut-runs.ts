@@ -65,11 +65,19 @@ export const PlanCutRunSchema = z
     kerf: z.number().int('Lengths are whole base units').min(0, 'Cannot be negative').optional(),
     endTrim: z.number().int('Lengths are whole base units').min(0, 'Cannot be negative').optional(),
     minOffcut: z.number().int('Lengths are whole base units').min(1, 'Must be longer than zero').optional(),
-    timeLimitSeconds: z.number().min(0.5, 'At least half a second').max(120, 'At most 120 seconds').default(10),
+    /** How long the engine may plan; omitted: the shop's setting (2 s unless changed). */
+    timeLimitSeconds: z.number().min(0.5, 'At least half a second').max(120, 'At most 120 seconds').optional(),
   })
   .strict()
 /** What the planner asks the engine for. */
 export type PlanCutRun = z.infer<typeof PlanCutRunSchema>
+
+/** "Take longer": plan a draft run again, same work orders and saw settings, with more time. */
+export const ReplanCutRunSchema = z
+  .object({ timeLimitSeconds: z.number().min(0.5, 'At least half a second').max(120, 'At most 120 seconds').default(30) })
+  .strict()
+/** Planning a draft again with more time. */
+export type ReplanCutRun = z.infer<typeof ReplanCutRunSchema>
 /** What the planner asks the engine for, before defaults. */
 export type PlanCutRunInput = z.input<typeof PlanCutRunSchema>
 

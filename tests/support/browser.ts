@@ -1,12 +1,12 @@
 import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, beforeEach } from 'vitest'
 
-/** Debian's Chromium, headless, with the flags this machine's closed network needs. */
-export function launchChromium(): Promise<Browser> {
+/** Debian's Chromium, headless, with the flags this machine's closed network needs (and any `extraArgs`). */
+export function launchChromium(extraArgs: string[] = []): Promise<Browser> {
   return chromium.launch({
     executablePath: '/usr/bin/chromium',
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', ...extraArgs],
   })
 }
 
