@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatDateTime, formatDay, formatDayWithWeekday } from './dates'
+import { formatDateOf, formatDateTime, formatDay, formatDayWithWeekday } from './dates'
 
 describe('one date format', () => {
   it('writes a day as "Dec 3, 2026", whatever the time zone of the machine', () => {
@@ -19,6 +19,7 @@ describe('one date format', () => {
     expect(formatDateTime('2026-12-03T16:05:00Z', 'America/New_York')).toBe('Dec 3, 2026, 11:05 AM')
     expect(formatDateTime('2026-12-03T02:00:00Z', 'America/New_York')).toBe('Dec 2, 2026, 9:00 PM')
     expect(formatDateTime(null)).toBe('—')
+    expect(formatDateOf('2026-12-03T02:00:00Z', 'America/New_York')).toBe('Dec 2, 2026')
   })
 
   it('never writes the numeric form 12/3/2026', () => {

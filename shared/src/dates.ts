@@ -18,6 +18,12 @@ export function formatDayWithWeekday(day: string): string {
   return DAY_WITH_WEEKDAY.format(new Date(`${day.slice(0, 10)}T00:00:00Z`))
 }
 
+/** The day of a moment (ISO 8601) as `Dec 3, 2026`, in `timeZone` or the showing machine's own. */
+export function formatDateOf(iso: string | Date, timeZone?: string): string {
+  const at = typeof iso === 'string' ? new Date(iso) : iso
+  return new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', year: 'numeric', ...(timeZone ? { timeZone } : {}) }).format(at)
+}
+
 /**
  * A moment (ISO 8601) as `Dec 3, 2026, 4:05 PM`, in `timeZone` (an IANA name, e.g. `UTC`) or, left
  * out, the time zone of the machine showing it (the browser's, on a screen). Null as a dash.
@@ -26,6 +32,7 @@ export function formatDateTime(iso: string | Date | null, timeZone?: string): st
   if (!iso) return '—'
   const at = typeof iso === 'string' ? new Date(iso) : iso
   const day = new Intl.DateTimeFormat('en-US', { month: 'short', day: 'numeric', year: 'numeric', ...(timeZone ? { timeZone } : {}) }).format(at)
-  const time = new Intl.DateTimeFormat('en-US', { hour: 'numeric', minute: '2-digit', ...(timeZone ? { timeZone } : {}) }).format(at)
+  // Newer ICU puts a narrow no-break space before AM/PM; a plain space reads the same and survives CSV files and e-mail.
+  const time = new Intl.DateTimeFormat('en-US', { hour: 'numeric', minute: '2-digit', ...(timeZone ? { timeZone } : {}) }).format(at).replace(/\u202f/g, ' ')
   return `${day}, ${time}`
 }

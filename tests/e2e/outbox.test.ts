@@ -46,6 +46,9 @@ describe('the outbox, in Chromium', () => {
     const row = page.getByRole('row').filter({ hasText: subjectMark })
     await row.waitFor()
     expect(await row.textContent()).toContain('liesel.kettleby@post.example')
+    // Dates the one way every screen writes them (shared/src/dates.ts), never the numeric 12/3/2026.
+    expect(await row.textContent()).toMatch(/[A-Z][a-z]{2} \d{1,2}, \d{4}, \d{1,2}:\d{2}\s?[AP]M/)
+    expect(await row.textContent()).not.toMatch(/\d{1,2}\/\d{1,2}\/\d{4}/)
     await row.getByRole('button', { name: new RegExp(subjectMark) }).click()
     const frame = page.frameLocator('iframe[title="Message as the customer sees it"]')
     await frame.getByText(`Thank you for your order ${subjectMark}`).waitFor()

@@ -1,3 +1,4 @@
+import { formatDateOf } from '@kitwright/shared/dates'
 import { useQuery } from '@tanstack/react-query'
 import { useParams } from 'react-router-dom'
 import { PASCALS_PER_PSI } from '@kitwright/shared/kits'
@@ -5,7 +6,7 @@ import { PublicUnitRecordSchema } from '@kitwright/shared/public-record'
 import { apiFetch } from '../../lib/api-client'
 
 const psi = (pa: number) => (pa / PASCALS_PER_PSI).toFixed(1)
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { year: 'numeric', month: 'long', day: 'numeric' })
+const day = (iso: string) => formatDateOf(iso)
 
 /** What a customer sees through the link in their shipping e-mail: how their unit was built and tested. */
 export function Component() {

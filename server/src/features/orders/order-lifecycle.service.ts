@@ -1,4 +1,5 @@
 import { and, asc, count, eq, inArray, notInArray } from 'drizzle-orm'
+import { formatDay } from '@kitwright/shared/dates'
 import { ORDER_PRIORITY_LABELS, type OrderDetail, type UpdateOrderPlan } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
 import { bins, cutRunCuts, cutRuns, cutRunSticks, offcuts, orders, workOrders, type OrderRow } from '../../db/schema/index'
@@ -217,8 +218,8 @@ export async function updateOrderPlan(db: Db, id: string, change: UpdateOrderPla
         .set({ dueDate: change.promisedShipDate, updatedAt: new Date() })
         .where(and(eq(workOrders.orderId, order.id), notInArray(workOrders.status, ['shipped', 'cancelled'])))
       const message = change.promisedShipDate
-        ? `Promised ship date set to ${change.promisedShipDate}${order.promisedShipDate ? ` (was ${order.promisedShipDate})` : ''}.`
-        : `Promised ship date cleared (was ${order.promisedShipDate}).`
+        ? `Promised ship date set to ${formatDay(change.promisedShipDate)}${order.promisedShipDate ? ` (was ${formatDay(order.promisedShipDate)})` : ''}.`
+        : `Promised ship date cleared (was ${formatDay(order.promisedShipDate)}).`
       await addOrderEvent(tx, { orderId: order.id, kind: 'promised_date', message, data: { from: order.promisedShipDate, to: change.promisedShipDate }, actor })
       said.push(message)
     }

@@ -1,3 +1,4 @@
+import { formatDateOf } from '@kitwright/shared/dates'
 import { RevisionFrameSchema } from '@kitwright/shared/kits'
 import { depthForVolume } from '@kitwright/shared/domain/reservoir'
 import { formatWeight } from '@kitwright/shared/domain/weights'
@@ -71,7 +72,7 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
   // Electrical cautions only when something in this box runs on mains power.
   const bom = await bomOfRevisions(db, [...new Set(units.map((u) => u.revision.id))])
   const electricalParts = needsElectricalCautions(bom) ? [...new Set(bom.filter((b) => b.electrical).map((b) => b.name))] : []
-  const placed = data.order.placedAt.toISOString().slice(0, 10)
+  const placed = formatDateOf(data.order.placedAt, 'UTC')
   const backOrdered = data.units.filter((u) => !going.has(u.workOrder.id) && u.workOrder.status !== 'shipped').map((u) => u.workOrder.serial)
   return packingSlipPdf(
     {

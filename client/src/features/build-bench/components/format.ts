@@ -1,6 +1,8 @@
-/** A moment as the bench reads it: "1 Dec, 14:05". */
+import { formatDateTime } from '@kitwright/shared/dates'
+
+/** A moment as the bench reads it, the one way Kitwright writes dates: "Dec 1, 2026, 2:05 PM". */
 export function formatWhen(iso: string): string {
-  return new Date(iso).toLocaleString(undefined, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' })
+  return formatDateTime(iso)
 }
 
 /** A step's limits: "17.75 – 18.25 in", "at least 2 mm", or "" when it has none. */

@@ -1,10 +1,11 @@
+import { formatDateTime } from '@kitwright/shared/dates'
 import type { ColumnDef } from '@tanstack/react-table'
 import type { MailSummary } from '@kitwright/shared/mail'
 import { MailStatusBadge } from './mail-status-badge'
 
 export function getMailColumns(onOpen: (id: string) => void): ColumnDef<MailSummary, unknown>[] {
   return [
-    { accessorKey: 'createdAt', header: 'Queued', enableSorting: false, cell: ({ row }) => new Date(row.original.createdAt).toLocaleString() },
+    { accessorKey: 'createdAt', header: 'Queued', enableSorting: false, cell: ({ row }) => formatDateTime(row.original.createdAt) },
     { accessorKey: 'to', header: 'To', enableSorting: false },
     {
       accessorKey: 'subject',
@@ -17,7 +18,7 @@ export function getMailColumns(onOpen: (id: string) => void): ColumnDef<MailSumm
       ),
     },
     { accessorKey: 'status', header: 'Status', enableSorting: false, cell: ({ row }) => <MailStatusBadge status={row.original.status} /> },
-    { accessorKey: 'sentAt', header: 'Sent', enableSorting: false, cell: ({ row }) => (row.original.sentAt ? new Date(row.original.sentAt).toLocaleString() : '—') },
+    { accessorKey: 'sentAt', header: 'Sent', enableSorting: false, cell: ({ row }) => formatDateTime(row.original.sentAt) },
     { accessorKey: 'attempts', header: 'Tries', enableSorting: false },
   ]
 }

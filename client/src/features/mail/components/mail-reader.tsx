@@ -1,3 +1,4 @@
+import { formatDateTime } from '@kitwright/shared/dates'
 import { useQuery } from '@tanstack/react-query'
 import { Link } from 'react-router-dom'
 import { Button } from '../../../components/ui/button'
@@ -30,7 +31,7 @@ export function MailReader({ id, onClose }: { id: string; onClose: () => void })
               <MailStatusBadge status={mail.status} />
               <span>
                 {mail.attempts} {mail.attempts === 1 ? 'try' : 'tries'}
-                {mail.sentAt ? `, sent ${new Date(mail.sentAt).toLocaleString()}` : ''}
+                {mail.sentAt ? `, sent ${formatDateTime(mail.sentAt)}` : ''}
               </span>
             </dd>
             {mail.lastError && (

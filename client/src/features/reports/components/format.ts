@@ -1,3 +1,4 @@
+import { formatDateTime } from '@kitwright/shared/dates'
 /** A share (0–1) as a percentage for the screen, or a dash when there was nothing to count. */
 export function percent(share: number | null, digits = 1): string {
   return share === null ? '—' : `${(share * 100).toFixed(digits)} %`
@@ -15,5 +16,5 @@ export function shortDay(day: string): string {
 
 /** An instant as a date and time in UTC. */
 export function utcStamp(iso: string): string {
-  return new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short', timeZone: 'UTC' }).format(new Date(iso)) + ' UTC'
+  return `${formatDateTime(iso, 'UTC')} UTC`
 }

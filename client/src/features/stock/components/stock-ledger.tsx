@@ -1,3 +1,4 @@
+import { formatDateTime } from '@kitwright/shared/dates'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
 import { formatStickLength, type StockLedger, type StockMoveKind } from '@kitwright/shared/stock'
 import { cn } from '../../../lib/cn'
@@ -15,7 +16,6 @@ const KIND_LABELS: Record<StockMoveKind, string> = {
   ship: 'Shipped',
 }
 
-const when = new Intl.DateTimeFormat('en-US', { dateStyle: 'medium', timeStyle: 'short' })
 
 function Figure({ label, value, strong }: { label: string; value: number; strong?: boolean }) {
   return (
@@ -67,7 +67,7 @@ export function StockLedgerView({ ledger }: { ledger: StockLedger }) {
           <tbody>
             {ledger.moves.map((m) => (
               <tr key={m.id} className="border-t border-stone-200">
-                <td className="px-3 py-2 whitespace-nowrap">{when.format(new Date(m.createdAt))}</td>
+                <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(m.createdAt)}</td>
                 <td className="px-3 py-2">{KIND_LABELS[m.kind]}</td>
                 <td className="px-3 py-2 text-right font-bold">{m.quantity > 0 ? `+${m.quantity}` : m.quantity}</td>
                 <td className="px-3 py-2">{m.stickLength === null ? '—' : formatStickLength(m.stickLength, unit)}</td>
