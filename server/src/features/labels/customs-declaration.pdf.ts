@@ -129,8 +129,8 @@ export async function customsDeclarationPdf(input: CustomsDeclarationInput): Pro
     const foot = 128
     for (const [i, line] of d.lines.entries()) {
       doc.font('body').fontSize(7)
-      const text = `${line.description} (${line.sku})`
-      const h = Math.max(9, doc.heightOfString(text, { width: COLS.description.w - 2 })) + 2
+      const text = line.description
+      const h = Math.max(9, doc.heightOfString(text, { width: COLS.description.w - 2 })) + 9
       const last = i === d.lines.length - 1
       if (y + h > H - (last ? foot : 16)) {
         doc.font('body').fontSize(6.5).text('Continued on the next page', PAD, H - 14, { width: INNER, align: 'right' })
@@ -140,6 +140,7 @@ export async function customsDeclarationPdf(input: CustomsDeclarationInput): Pro
         doc.font('body').fontSize(7)
       }
       doc.text(text, PAD + COLS.description.x, y, { width: COLS.description.w - 2 })
+      doc.fontSize(5.5).fillColor('#444444').text(`SKU ${line.sku}`, PAD + COLS.description.x, doc.y, { width: COLS.description.w - 2, lineBreak: false }).fillColor('#000000').fontSize(7)
       const cell = (k: keyof typeof COLS, v: string) => doc.text(v, PAD + COLS[k].x, y, { width: COLS[k].w - 2, align: 'right', lineBreak: false })
       cell('quantity', String(line.quantity))
       cell('net', kg(line.netGrams))
