@@ -4,9 +4,8 @@ import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { CutRunDetailSchema, type CutRunDetail, type CutStick } from '@kitwright/shared/cut-runs'
-import { foldRuns, runNumbers } from '@kitwright/shared/domain/saw-order'
+import { foldRuns, runNumbers, samePieceRow } from '@kitwright/shared/domain/saw-order'
 import { formatLength, inches } from '@kitwright/shared/domain/units'
-import { sameRow } from '../../server/src/features/labels/cut-sheet.pdf'
 import { PAPER } from '../../server/src/features/labels/pdf-document'
 import { seedDemo } from '../../server/src/db/seed'
 import { parts } from '../../server/src/db/schema/index'
@@ -93,7 +92,7 @@ const len = (v: number) => formatLength(v, 'in')
 
 /** What the cut list of a stick must say, row by row: cut numbers, length, quantity, part, work order. */
 function expectedRows(stick: CutStick) {
-  return foldRuns(stick.cuts, sameRow).map((r) => `${runNumbers(r)} | ${len(r.items[0]!.length)} | ${r.items.length} | ${r.items[0]!.label} | WO ${r.items[0]!.serial}`)
+  return foldRuns(stick.cuts, samePieceRow).map((r) => `${runNumbers(r)} | ${len(r.items[0]!.length)} | ${r.items.length} | ${r.items[0]!.label} | WO ${r.items[0]!.serial}`)
 }
 
 interface Read {

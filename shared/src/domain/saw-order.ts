@@ -70,3 +70,11 @@ export function runNumbers(run: { from: number; to: number }): string {
 export function stopSettings(lengths: readonly number[]): number {
   return lengths.filter((l, i) => i === 0 || l !== lengths[i - 1]).length
 }
+
+/**
+ * Whether two pieces (in saw order) share one row of a cut list: same length, same cut part, same
+ * work order — one stop-block setting and one bin.
+ */
+export function samePieceRow(a: { length: number; cutPartId: string; workOrderId: string }, b: { length: number; cutPartId: string; workOrderId: string }): boolean {
+  return a.length === b.length && a.cutPartId === b.cutPartId && a.workOrderId === b.workOrderId
+}

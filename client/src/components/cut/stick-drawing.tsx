@@ -1,58 +1,114 @@
 import type { CutStick } from '@kitwright/shared/cut-runs'
+import { placeUnderLabels } from '@kitwright/shared/stick-labels'
+import { STICK_PALETTE as P } from '@kitwright/shared/stick-palette'
+
+const W = 1000
+const BAR = 64
+const LEVEL = 26
+const NUMBER_SIZE = 20
+/** Roboto Condensed's figures are about half an em wide; enough to decide inside or under. */
+const numberWidth = (text: string) => text.length * NUMBER_SIZE * 0.52
+
+interface Mark {
+  x: number
+  w: number
+  number: string
+  level: number | null
+}
+
+/** Where every piece's number goes: inside when it fits, else in a row under the stick (as on the cut sheet). */
+function layoutMarks(stick: CutStick, k: number, width: number): { marks: Mark[]; levels: number } {
+  const marks = stick.cuts.map((c, i): Mark => {
+    const w = c.length * k
+    const number = String(i + 1)
+    return { x: c.offset * k, w, number, level: numberWidth(number) + 6 <= w ? null : -1 }
+  })
+  const under = marks.filter((m) => m.level !== null)
+  const levels = placeUnderLabels(
+    under.map((m) => ({ cx: m.x + m.w / 2, half: numberWidth(m.number) / 2 + 3 })),
+    { leaderHalf: 1, maxLevels: 4, min: 0, max: width },
+  )
+  under.forEach((m, i) => (m.level = levels[i]!))
+  return { marks, levels: under.length > 0 ? Math.max(...levels) + 1 : 0 }
+}
 
 /**
- * One stick drawn to scale: the squaring trim (grey), each piece with its length and work order
- * serial, the kerf after each cut (red), and the remnant marked as an offcut to keep (green) or waste
- * (hatched red). Every stick of a run shares `scaleLength` so lengths compare at a glance.
+ * One stick drawn to scale in Kitwright's palette (shared/stick-palette.ts, the same as the cut
+ * sheet): the end trim as a dark band, each piece numbered as its row in the cut list, a dark slot
+ * for each saw cut, and the remnant as an offcut (honey, dashed) or scrap (white, dotted), in
+ * words when there is room. Narrow pieces get their number under the stick on a leader line.
+ * Every stick of a run shares `scaleLength` so lengths compare at a glance.
  */
 export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId }: { stick: CutStick; kerf: number; scaleLength: number; format: (v: number) => string; highlightCutId?: string }) {
-  const W = 1000
-  const H = 64
   const k = W / scaleLength
   const width = stick.length * k
+  const { marks, levels } = layoutMarks(stick, k, width)
+  const H = BAR + (levels > 0 ? 8 + levels * LEVEL : 4)
   const remnantX = (stick.length - stick.remnant) * k
-  const label = `${stick.source === 'offcut' ? `Offcut ${stick.sourceOffcutCode}` : 'Stick'} of ${format(stick.length)}: ${stick.cuts.map((c) => `${format(c.length)} for ${c.serial}`).join(', ')}${stick.remnant > 0 ? `; ${stick.remnantIsOffcut ? 'offcut' : 'waste'} ${format(stick.remnant)}` : ''}`
+  const remnantW = stick.remnant * k
+  const remnantWords = `${stick.remnantIsOffcut ? 'offcut' : 'scrap'} ${format(stick.remnant)}`
+  const label = `${stick.source === 'offcut' ? `Offcut ${stick.sourceOffcutCode}` : 'Stick'} of ${format(stick.length)}: ${stick.cuts.map((c, i) => `${i + 1}. ${format(c.length)} for ${c.serial}${c.status === 'cut' ? ' (cut)' : ''}`).join(', ')}${stick.remnant > 0 ? `; ${remnantWords}` : ''}`
   return (
-    <svg viewBox={`0 0 ${W} ${H}`} className="h-16 w-full" role="img" aria-label={label} preserveAspectRatio="none">
-      <defs>
-        <pattern id="kw-waste" width="8" height="8" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-          <rect width="8" height="8" fill="#fee2e2" />
-          <line x1="0" y1="0" x2="0" y2="8" stroke="#dc2626" strokeWidth="3" />
-        </pattern>
-      </defs>
-      <rect x={0} y={0} width={width} height={H} fill="#f5f5f4" stroke="#44403c" strokeWidth={1.5} />
-      {stick.trim > 0 && <rect x={0} y={0} width={Math.max(2, stick.trim * k)} height={H} fill="#a8a29e"><title>Trim {format(stick.trim)}</title></rect>}
-      {stick.cuts.map((c) => {
-        const x = (stick.trim + c.offset) * k
-        const w = c.length * k
+    <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={label} preserveAspectRatio="xMinYMin meet" fontFamily="inherit">
+      <rect x={1} y={1} width={width - 2} height={BAR - 2} fill={P.scrap} stroke={P.edge} strokeWidth={2} />
+      {stick.trim > 0 && (
+        <rect x={0} y={0} width={Math.max(3, stick.trim * k)} height={BAR} fill={P.trim}>
+          <title>End trim {format(stick.trim)}</title>
+        </rect>
+      )}
+      {stick.cuts.map((c, i) => {
+        const m = marks[i]!
         const done = c.status === 'cut'
         const moved = c.status === 'replanned'
+        const next = c.id === highlightCutId
+        const fill = moved ? P.pieceMoved : done ? P.pieceCut : next ? P.pieceNext : P.piece
+        const ink = done ? P.pieceCutInk : moved ? P.ink : P.pieceInk
+        const cx = m.x + m.w / 2
         return (
           <g key={c.id}>
-            <rect x={x} y={0} width={w} height={H} fill={moved ? '#e7e5e4' : done ? '#bbf7d0' : c.id === highlightCutId ? '#fde68a' : '#dbeafe'} stroke="#1e3a8a" strokeWidth={1} />
-            {kerf > 0 && <rect x={x + w} y={0} width={Math.max(1.5, kerf * k)} height={H} fill="#b91c1c" />}
-            {w > 44 && (
+            <rect x={m.x} y={next ? 2 : 0} width={m.w} height={next ? BAR - 4 : BAR} fill={fill} stroke={next ? P.pieceInk : P.pieceEdge} strokeWidth={next ? 5 : 2} strokeDasharray={moved ? '6 4' : undefined} />
+            {kerf > 0 && <rect x={m.x + m.w} y={0} width={Math.max(2.5, kerf * k)} height={BAR} fill={P.kerf} />}
+            {m.level === null ? (
               <>
-                <text x={x + w / 2} y={26} textAnchor="middle" fontSize={18} fontWeight={700} fill="#111827">
-                  {format(c.length)}
+                <text x={cx} y={m.w > 90 ? 28 : 40} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={ink}>
+                  {done && m.w > numberWidth(m.number) + 22 ? `✓${m.number}` : m.number}
                 </text>
-                <text x={x + w / 2} y={50} textAnchor="middle" fontSize={16} fill="#374151">
-                  {c.serial}
+                {m.w > 90 && (
+                  <text x={cx} y={52} textAnchor="middle" fontSize={16} fill={ink}>
+                    {format(c.length)} · {c.serial}
+                  </text>
+                )}
+              </>
+            ) : (
+              <>
+                <line x1={cx} y1={BAR} x2={cx} y2={BAR + 6 + m.level * LEVEL} stroke={P.pieceEdge} strokeWidth={1.5} />
+                <text x={cx} y={BAR + 4 + (m.level + 1) * LEVEL} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={P.pieceInk}>
+                  {m.number}
                 </text>
               </>
             )}
-            <title>{`${format(c.length)} ${c.label} for work order ${c.serial}${done ? ' (cut)' : moved ? ' (moved by re-plan)' : ''}`}</title>
+            <title>{`${m.number}. ${format(c.length)} ${c.label} for work order ${c.serial}${done ? ' (cut)' : moved ? ' (moved by re-plan)' : ''}`}</title>
           </g>
         )
       })}
       {stick.remnant > 0 && (
         <g>
-          <rect x={remnantX} y={0} width={stick.remnant * k} height={H} fill={stick.remnantIsOffcut ? '#dcfce7' : 'url(#kw-waste)'} stroke="#44403c" strokeWidth={1} />
-          {stick.remnant * k > 70 && (
-            <text x={remnantX + (stick.remnant * k) / 2} y={38} textAnchor="middle" fontSize={16} fill="#14532d">
-              {stick.remnantIsOffcut ? `offcut ${format(stick.remnant)}` : `waste ${format(stick.remnant)}`}
+          <rect
+            x={remnantX + 2}
+            y={2}
+            width={Math.max(1, remnantW - 4)}
+            height={BAR - 4}
+            fill={stick.remnantIsOffcut ? P.offcut : P.scrap}
+            stroke={stick.remnantIsOffcut ? P.offcutEdge : P.scrapEdge}
+            strokeWidth={2}
+            strokeDasharray={stick.remnantIsOffcut ? '10 5' : '2 4'}
+          />
+          {remnantW > remnantWords.length * 9 && (
+            <text x={remnantX + remnantW / 2} y={40} textAnchor="middle" fontSize={18} fill={P.ink}>
+              {remnantWords}
             </text>
           )}
+          <title>{remnantWords}</title>
         </g>
       )}
     </svg>

@@ -6,6 +6,7 @@ import {
   CutSheetQuerySchema,
   DamageStickSchema,
   PlanCutRunSchema,
+  ReplanCutRunSchema,
   RunCutParamsSchema,
   RunStickParamsSchema,
   CutRunStatusSchema,
@@ -17,7 +18,7 @@ import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { getShopSettings } from '../settings/settings.service'
 import { assignRunBin, damageStick, tickCut, undoCut } from './cut-bench.service'
-import { cancelCutRun, getCutRun, listCandidates, listCutRuns, planCutRun, publishCutRun } from './cut-runs.service'
+import { cancelCutRun, getCutRun, listCandidates, listCutRuns, planCutRun, publishCutRun, replanCutRun } from './cut-runs.service'
 import { cutSheetPdf } from '../labels/cut-sheet.pdf'
 import { offcutLabel } from './offcut-label'
 import { loadPipeStock } from './pipe-stock'
@@ -64,6 +65,14 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
     const { id } = IdParamsSchema.parse(req.params)
     const run = await cancelCutRun(deps.db, id, currentUser(req))
     await audit(req, 'cut_run.cancel', id, 'Cancelled a cut run')
+    res.json(run)
+  })
+  // "Take longer": a draft planned again with more time (same work orders and saw settings).
+  r.post('/:id/replan', office, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    const input = ReplanCutRunSchema.parse(req.body ?? {})
+    const run = await replanCutRun(deps.db, id, input)
+    await audit(req, 'cut_run.replan', id, `Planned the draft again with ${input.timeLimitSeconds} s: ${run.totals.sticksUsed} sticks`)
     res.json(run)
   })
   r.get('/:id/cut-sheet.pdf', bench, async (req, res) => {

@@ -1,6 +1,7 @@
-import type { Cut, CutRunDetail, CutStick } from '@kitwright/shared/cut-runs'
-import { foldRuns, runNumbers, stopSettings } from '@kitwright/shared/domain/saw-order'
+import type { CutRunDetail, CutStick } from '@kitwright/shared/cut-runs'
+import { foldRuns, runNumbers, samePieceRow, stopSettings } from '@kitwright/shared/domain/saw-order'
 import { formatLength, type LengthUnit } from '@kitwright/shared/domain/units'
+import { placeUnderLabels } from '@kitwright/shared/stick-labels'
 import { STICK_LEGEND, STICK_PALETTE as P } from '@kitwright/shared/stick-palette'
 import { createPdf, pdfBuffer, PAPER } from './pdf-document'
 
@@ -23,9 +24,6 @@ export function patternsOf(run: CutRunDetail): Pattern[] {
   for (const s of run.sticks) byIndex.set(s.patternIndex, [...(byIndex.get(s.patternIndex) ?? []), s])
   return [...byIndex.entries()].map(([index, sticks]) => ({ index, sticks }))
 }
-
-/** Pieces that fold into one row of the cut list: same length, same cut part, same work order, one after another. */
-export const sameRow = (a: Cut, b: Cut) => a.length === b.length && a.cutPartId === b.cutPartId && a.workOrderId === b.workOrderId
 
 // Layout, in points. Every height is fixed so a pattern is measured before it is placed.
 const MARGIN = 40
@@ -65,39 +63,22 @@ interface PieceMark {
   level: number | null
 }
 
-/**
- * Where every piece's number goes: inside the piece when it fits, else in the first row under the
- * stick where it overlaps no other number and its leader line crosses no number above it.
- */
+/** Where every piece's number goes: inside the piece when it fits, else in a row under the stick (shared/stick-labels.ts). */
 function layoutMarks(doc: Doc, stick: CutStick, x0: number, width: number, unit: LengthUnit): { marks: PieceMark[]; levels: number } {
   const scale = width / stick.length
   doc.font('bold').fontSize(NUMBER_SIZE)
-  const taken: [number, number][][] = [] // per level: occupied x intervals (numbers and leaders)
-  const free = (level: number, a: number, b: number) => (taken[level] ?? []).every(([s, e]) => b <= s || a >= e)
-  const take = (level: number, a: number, b: number) => (taken[level] ??= []).push([a, b])
-  let levels = 0
   const marks = stick.cuts.map((c, i): PieceMark => {
-    const x = x0 + c.offset * scale
     const w = c.length * scale
     const number = String(i + 1)
-    const tw = doc.widthOfString(number)
-    const mark = { x, w, number, length: formatLength(c.length, unit), level: null as number | null }
-    if (tw + 3 <= w) return mark
-    const cx = x + w / 2
-    const a = Math.max(x0, cx - tw / 2 - 1.5)
-    const b = Math.min(x0 + width, cx + tw / 2 + 1.5)
-    for (let level = 0; ; level++) {
-      let ok = free(level, a, b)
-      for (let l = 0; ok && l < level; l++) ok = free(l, cx - 0.6, cx + 0.6)
-      if (!ok) continue
-      take(level, a, b)
-      for (let l = 0; l < level; l++) take(l, cx - 0.6, cx + 0.6)
-      mark.level = level
-      levels = Math.max(levels, level + 1)
-      return mark
-    }
+    return { x: x0 + c.offset * scale, w, number, length: formatLength(c.length, unit), level: doc.widthOfString(number) + 3 <= w ? null : -1 }
   })
-  return { marks, levels }
+  const under = marks.filter((m) => m.level !== null)
+  const levels = placeUnderLabels(
+    under.map((m) => ({ cx: m.x + m.w / 2, half: doc.widthOfString(m.number) / 2 + 1.5 })),
+    { leaderHalf: 0.6, maxLevels: 4, min: x0, max: x0 + width },
+  )
+  under.forEach((m, i) => (m.level = levels[i]!))
+  return { marks, levels: under.length > 0 ? Math.max(...levels) + 1 : 0 }
 }
 
 /** Height of the drawing of `stick` (the bar and its rows of numbers). */
@@ -255,7 +236,7 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
     const info = `${first.trim > 0 ? `Square the end first (trim ${len(first.trim)}). ` : ''}${first.cuts.length} pieces; stop block at ${settings.join(', ')} (${stopSettings(lengths)} setting${stopSettings(lengths) === 1 ? '' : 's'}); ${remnantNote}.`
     const drawH = drawingHeight(doc, first, width, unit)
     const headH = HEAD_H + INFO_H + drawH + TABLE_HEAD_H
-    const groups = pattern.sticks.map((stick) => ({ stick, rows: foldRuns(stick.cuts, sameRow) }))
+    const groups = pattern.sticks.map((stick) => ({ stick, rows: foldRuns(stick.cuts, samePieceRow) }))
     const groupH = (g: (typeof groups)[number]) => STICK_ROW_H + g.rows.length * ROW_H
     const blockH = headH + groups.reduce((s, g) => s + groupH(g), 0)
 

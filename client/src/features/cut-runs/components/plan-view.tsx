@@ -1,5 +1,6 @@
 import type { CutRunDetail } from '@kitwright/shared/cut-runs'
 import { StickDrawing } from '../../../components/cut/stick-drawing'
+import { StickLegend } from '../../../components/cut/stick-legend'
 import { Section } from '../../../components/ui/section'
 import { useLengthUnit } from '../../../lib/shop-settings'
 
@@ -30,8 +31,9 @@ export function PlanView({ run }: { run: CutRunDetail }) {
           ))}
         </dl>
         <p className="text-sm text-stone-600">
-          Kerf {format(run.kerf)}, end trim {format(run.endTrim)}, offcuts kept from {format(run.minOffcut)}. Legend: blue pieces, red kerf, grey trim, green offcut, hatched waste.
+          Kerf {format(run.kerf)}, end trim {format(run.endTrim)}, offcuts kept from {format(run.minOffcut)}.
         </p>
+        <StickLegend />
       </Section>
       <Section title={`Sticks (${run.sticks.length})`}>
         <ol className="space-y-3">
