@@ -221,10 +221,3 @@ export const RunCutParamsSchema = z.object({ id: uuid, cutId: uuid })
 /** Route params of a run's stick. */
 export const RunStickParamsSchema = z.object({ id: uuid, stickId: uuid })
 
-/**
- * The code printed on an offcut's label: `OC-` and the first 8 hex digits of its id, upper case
- * (short enough for a Code 128 on a 2 × 1 in label).
- */
-export function offcutCode(offcutId: string): string {
-  return `OC-${offcutId.replace(/-/g, '').slice(0, 8).toUpperCase()}`
-}

@@ -243,7 +243,7 @@ describe('the cut bench', () => {
     for (const c of stick!.cuts) last = CutRunDetailSchema.parse((await cutter.post(`/api/cut-runs/${run.id}/cuts/${c.id}/tick`)).body)
     const done = last!.sticks.find((s) => s.id === stick!.id)!
     expect(done.status).toBe('done')
-    expect(done.offcutCode).toMatch(/^OC-[0-9A-F]{8}$/)
+    expect(done.offcutCode).toMatch(/^OC-\d{6,}$/)
     const [offcut] = await t.db.select().from(offcuts).where(eq(offcuts.id, done.offcutId!))
     expect(offcut).toMatchObject({ length: stick!.remnant, status: 'in_stock', partId: pipeId })
     const moves = await t.db.select().from(stockMoves).where(and(eq(stockMoves.offcutId, offcut!.id), eq(stockMoves.kind, 'offcut_in')))

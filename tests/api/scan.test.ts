@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { ScanResultSchema } from '@kitwright/shared/scan'
-import { orders } from '../../server/src/db/schema/index'
+import { orders, parts } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/db/seed'
 import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { buildApp, signedInAs } from '../support/app'
@@ -55,9 +55,25 @@ describe('GET /api/scan/:code resolves every kind of Kitwright code', () => {
 
   it('an offcut label, with its length in the shop unit', async () => {
     const offcut = await insertOffcut(t.db, DEMO_PART_SKUS.pipeHalfInch, inches(14.5))
-    const result = await scan(`OC-${offcut.id.slice(0, 8).toUpperCase()}`)
+    expect(offcut.code).toMatch(/^OC-\d{6,}$/)
+    const result = await scan(offcut.code.toLowerCase())
     expect(result).toMatchObject({ kind: 'offcut', status: 'in_stock', next: { place: 'stock' } })
     expect(result.title).toContain('14-1/2"')
+  })
+
+  it('offcut codes come from a sequence: a hundred offcuts, a hundred codes, each scan finds its own', async () => {
+    const made = []
+    for (let i = 0; i < 100; i++) made.push(await insertOffcut(t.db, DEMO_PART_SKUS.pipeHalfInch, inches(10 + (i % 20))))
+    expect(new Set(made.map((o) => o.code)).size).toBe(100)
+    for (const o of [made[0]!, made[57]!, made[99]!]) expect(await scan(o.code)).toMatchObject({ kind: 'offcut', code: o.code })
+  })
+
+  it('refuses a code that names things of two kinds, naming both, instead of picking one', async () => {
+    const bin = await insertBin(t.db, null)
+    await t.db.insert(parts).values({ sku: bin.code.toLowerCase(), name: 'A part typed like a bin code', kind: 'hardware', unitCostCents: 100, weightGrams: 10 })
+    const res = await cutter.get(`/api/scan/${encodeURIComponent(bin.code)}`)
+    expect(res.status).toBe(409)
+    expect(ApiErrorBodySchema.parse(res.body).error.message).toMatch(new RegExp(`names bin ${bin.code} and part ${bin.code.toLowerCase()}; Kitwright will not guess which`))
   })
 
   it("a part's SKU, with its shelf", async () => {

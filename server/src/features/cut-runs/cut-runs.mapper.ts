@@ -1,4 +1,4 @@
-import { offcutCode, type CutRunDetail, type CutRunTotals, type CutStick } from '@kitwright/shared/cut-runs'
+import { type CutRunDetail, type CutRunTotals, type CutStick } from '@kitwright/shared/cut-runs'
 import type { CutRunRow } from '../../db/schema/index'
 import type { selectRunContents } from './cut-runs.queries'
 
@@ -34,7 +34,7 @@ export function toCutRunDetail(run: CutRunRow, contents: Contents, names: Map<st
     list.push(c)
     cutsByStick.set(c.cut.stickId, list)
   }
-  const sticks: CutStick[] = contents.sticks.map(({ stick, partSku }) => ({
+  const sticks: CutStick[] = contents.sticks.map(({ stick, partSku, sourceOffcutCode, offcutCode }) => ({
     id: stick.id,
     position: stick.position,
     patternIndex: stick.patternIndex,
@@ -42,14 +42,14 @@ export function toCutRunDetail(run: CutRunRow, contents: Contents, names: Map<st
     partSku,
     source: stick.sourceOffcutId ? 'offcut' : 'stock',
     stickLength: stick.stickLength,
-    sourceOffcutCode: stick.sourceOffcutId ? offcutCode(stick.sourceOffcutId) : null,
+    sourceOffcutCode: stick.sourceOffcutId ? sourceOffcutCode : null,
     length: stick.length,
     trim: stick.trim,
     status: stick.status,
     remnant: stick.remnant,
     remnantIsOffcut: stick.remnantIsOffcut,
     offcutId: stick.offcutId,
-    offcutCode: stick.offcutId ? offcutCode(stick.offcutId) : null,
+    offcutCode: stick.offcutId ? offcutCode : null,
     damagedReason: stick.damagedReason,
     replanned: stick.replanOfStickId !== null,
     cuts: (cutsByStick.get(stick.id) ?? []).map(({ cut, serial, label, cutByName }) => ({

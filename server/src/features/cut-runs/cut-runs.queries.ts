@@ -123,7 +123,14 @@ export async function selectRun(db: Conn, id: string, lock = false) {
 /** Everything the run's page and the bench show, in three queries. */
 export async function selectRunContents(db: Conn, runId: string) {
   const sticks = await db
-    .select({ stick: cutRunSticks, partSku: parts.sku, partName: parts.name })
+    .select({
+      stick: cutRunSticks,
+      partSku: parts.sku,
+      partName: parts.name,
+      // The label codes of the offcut a stick was cut from and of the one it made.
+      sourceOffcutCode: sql<string | null>`(select o.code from offcuts o where o.id = ${cutRunSticks.sourceOffcutId})`,
+      offcutCode: sql<string | null>`(select o.code from offcuts o where o.id = ${cutRunSticks.offcutId})`,
+    })
     .from(cutRunSticks)
     .innerJoin(parts, eq(parts.id, cutRunSticks.partId))
     .where(eq(cutRunSticks.cutRunId, runId))

@@ -1,5 +1,4 @@
 import { and, eq } from 'drizzle-orm'
-import { offcutCode } from '@kitwright/shared/cut-runs'
 import { formatLength } from '@kitwright/shared/domain/units'
 import type { Db } from '../../db/client'
 import { cutRunSticks, offcuts, parts } from '../../db/schema/index'
@@ -19,7 +18,7 @@ export async function offcutLabel(db: Db, runId: string, stickId: string) {
     .where(and(eq(cutRunSticks.id, stickId), eq(cutRunSticks.cutRunId, runId)))
   if (!run || !row) throw new NotFound('This stick has made no offcut (yet)')
   const unit = (await getShopSettings(db)).displayUnit
-  const code = offcutCode(row.offcut.id)
+  const code = row.offcut.code
   const pdf = await offcutLabelPdf({ code, partSku: row.sku, length: formatLength(row.offcut.length, unit), from: `${run.number} stick ${row.stick.position}` })
   return { pdf, code }
 }

@@ -1,4 +1,4 @@
-import { offcutCode, type PipeStock } from '@kitwright/shared/cut-runs'
+import type { PipeStock } from '@kitwright/shared/cut-runs'
 import type { Db, Tx } from '../../db/client'
 import { selectBuckets } from '../stock/stock.queries'
 import { selectOffcutsInStock, selectPipeParts } from './cut-runs.queries'
@@ -23,7 +23,7 @@ export async function loadPipeStock(db: Db | Tx, partIds?: readonly string[]): P
         const reserved = b ? Number(b.reserved) : 0
         return { stickLength, onHand, available: Math.max(0, onHand - reserved) }
       })
-    const offcuts = offcutRows.filter((o) => o.partId === part.id).map((o) => ({ id: o.id, code: offcutCode(o.id), length: o.length }))
+    const offcuts = offcutRows.filter((o) => o.partId === part.id).map((o) => ({ id: o.id, code: o.code, length: o.length }))
     return { partId: part.id, sku: part.sku, name: part.name, sticks, offcuts }
   })
 }

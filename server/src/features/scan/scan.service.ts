@@ -3,7 +3,7 @@ import type { ScanResult } from '@kitwright/shared/scan'
 import { formatLength } from '@kitwright/shared/domain/units'
 import type { Db } from '../../db/client'
 import { bins, kitRevisions, kits, offcuts, orders, parts, workOrders } from '../../db/schema/index'
-import { NotFound } from '../../lib/http-errors'
+import { Conflict, NotFound } from '../../lib/http-errors'
 import { getShopSettings } from '../settings/settings.service'
 
 type WorkOrderStatus = typeof workOrders.$inferSelect.status
@@ -43,20 +43,23 @@ async function unitById(db: Db, id: string) {
 type CodeKind = ScanResult['kind']
 
 /**
- * Which thing a code names, in one query over every kind; a bin wins over anything else with the
- * same text, because bins are what the benches scan most. Offcut labels read OC- and the first 8 hex
- * digits of the offcut's id.
+ * Which thing a code names, in one query over every kind. Offcut labels carry their own code from a
+ * sequence (OC-000123), matched exactly like the rest. Every code is unique within its kind; should
+ * the same text name things of two kinds (a part SKU typed like a bin code), the scan is refused with
+ * both named rather than one picked.
  */
 async function kindOfCode(db: Db, code: string): Promise<{ kind: CodeKind; id: string } | undefined> {
-  const offcutPrefix = /^OC-([0-9a-f]{8})$/i.exec(code)?.[1]?.toLowerCase() ?? null
-  const { rows } = await db.execute<{ kind: CodeKind; id: string }>(sql`
-    select kind, id from (
-      select 'bin' as kind, id::text as id, 1 as rank from bins where upper(code) = upper(${code})
-      union all select 'work_order', id::text, 2 from work_orders where upper(serial) = upper(${code})
-      union all select 'order', id::text, 3 from orders where upper(number) = upper(${code})
-      union all select 'offcut', id::text, 4 from offcuts where ${offcutPrefix}::text is not null and id::text like ${offcutPrefix}::text || '%'
-      union all select 'part', id::text, 5 from parts where upper(sku) = upper(${code})
-    ) found order by rank limit 1`)
+  const { rows } = await db.execute<{ kind: CodeKind; id: string; label: string }>(sql`
+    select 'bin' as kind, id::text as id, code as label from bins where upper(code) = upper(${code})
+    union all select 'work_order', id::text, serial from work_orders where upper(serial) = upper(${code})
+    union all select 'order', id::text, number from orders where upper(number) = upper(${code})
+    union all select 'offcut', id::text, code from offcuts where upper(code) = upper(${code})
+    union all select 'part', id::text, sku from parts where upper(sku) = upper(${code})
+    limit 3`)
+  if (rows.length > 1) {
+    const names: Record<CodeKind, string> = { bin: 'bin', work_order: 'unit', order: 'order', offcut: 'offcut', part: 'part' }
+    throw new Conflict(`The code "${code}" names ${rows.map((r) => `${names[r.kind] ?? r.kind} ${r.label}`).join(' and ')}; Kitwright will not guess which. Scan the other label on it, or ask the planner to rename one`)
+  }
   return rows[0]
 }
 
@@ -123,7 +126,7 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
           : oc!.oc.status === 'reserved'
             ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
             : { place: 'done', message: oc!.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
-      return { ...base, kind: 'offcut', code: code.toUpperCase(), title: `Offcut of ${oc!.sku}, ${formatLength(oc!.oc.length, settings.displayUnit)}`, status: oc!.oc.status, next, partId: oc!.partId }
+      return { ...base, kind: 'offcut', code: oc!.oc.code, title: `Offcut of ${oc!.sku}, ${formatLength(oc!.oc.length, settings.displayUnit)}`, status: oc!.oc.status, next, partId: oc!.partId }
     }
     case 'part': {
       const [part] = await db.select().from(parts).where(eq(parts.id, found.id))
