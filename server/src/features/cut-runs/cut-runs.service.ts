@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm'
 import { NestingInputError, type NestInput, type NestPiece } from '@kitwright/shared/domain/nesting/index'
 import { formatLength } from '@kitwright/shared/domain/units'
-import type { CandidateQuery, CandidateWorkOrder, CutRunDetail, CutRunSummary, PlanCutRun } from '@kitwright/shared/cut-runs'
+import type { CandidateQuery, CandidateWorkOrder, CutRunDetail, CutRunSummary, PlanCutRun, ReplanCutRun } from '@kitwright/shared/cut-runs'
 import type { Db, Tx } from '../../db/client'
 import { cutRunCuts, cutRuns, cutRunSticks, offcuts } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
@@ -124,29 +124,42 @@ export async function nestParts(inputs: { partId: string; sku: string; input: Ne
   }
 }
 
-/** Plans a draft cut run: the engine nests the chosen work orders' pieces into the stock on hand. */
+/** The engine's input per pipe part for the chosen work orders, stock and saw settings. */
+async function nestingInputs(
+  db: Db,
+  workOrderIds: readonly string[],
+  choice: { stock?: PlanCutRun['stock']; useOffcuts: boolean; kerf: number; endTrim: number; minOffcut: number },
+  exceptRunId?: string,
+) {
+  const byPart = await piecesOf(db, workOrderIds, exceptRunId)
+  const stock = await loadPipeStock(db, [...byPart.keys()])
+  return [...byPart.entries()].map(([partId, pieces]) => {
+    const part = stock.find((s) => s.partId === partId)
+    if (!part) throw new BadRequest('A cut part uses a pipe part that is retired or not pipe; fix the kit revision first')
+    const chosen = choice.stock
+      ? choice.stock.filter((l) => l.partId === partId).map((l) => ({ length: l.stickLength, available: l.maxSticks }))
+      : part.sticks.map((s) => ({ length: s.stickLength, available: s.available }))
+    const lines = chosen.filter((l) => l.available > 0).map((l) => ({ id: String(l.length), length: l.length, available: l.available }))
+    const rack = choice.useOffcuts ? part.offcuts.map((o) => ({ id: o.id, length: o.length })) : []
+    if (lines.length === 0 && rack.length === 0) {
+      throw new BadRequest(`No ${part.sku} ${part.name} to cut from: receive sticks, or choose a stick length with sticks available`, { stock: 'No stock for this pipe' })
+    }
+    const nestInput: NestInput = { pieces, stock: lines, offcuts: rack, kerf: choice.kerf, endTrim: choice.endTrim, minOffcutLength: choice.minOffcut }
+    return { partId, sku: part.sku, input: nestInput }
+  })
+}
+
+/**
+ * Plans a draft cut run: the engine nests the chosen work orders' pieces into the stock on hand,
+ * for as long as the planner asked or, by default, the shop's planning time.
+ */
 export async function planCutRun(db: Db, input: PlanCutRun, actor: Actor): Promise<CutRunDetail> {
   const settings = await getShopSettings(db)
   const kerf = input.kerf ?? settings.kerf
   const endTrim = input.endTrim ?? settings.endTrim
   const minOffcut = input.minOffcut ?? settings.minOffcut
-  const byPart = await piecesOf(db, input.workOrderIds)
-  const stock = await loadPipeStock(db, [...byPart.keys()])
-  const inputs = [...byPart.entries()].map(([partId, pieces]) => {
-    const part = stock.find((s) => s.partId === partId)
-    if (!part) throw new BadRequest('A cut part uses a pipe part that is retired or not pipe; fix the kit revision first')
-    const chosen = input.stock
-      ? input.stock.filter((l) => l.partId === partId).map((l) => ({ length: l.stickLength, available: l.maxSticks }))
-      : part.sticks.map((s) => ({ length: s.stickLength, available: s.available }))
-    const lines = chosen.filter((l) => l.available > 0).map((l) => ({ id: String(l.length), length: l.length, available: l.available }))
-    const rack = input.useOffcuts ? part.offcuts.map((o) => ({ id: o.id, length: o.length })) : []
-    if (lines.length === 0 && rack.length === 0) {
-      throw new BadRequest(`No ${part.sku} ${part.name} to cut from: receive sticks, or choose a stick length with sticks available`, { stock: 'No stock for this pipe' })
-    }
-    const nestInput: NestInput = { pieces, stock: lines, offcuts: rack, kerf, endTrim, minOffcutLength: minOffcut }
-    return { partId, sku: part.sku, input: nestInput }
-  })
-  const plans = await nestParts(inputs, input.timeLimitSeconds * 1000)
+  const inputs = await nestingInputs(db, input.workOrderIds, { stock: input.stock, useOffcuts: input.useOffcuts, kerf, endTrim, minOffcut })
+  const plans = await nestParts(inputs, Math.round((input.timeLimitSeconds ?? settings.nestingTimeLimitSeconds) * 1000))
   const runId = await db.transaction(async (tx) => {
     const [run] = await tx
       .insert(cutRuns)
@@ -156,6 +169,29 @@ export async function planCutRun(db: Db, input: PlanCutRun, actor: Actor): Promi
     return run!.id
   })
   return getCutRun(db, runId)
+}
+
+/**
+ * "Take longer": plans a draft again with more time — the same work orders, kerf, trim and
+ * minimum offcut, every stick length on hand and the offcuts on the rack — and replaces its sticks
+ * and cuts. Only a draft (nothing reserved, nothing cut) can be planned again.
+ */
+export async function replanCutRun(db: Db, id: string, input: ReplanCutRun): Promise<CutRunDetail> {
+  const run = await selectRun(db, id)
+  if (!run) throw new NotFound('No such cut run')
+  if (run.status !== 'draft') throw new Conflict(`Cut run ${run.number} is ${run.status}; only a draft can be planned again`)
+  const woIds = (await db.selectDistinct({ id: cutRunCuts.workOrderId }).from(cutRunCuts).where(eq(cutRunCuts.cutRunId, id))).map((r) => r.id)
+  const inputs = await nestingInputs(db, woIds, { useOffcuts: true, kerf: run.kerf, endTrim: run.endTrim, minOffcut: run.minOffcut }, id)
+  const plans = await nestParts(inputs, Math.round(input.timeLimitSeconds * 1000))
+  await db.transaction(async (tx) => {
+    const locked = await selectRun(tx, id, true)
+    if (!locked || locked.status !== 'draft') throw new Conflict(`Cut run ${run.number} changed while it was being planned; open it again`)
+    await tx.delete(cutRunCuts).where(eq(cutRunCuts.cutRunId, id))
+    await tx.delete(cutRunSticks).where(eq(cutRunSticks.cutRunId, id))
+    await tx.update(cutRuns).set(sumPlans(plans)).where(eq(cutRuns.id, id))
+    await insertPlanRows(tx, id, plans, { position: 1, patternIndex: 0 }, { kerf: run.kerf })
+  })
+  return getCutRun(db, id)
 }
 
 /** Sticks to reserve, summed per pipe part and stick length, and the offcuts the run uses. */

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { NestingInputError } from '@kitwright/shared/domain/nesting/index'
+import { NestingPool } from './nesting-pool'
 import { runNesting } from './run-nesting'
 
 describe('runNesting (worker thread)', () => {
@@ -17,5 +18,25 @@ describe('runNesting (worker thread)', () => {
     const err = await runNesting({ pieces: [{ length: 0, quantity: 1 }], stock: [{ length: 100 }] }).catch((e: unknown) => e)
     expect(err).toBeInstanceOf(NestingInputError)
     expect((err as NestingInputError).field).toBe('pieces.0.length')
+  })
+})
+
+describe('NestingPool', () => {
+  // Two cut runs planned at once each get a worker of their own; a third waits for one to free.
+  it('runs plans side by side, one per worker, and queues the rest', async () => {
+    const pool = new NestingPool(2)
+    try {
+      // Triplet-style run (each 1000 stick filled exactly by three pieces): enough work to watch.
+      const pieces = [380, 310, 310, 400, 300, 300, 450, 275, 275, 490, 255, 255].map((length) => ({ length, quantity: 3 }))
+      const input = { pieces, stock: [{ length: 1000 }] }
+      const plans = [pool.run(input, { timeLimitMs: 2000 }), pool.run(input, { timeLimitMs: 2000 }), pool.run(input, { timeLimitMs: 2000 })]
+      expect(pool.load()).toEqual({ busy: 2, waiting: 1 })
+      const done = await Promise.all(plans)
+      // 36 pieces summing to 12 000: at least 12 sticks of 1000, and the triplets give exactly 12.
+      for (const plan of done) expect(plan.sticks).toHaveLength(12)
+      expect(pool.load()).toEqual({ busy: 0, waiting: 0 })
+    } finally {
+      await pool.close()
+    }
   })
 })
