@@ -66,5 +66,18 @@ function useRunAction(action: 'publish' | 'cancel') {
   })
 }
 
+/** "Take longer": the draft planned again with more time; its sticks and cuts are replaced. */
+export function useReplanCutRun() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: ({ id, timeLimitSeconds }: { id: string; timeLimitSeconds: number }) =>
+      apiFetch(`/cut-runs/${id}/replan`, CutRunDetailSchema, { method: 'POST', body: { timeLimitSeconds } }),
+    onSuccess: (run) => {
+      qc.setQueryData(cutRunKeys.detail(run.id), run)
+      return qc.invalidateQueries({ queryKey: cutRunKeys.lists() })
+    },
+  })
+}
+
 export const usePublishCutRun = () => useRunAction('publish')
 export const useCancelCutRun = () => useRunAction('cancel')

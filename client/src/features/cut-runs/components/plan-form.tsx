@@ -27,7 +27,9 @@ export function PlanForm({ onPlanned }: { onPlanned: (run: CutRunDetail) => void
   const [choice, setChoice] = useState<StockChoice>({})
   const [useOffcuts, setUseOffcuts] = useState(true)
   const [saw, setSaw] = useState<{ kerf: string; endTrim: string; minOffcut: string } | null>(null)
-  const [seconds, setSeconds] = useState(10)
+  // The shop's planning time until the planner types another.
+  const [typedSeconds, setSeconds] = useState<number | null>(null)
+  const seconds = typedSeconds ?? settings.data?.nestingTimeLimitSeconds ?? 2
   const plan = usePlanCutRun()
 
   useEffect(() => {
@@ -181,7 +183,7 @@ export function PlanForm({ onPlanned }: { onPlanned: (run: CutRunDetail) => void
               <Input value={saw.minOffcut} onChange={(e) => setSaw({ ...saw, minOffcut: e.target.value })} />
             </Field>
             <Field label="Time limit (seconds)">
-              <Input type="number" min={1} max={120} value={seconds} onChange={(e) => setSeconds(Math.min(120, Math.max(1, Number(e.target.value) || 10)))} />
+              <Input type="number" min={0.5} max={120} step={0.5} value={seconds} onChange={(e) => setSeconds(Math.min(120, Math.max(0.5, Number(e.target.value) || 2)))} />
             </Field>
           </div>
         )}
