@@ -61,20 +61,30 @@ const env = {
   CARRIER_API_URL: process.env.CARRIER_API_KEY ? (process.env.CARRIER_API_URL ?? '') : `http://127.0.0.1:${localPorts.carrier}/v2/`,
   CARRIER_API_KEY: process.env.CARRIER_API_KEY ?? 'local-stand-in',
   CARRIER_WEBHOOK_SECRET: process.env.CARRIER_WEBHOOK_SECRET ?? localSecret('carrier-webhook'),
+  // Phone orders' payment links through the payment service's SDK, pointed at the local stand-in unless a real key is given.
+  ...(process.env.PAYMENT_SERVICE_KEY
+    ? {}
+    : { PAYMENT_SERVICE_KEY: 'sk_test_kitwright_local', PAYMENT_SERVICE_URL: `http://127.0.0.1:${localPorts.payments}`, PAYMENT_WEBHOOK_SECRET: localSecret('payment-webhook') }),
 }
+// Where the payment stand-in posts its signed events: the API as this machine reaches it.
+const apiOrigin = `${tls ? 'https' : 'http'}://127.0.0.1:${dev ? localPorts.api : localPorts.app}`
 
 try {
   await startChild('db', tsxBin, ['scripts/setup-db.ts', ...(args.has('--only-migrate') ? ['migrate'] : [])], { env })
     .then((child) => new Promise((resolve, reject) => child.once('exit', (c) => (c === 0 ? resolve() : reject(new Error('database set-up failed'))))))
   if (args.has('--only-migrate') || args.has('--only-seed')) await stopAll(0)
 
-  step('starting the local S3, SMTP and carrier stand-ins')
+  step('starting the local S3, SMTP, carrier and payment stand-ins')
   await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
     env: {
       FAKE_DATA_DIR: dataDir,
       FAKE_S3_PORT: String(localPorts.s3),
       FAKE_SMTP_PORT: String(localPorts.smtp),
       FAKE_CARRIER_PORT: String(localPorts.carrier),
+      FAKE_PAYMENTS_PORT: String(localPorts.payments),
+      FAKE_PAYMENTS_WEBHOOK_URL: `${apiOrigin}/api/webhooks/payments`,
+      FAKE_PAYMENTS_WEBHOOK_SECRET: env.PAYMENT_WEBHOOK_SECRET ?? localSecret('payment-webhook'),
+      ...(tls ? { NODE_EXTRA_CA_CERTS: tls.caFile } : {}),
       S3_BUCKET: bucket,
       FAKE_S3_HOST: served.s3Host,
       FAKE_S3_ALLOWED_ORIGINS: served.allowedOrigins.join(','),

@@ -17,11 +17,12 @@ const { onCleanup, startChild, stopAll, stopOnSignals, tsxBin } = await import('
 
 stopOnSignals()
 const pg = startPostgres(localPorts.postgres)
-if (pg.startedHere) onCleanup(() => pg.stop())
+// Stopped at the end only when no other run (a second `npm test` beside this one) still has databases in it.
+if (pg.startedHere) onCleanup(async () => ((await otherRunsUsing(pg.url('postgres'))) ? undefined : pg.stop()))
 
 // Every run gets its own databases, stand-in ports and folders, so two runs can share the cluster.
 const runId = `r${process.pid}`
-const testPorts = { s3: await freePort(), smtp: await freePort(), carrier: await freePort() }
+const testPorts = { s3: await freePort(), smtp: await freePort(), carrier: await freePort(), payments: await freePort() }
 const testData = path.join(dataDir, 'test', runId)
 const testDbBase = `kitwright_test_${runId}`
 onCleanup(() => dropRunDatabases(pg.url('postgres'), testDbBase))
@@ -29,7 +30,7 @@ onCleanup(() => rmSync(testData, { recursive: true, force: true }))
 
 step('starting the test S3, SMTP and carrier stand-ins')
 await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
-  env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), FAKE_CARRIER_PORT: String(testPorts.carrier), S3_BUCKET: bucket },
+  env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), FAKE_CARRIER_PORT: String(testPorts.carrier), FAKE_PAYMENTS_PORT: String(testPorts.payments), S3_BUCKET: bucket },
   readyWhen: /^ready$/,
   quiet: true,
 })
@@ -54,6 +55,21 @@ const vitest = await startChild('vitest', path.join(root, 'node_modules/.bin/vit
 })
 const code = await new Promise((resolve) => vitest.once('exit', (c) => resolve(c ?? 1)))
 await stopAll(code)
+
+async function otherRunsUsing(adminUrl) {
+  const { default: pgModule } = await import('pg')
+  const client = new pgModule.Client({ connectionString: adminUrl })
+  try {
+    await client.connect()
+    const { rows } = await client.query("select count(*)::int as n from pg_database where datname like 'kitwright_test_r%'")
+    return rows[0].n > 0
+  } catch (err) {
+    console.error(`[kitwright] could not tell whether other test runs use PostgreSQL: ${err.message}`)
+    return false
+  } finally {
+    await client.end().catch(() => {})
+  }
+}
 
 async function dropRunDatabases(adminUrl, prefix) {
   const { default: pgModule } = await import('pg')

@@ -3,6 +3,7 @@
 import { readFileSync } from 'node:fs'
 import path from 'node:path'
 import { startCarrierFake } from './carrier'
+import { startPaymentsFake } from './payments'
 import { startS3Fake } from './s3'
 import { startSmtpCatcher } from './smtp'
 
@@ -19,12 +20,18 @@ const tlsFiles = process.env.FAKE_S3_TLS_CERT_FILE && process.env.FAKE_S3_TLS_KE
 
 const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket, address: s3Host, allowedOrigins, tls: tlsFiles })
 const smtp = await startSmtpCatcher({ port: smtpPort, directory: path.join(dir, 'mail') })
+const payments = await startPaymentsFake({
+  port: Number(process.env.FAKE_PAYMENTS_PORT ?? 54332),
+  directory: path.join(dir, 'payments'),
+  webhookSecret: process.env.FAKE_PAYMENTS_WEBHOOK_SECRET ?? 'local-payments-stand-in-secret',
+  webhookUrls: process.env.FAKE_PAYMENTS_WEBHOOK_URL ? [process.env.FAKE_PAYMENTS_WEBHOOK_URL] : [],
+})
 const carrier = await startCarrierFake({ port: carrierPort, directory: path.join(dir, 'carrier') })
-console.log(`[storage-fake] S3 on ${tlsFiles ? 'https' : 'http'}://${s3Host}:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}`)
+console.log(`[storage-fake] S3 on ${tlsFiles ? 'https' : 'http'}://${s3Host}:${s3Port} (bucket ${bucket}), SMTP on 127.0.0.1:${smtpPort}, carrier on ${carrier.url}, payments on ${payments.url}`)
 console.log('ready')
 
 async function stop() {
-  await Promise.allSettled([s3.close(), smtp.close(), carrier.close()])
+  await Promise.allSettled([s3.close(), smtp.close(), carrier.close(), payments.close()])
   process.exit(0)
 }
 process.on('SIGINT', () => void stop())

@@ -8,6 +8,7 @@ export const localPorts = {
   s3: num('FAKE_S3_PORT', 54330),
   smtp: num('FAKE_SMTP_PORT', 54325),
   carrier: num('FAKE_CARRIER_PORT', 54331),
+  payments: num('FAKE_PAYMENTS_PORT', 54332),
 }
 
 export const bucket = process.env.S3_BUCKET ?? 'kitwright'

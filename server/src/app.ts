@@ -10,6 +10,7 @@ import { healthRouter } from './features/health/health.routes'
 import { kitsRouter, revisionsRouter } from './features/kits/kits.routes'
 import { mailRouter } from './features/mail/mail.routes'
 import { ordersRouter } from './features/orders/orders.routes'
+import { orderPaymentsRouter, paymentsPublicRouter } from './features/payments/payments.routes'
 import { partsRouter } from './features/parts/parts.routes'
 import { scanRouter } from './features/scan/scan.routes'
 import { settingsRouter } from './features/settings/settings.routes'
@@ -58,7 +59,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

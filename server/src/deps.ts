@@ -1,5 +1,6 @@
 import type pg from 'pg'
 import type { Db } from './db/client'
+import type { PaymentService } from './features/payments/payment-service'
 import type { Carrier } from './features/shipping/carrier'
 import type { TokenConfig } from './lib/auth'
 import type { Jobs } from './lib/jobs'
@@ -28,6 +29,8 @@ export interface Deps {
   trustProxy?: boolean | number | string[]
   /** How this process is served, for "Connect a tablet": the address it listens on and the local CA tablets install for HTTPS. */
   served?: { listenHost: string; https: boolean; caCertificate: Buffer | null }
+  /** The hosted payment service for phone orders' payment links; null when none is set up. */
+  payments?: PaymentService | null
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
 }

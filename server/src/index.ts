@@ -1,5 +1,6 @@
 import { createServer as createHttpsServer } from 'node:https'
 import { createApp } from './app'
+import { paymentServiceFromEnv } from './features/payments/payment-service'
 import { carrierFromEnv } from './features/shipping/easypost-carrier'
 import { createDb } from './db/client'
 import { readEnv } from './env'
@@ -9,6 +10,14 @@ import { createStorage, storageConfigFromEnv } from './lib/storage'
 import { startWorkers } from './workers'
 
 const env = readEnv()
+const payments = (() => {
+  try {
+    return paymentServiceFromEnv(process.env)
+  } catch (err) {
+    console.error(`Kitwright cannot start; fix these environment variables (see .env.example):\n  ${err instanceof Error ? err.message : err}`)
+    process.exit(1)
+  }
+})()
 const logger = createLogger(env.LOG_LEVEL)
 const { db, pool } = createDb(env.DATABASE_URL)
 const jobs = createJobs({ connectionString: env.DATABASE_URL, logger })
@@ -24,6 +33,7 @@ const { app } = createApp({
   storage: createStorage(storageConfigFromEnv(env)),
   storeWebhookSecret: env.STORE_WEBHOOK_SECRET,
   carrier: carrierFromEnv(process.env),
+  payments,
   publicUrl: env.PUBLIC_URL,
   trustProxy: env.TRUST_PROXY,
   served: { listenHost: env.HOST, https: !!env.tls, caCertificate: env.tls?.caCertificate ?? null },

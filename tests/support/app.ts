@@ -23,7 +23,7 @@ export const TEST_STORE_SECRET = 'kitwright-test-store-secret-0123456789abcdef'
  * (most files never enqueue anything); `t.drop()` stops it. Workers run only where a test starts
  * them (`startWorkers(built.deps)`).
  */
-export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig } = {}) {
+export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig; payments?: Deps['payments'] } = {}) {
   const logger = options.logger ?? createLogger('silent')
   const jobs = createJobs({ pool: t.pool, logger, maintenance: false, retryDelaySeconds: 1, pollingIntervalSeconds: 0.5, stopTimeoutMs: 1000 })
   t.onDrop?.(() => jobs.stop())
@@ -38,6 +38,7 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     // The run's carrier stand-in (started by `npm test`).
     carrier: carrierFromEnv(process.env),
     publicUrl: 'http://localhost:3000',
+    payments: options.payments ?? null,
     storage: createStorage(options.storage ?? testStorageConfig()),
   }
   return { ...createApp(deps), deps }

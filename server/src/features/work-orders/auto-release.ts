@@ -8,7 +8,8 @@ import { addOrderEvent } from '../orders/orders.service'
 import { releaseOrder } from './release.service'
 
 /**
- * Releases a paid store order in the job that takes it in, when the shop's "release paid orders
+ * Releases a paid store or phone order as soon as it is paid (in the job that takes a store order in,
+ * or where a phone order's payment is recorded), when the shop's "release paid orders
  * automatically" setting is on: with `allowShort`, so short stock leaves the work orders waiting
  * with their shortage listed. The release runs in a savepoint of the caller's transaction; when it
  * is refused (a line that maps to no kit, a kit with no released revision) nothing of it is kept,
@@ -18,7 +19,7 @@ export async function autoReleasePaidOrder(tx: Tx, orderId: string): Promise<Rel
   const [settings] = await tx.select({ on: shopSettings.autoReleasePaid }).from(shopSettings).where(eq(shopSettings.id, 1))
   if (!settings?.on) return null
   const [order] = await tx.select().from(orders).where(eq(orders.id, orderId))
-  if (!order || order.source !== 'store' || order.paymentStatus !== 'paid' || order.status !== 'open' || order.heldAt) return null
+  if (!order || order.source === 'csv' || order.paymentStatus !== 'paid' || order.status !== 'open' || order.heldAt) return null
   try {
     const released = await tx.transaction((sp) => releaseOrder(sp, orderId, { allowShort: true, automatic: true }, null))
     const serials = released.workOrders.map((w) => w.serial).join(', ')
