@@ -1,9 +1,9 @@
-import { and, count, desc, eq, sql } from 'drizzle-orm'
+import { and, count, desc, eq, lt, sql } from 'drizzle-orm'
 import type { MailListQuery, MailMessage, MailPage } from '@kitwright/shared/mail'
 import type { Db, Tx } from '../../db/client'
 import { mailMessages, orders } from '../../db/schema/index'
 import type { Deps } from '../../deps'
-import { NotFound } from '../../lib/http-errors'
+import { Conflict, NotFound } from '../../lib/http-errors'
 import type { JobContext, Jobs } from '../../lib/jobs'
 import { addOrderEvent } from '../orders/orders.service'
 import { mailSender } from '../settings/settings.service'
@@ -103,4 +103,42 @@ export async function getMail(db: Db, id: string): Promise<MailMessage> {
     .where(and(eq(mailMessages.id, id)))
   if (!row) throw new NotFound('No such message in the outbox')
   return toMailMessage(row.mail, row.orderNumber)
+}
+
+/** Attempts after which the periodic sweep stops trying a message by itself (about a day of sweeps); "Send again" still works. */
+export const SWEEP_MAX_ATTEMPTS = 200
+
+/**
+ * Puts a message that failed for good back in the queue. The status flips in one statement, so two
+ * sweeps or two taps requeue it once; the send job locks the row and skips a sent message, so it
+ * still goes out once. Returns false when the message was not failed.
+ */
+async function requeueFailed(deps: Pick<Deps, 'db' | 'jobs'>, mailId: string): Promise<boolean> {
+  return deps.db.transaction(async (tx) => {
+    const [row] = await tx.update(mailMessages).set({ status: 'queued' }).where(and(eq(mailMessages.id, mailId), eq(mailMessages.status, 'failed'))).returning({ id: mailMessages.id })
+    if (!row) return false
+    await deps.jobs.send('send-mail', { mailId }, { singletonKey: mailId, tx })
+    return true
+  })
+}
+
+/** "Send again" on a message that failed for good (the office, from the outbox or the home page). */
+export async function resendMail(deps: Pick<Deps, 'db' | 'jobs'>, mailId: string): Promise<MailMessage> {
+  if (!(await requeueFailed(deps, mailId))) {
+    const current = await getMail(deps.db, mailId)
+    throw new Conflict(current.status === 'sent' ? 'This e-mail was sent already; each e-mail goes out once' : 'This e-mail is already waiting to be sent')
+  }
+  return getMail(deps.db, mailId)
+}
+
+/**
+ * The periodic sweep: every message that failed for good (its retries ran out during a long relay
+ * outage) goes back in the queue, until it has been tried {@link SWEEP_MAX_ATTEMPTS} times.
+ */
+export async function sweepFailedMail(deps: Pick<Deps, 'db' | 'jobs' | 'logger'>): Promise<number> {
+  const failed = await deps.db.select({ id: mailMessages.id }).from(mailMessages).where(and(eq(mailMessages.status, 'failed'), lt(mailMessages.attempts, SWEEP_MAX_ATTEMPTS)))
+  let requeued = 0
+  for (const { id } of failed) if (await requeueFailed(deps, id)) requeued += 1
+  if (requeued > 0) deps.logger.info({ requeued }, 'failed e-mail put back in the queue by the sweep')
+  return requeued
 }
