@@ -14,6 +14,8 @@ import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { lookupForBuild, recordLeakTest, tickStep, undoTick } from './build.service'
+import { todayUtc } from '../reports/report-sql'
+import { buildWorklist } from './build-worklist'
 import { listMeasurementFlags } from './measurement-flags'
 import { confirmPhoto, presignPhoto } from './photos.service'
 import { getUnitRecord } from './unit-record.service'
@@ -28,6 +30,10 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
   // The planner's list of out-of-limits measurements on units still in the shop.
   r.get('/out-of-limits', ['admin', 'planner'], async (_req, res) => {
     res.json(await listMeasurementFlags(deps.db))
+  })
+  // What is ready for the build bench: rush first, then by promised date, then the longest wait.
+  r.get('/worklist', BENCH, async (_req, res) => {
+    res.json(await buildWorklist(deps.db, todayUtc()))
   })
   r.get('/lookup', BENCH, async (req, res) => {
     const { code } = BuildLookupQuerySchema.parse(req.query)

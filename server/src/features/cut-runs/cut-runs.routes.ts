@@ -22,6 +22,8 @@ import { cancelCutRun, getCutRun, listCandidates, listCutRuns, planCutRun, publi
 import { cutSheetPdf } from '../labels/cut-sheet.pdf'
 import { offcutLabel } from './offcut-label'
 import { loadPipeStock } from './pipe-stock'
+import { cutWorklist } from './cut-worklist'
+import { todayUtc } from '../reports/report-sql'
 
 const ListQuerySchema = z.object({
   status: z
@@ -40,6 +42,10 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
   const bench = ['admin', 'planner', 'cutter'] as const
   r.get('/', bench, async (req, res) => {
     res.json(await listCutRuns(deps.db, ListQuerySchema.parse(req.query).status))
+  })
+  // The cut bench's list of published runs, the most urgent first.
+  r.get('/worklist', bench, async (_req, res) => {
+    res.json(await cutWorklist(deps.db, todayUtc()))
   })
   r.get('/candidates', office, async (req, res) => {
     res.json(await listCandidates(deps.db, CandidateQuerySchema.parse(req.query)))

@@ -10,6 +10,8 @@ import { CarrierEventRejected } from '../shipping/carrier'
 import { applyTrackingEvent, buyLabel, voidLabel } from '../shipping/labels.service'
 import { HttpError } from '../../lib/http-errors'
 import { shipShipment } from './ship.service'
+import { todayUtc } from '../reports/report-sql'
+import { packWorklist } from './pack-worklist'
 
 const BENCH = ['admin', 'planner', 'packer'] as const
 const OFFICE = ['admin', 'planner'] as const
@@ -19,6 +21,10 @@ const ShipmentParams = z.object({ shipmentId: z.string().uuid('Not a valid shipm
 /** The pack bench: scan, confirm, approve a partial shipment, quote, buy the label, ship. */
 export function packRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/pack')
+  // Orders with units ready to pack: rush first, then by promised date, then the longest wait.
+  r.get('/worklist', BENCH, async (_req, res) => {
+    res.json(await packWorklist(deps.db, todayUtc()))
+  })
   r.get('/lookup', BENCH, async (req, res) => {
     res.json(await lookupForPacking(deps, PackCodeSchema.parse(req.query).code))
   })

@@ -3,7 +3,9 @@ import { useEffect, useState } from 'react'
 import { useSearchParams } from 'react-router-dom'
 import { Button } from '../../../components/ui/button'
 import { Caution } from '../../../components/ui/section'
-import { benchCutSheetHref, benchRunOptions, benchRunsOptions } from '../../../features/cut-bench/api/cut-bench-queries'
+import { Worklist } from '../../../components/ui/worklist'
+import { benchCutSheetHref, benchRunOptions } from '../../../features/cut-bench/api/cut-bench-queries'
+import { cutWorklistOptions } from '../../../features/cut-bench/api/cut-worklist-queries'
 import { BenchStick } from '../../../features/cut-bench/components/bench-stick'
 import { BenchWorkOrders } from '../../../features/cut-bench/components/bench-work-orders'
 
@@ -51,11 +53,15 @@ function RunBench({ runId }: { runId: string }) {
   )
 }
 
+/**
+ * The cut bench: the published runs, the most urgent first (rush units, then the earliest promised
+ * ship date), one tap to open one; a single published run opens by itself.
+ */
 export function Component() {
   const [params, setParams] = useSearchParams()
-  const runs = useQuery(benchRunsOptions())
+  const runs = useQuery(cutWorklistOptions())
   const runId = params.get('run')
-  const only = runs.data?.length === 1 ? runs.data[0]!.id : null
+  const only = runs.data?.length === 1 ? runs.data[0]!.runId : null
   // One published run: open it, and keep it in the address so it stays open once it is all cut.
   useEffect(() => {
     if (!runId && only) setParams({ run: only }, { replace: true })
@@ -64,14 +70,25 @@ export function Component() {
     <div className="space-y-4 text-lg">
       <h1 className="text-4xl font-bold">Cut bench</h1>
       {runs.data?.length === 0 && !params.get('run') && <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">No cut run is published. The planner publishes one from the cut runs page.</p>}
+      {runs.isError && <p role="alert" className="text-xl text-red-700">{runs.error.message}</p>}
       {(runs.data?.length ?? 0) > 1 && (
-        <div className="flex flex-wrap gap-2" role="group" aria-label="Published runs">
-          {runs.data!.map((r) => (
-            <Button key={r.id} size="bench" variant={r.id === runId ? 'primary' : 'secondary'} onClick={() => setParams({ run: r.id })}>
-              {r.number} · {r.cutsDone}/{r.cutsTotal}
-            </Button>
-          ))}
-        </div>
+        <Worklist
+          label="Published runs"
+          role="group"
+          items={runs.data}
+          empty=""
+          current={runId}
+          itemKey={(r) => r.runId}
+          itemLabel={(r) => `${r.number}, ${r.cutsDone} of ${r.cutsTotal} cuts`}
+          onPick={(r) => setParams({ run: r.runId })}
+        >
+          {(r) => (
+            <>
+              <strong>{r.number}</strong> · {r.cutsDone} of {r.cutsTotal} cuts · {r.workOrderCount} unit{r.workOrderCount === 1 ? '' : 's'}
+              {r.rushUnits > 0 ? ` · ${r.rushUnits} rush` : ''}
+            </>
+          )}
+        </Worklist>
       )}
       {runId && <RunBench key={runId} runId={runId} />}
     </div>

@@ -14,6 +14,8 @@ import { PackingList } from '../../../features/pack-bench/components/packing-lis
 import { ParcelsPanel } from '../../../features/pack-bench/components/parcels-panel'
 import { PartialApproval } from '../../../features/pack-bench/components/partial-approval'
 import { PrintLinks } from '../../../features/pack-bench/components/print-links'
+import { packWorklistOptions } from '../../../features/pack-bench/api/pack-worklist-queries'
+import { Worklist } from '../../../components/ui/worklist'
 
 export function Component() {
   const [params, setParams] = useSearchParams()
@@ -21,6 +23,7 @@ export function Component() {
   const me = useQuery(meOptions())
   const order = useQuery({ ...packOrderOptions(orderId ?? ''), enabled: orderId !== null })
   const lookup = useLookup()
+  const worklist = useQuery({ ...packWorklistOptions(), enabled: orderId === null })
   const scanItem = useScanItem()
   const [problem, setProblem] = useState<string | null>(null)
   const [shipped, setShipped] = useState<ShipResult | null>(null)
@@ -84,7 +87,30 @@ export function Component() {
           </Button>
         </div>
       )}
-      {!orderId && !shipped && <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">Scan the bin of a unit that passed its leak test, or type a serial, to open its order.</p>}
+      {!orderId && !shipped && (
+        <>
+          <p className="text-2xl text-stone-700">Scan the bin of a unit that passed its leak test, or type a serial, or pick the order below.</p>
+          {worklist.isError && <p role="alert" className="text-xl text-red-700">{worklist.error.message}</p>}
+          <Worklist
+            label="Ready to pack"
+            items={worklist.data}
+            empty="No unit is built and waiting: the build bench sends them here."
+            itemKey={(o) => o.orderId}
+            itemLabel={(o) => `Order ${o.orderNumber}`}
+            onPick={(o) => {
+              setProblem(null)
+              setParams({ order: o.orderId })
+            }}
+          >
+            {(o) => (
+              <>
+                <strong>Order {o.orderNumber}</strong> · {o.customerName} ({o.shipCountry}) · {o.ready.length} of {o.unitsToShip} unit{o.unitsToShip === 1 ? '' : 's'} ready:{' '}
+                {o.ready.map((u) => (u.binCode ? `${u.serial} in ${u.binCode}` : u.serial)).join(', ')}
+              </>
+            )}
+          </Worklist>
+        </>
+      )}
       {order.isError && <p role="alert" className="text-xl text-red-700">{order.error.message}</p>}
       {view && !shipped && (
         <>

@@ -10,6 +10,7 @@ import {
   type TickStepInput,
 } from '@kitwright/shared/build'
 import { z } from 'zod'
+import { BuildWorklistItemSchema } from '@kitwright/shared/worklists'
 import { apiFetch } from '../../../lib/api-client'
 import { putToPresignedUrl } from './put-to-presigned-url'
 
@@ -19,6 +20,12 @@ export const buildKeys = {
   units: () => [...buildKeys.all, 'unit'] as const,
   unit: (serial: string) => [...buildKeys.units(), serial.toUpperCase()] as const,
   outOfLimits: () => [...buildKeys.all, 'out-of-limits'] as const,
+  worklist: () => [...buildKeys.all, 'worklist'] as const,
+}
+
+/** Units ready for the build bench, the most urgent first; refreshed as the cut bench fills bins. */
+export function buildWorklistOptions() {
+  return queryOptions({ queryKey: buildKeys.worklist(), queryFn: ({ signal }) => apiFetch('/build/worklist', z.array(BuildWorklistItemSchema), { signal }), refetchInterval: 30_000 })
 }
 
 /** Out-of-limits measurements on units still in the shop, for the planner. */
@@ -51,6 +58,7 @@ function useSetPage(code: string) {
   const qc = useQueryClient()
   return (page: BuildPage) => {
     qc.setQueryData(buildKeys.lookup(code), page)
+    void qc.invalidateQueries({ queryKey: buildKeys.worklist() })
     return qc.invalidateQueries({ queryKey: buildKeys.unit(page.workOrder.serial) })
   }
 }
