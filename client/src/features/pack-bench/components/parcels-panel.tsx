@@ -33,7 +33,8 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
   const serialOf = new Map(view.items.map((i) => [i.workOrderId, i.serial]))
   const move = (workOrderId: string, to: number | null) => {
     setQuotes(null)
-    setDrafts((all) => moveUnit(all, workOrderId, to, { key: Math.max(0, ...all.map((d) => d.key)) + 1, boxId: view.boxes[0]?.id ?? '', scale: '' }))
+    // A new parcel starts in the box the unit came out of; the packer may choose another.
+    setDrafts((all) => moveUnit(all, workOrderId, to, { key: Math.max(0, ...all.map((d) => d.key)) + 1, boxId: all.find((d) => d.workOrderIds.includes(workOrderId))?.boxId ?? view.boxes[0]?.id ?? '', scale: '' }))
   }
   const [quotes, setQuotes] = useState<Quote[] | null>(null)
   const quote = useQuote()
@@ -65,9 +66,9 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
         // The server's weights hold while the parcel is as proposed; after a move it weighs again at Get prices.
         const p = view.parcels.find((x) => x.workOrderIds.join() === d.workOrderIds.join() && x.boxId === d.boxId)
         return (
-          <fieldset key={d.key} aria-label={`Parcel ${i + 1}`} className="space-y-2 rounded-lg border-2 border-stone-300 bg-white p-3">
+          <fieldset key={d.key} className="space-y-2 rounded-lg border-2 border-stone-300 bg-white p-3">
             <legend className="px-1 text-xl font-bold">
-              Parcel {i + 1} of {drafts.length}: {d.workOrderIds.map((id) => serialOf.get(id) ?? '?').join(', ')}
+              Parcel {i + 1}: {d.workOrderIds.map((id) => serialOf.get(id) ?? '?').join(', ')}
             </legend>
             <ul className="space-y-2">
               {d.workOrderIds.map((id) => (
