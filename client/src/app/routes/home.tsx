@@ -4,6 +4,7 @@ import { REPORT_TIME_ZONE, ReportRangeQuerySchema, type ReportRangeQuery } from 
 import { Section } from '../../components/ui/section'
 import { meOptions } from '../../features/auth/api/auth-queries'
 import { MeasurementFlagsPanel } from '../../features/build-bench/components/measurement-flags-panel'
+import { FailedMailPanel } from '../../features/mail/components/failed-mail-panel'
 import {
   cutRunYieldOptions,
   firstPassYieldOptions,
@@ -101,6 +102,8 @@ export function Component() {
           <Waiting error={states.error} what="the orders" />
         )}
       </Section>
+
+      <FailedMailPanel />
 
       <div className="grid gap-6 xl:grid-cols-2">
         <LateOrdersPanel report={late.data} />

@@ -1,4 +1,4 @@
-import { keepPreviousData, queryOptions } from '@tanstack/react-query'
+import { keepPreviousData, queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import { MailListQuerySchema, MailMessageSchema, MailPageSchema, type MailListQuery } from '@kitwright/shared/mail'
 import { queryToSearch } from '@kitwright/shared/pagination'
 import { apiFetch } from '../../../lib/api-client'
@@ -24,5 +24,17 @@ export function mailMessageOptions(id: string) {
   return queryOptions({
     queryKey: mailKeys.detail(id),
     queryFn: ({ signal }) => apiFetch(`/mail/${id}`, MailMessageSchema, { signal }),
+  })
+}
+
+/** "Send again" for a message that failed for good; the outbox and the home page list refresh. */
+export function useResendMail() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: (id: string) => apiFetch(`/mail/${id}/resend`, MailMessageSchema, { method: 'POST', body: {} }),
+    onSuccess: (mail) => {
+      qc.setQueryData(mailKeys.detail(mail.id), mail)
+      return qc.invalidateQueries({ queryKey: mailKeys.lists() })
+    },
   })
 }

@@ -4,12 +4,13 @@ import { Link } from 'react-router-dom'
 import { Button } from '../../../components/ui/button'
 import { Section } from '../../../components/ui/section'
 import { paths } from '../../../config/paths'
-import { mailMessageOptions } from '../api/mail-queries'
+import { mailMessageOptions, useResendMail } from '../api/mail-queries'
 import { MailStatusBadge } from './mail-status-badge'
 
 /** One message as the customer sees it: the HTML part in a sandboxed frame (no scripts, no links out), or the plain text. */
 export function MailReader({ id, onClose }: { id: string; onClose: () => void }) {
   const { data: mail, isError, error } = useQuery(mailMessageOptions(id))
+  const resend = useResendMail()
   return (
     <Section
       title={mail?.subject ?? 'Message'}
@@ -38,6 +39,17 @@ export function MailReader({ id, onClose }: { id: string; onClose: () => void })
               <>
                 <dt className="font-bold">Last error</dt>
                 <dd className="text-red-800">{mail.lastError}</dd>
+              </>
+            )}
+            {mail.status === 'failed' && (
+              <>
+                <dt className="font-bold">Failed for good</dt>
+                <dd className="flex flex-wrap items-center gap-2">
+                  <Button size="sm" disabled={resend.isPending} onClick={() => resend.mutate(mail.id)}>
+                    Send again
+                  </Button>
+                  {resend.isError && <span role="alert" className="text-red-800">{resend.error.message}</span>}
+                </dd>
               </>
             )}
             {mail.order && (
