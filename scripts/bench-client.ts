@@ -14,7 +14,8 @@
 //
 // Where: the local PostgreSQL cluster of `npm start` (started here if it is not running, stopped
 // again afterwards), in a database of its own, `kitwright_bench_client`, recreated on every run and
-// dropped at the end; the build goes to `.data/bench-client/dist`. Loopback only.
+// dropped at the end; the build goes to `.data/bench-client/dist`. Loopback only. Options: `--runs 3`
+// cold loads per page; `--files` lists every script of each page with its bytes.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { randomBytes } from 'node:crypto'
 import { statSync } from 'node:fs'
@@ -41,6 +42,8 @@ function numberArg(name: string, fallback: number): number {
   return value
 }
 const runs = numberArg('--runs', 3)
+/** `--files`: also list every script of each page's first load with its bytes on the wire. */
+const listFiles = args.includes('--files')
 
 type Cluster = { url: (db: string) => string; startedHere: boolean; stop: () => void }
 // @ts-expect-error plain JavaScript module of the start-up scripts, without type declarations
@@ -78,7 +81,7 @@ const PAGES: PageCase[] = [
   { label: 'scan (cutter)', path: '/scan', role: 'cutter', endsAt: '/scan', usable: scanField, maxJs: 250 * KB },
 ]
 
-type Load = { jsBytes: number; jsRawBytes: number; jsFiles: number; encodings: Set<string>; usableMs: number; title: string; consoleProblems: string[] }
+type Load = { jsBytes: number; jsRawBytes: number; jsFiles: number; files: { name: string; bytes: number; raw: number }[]; encodings: Set<string>; usableMs: number; title: string; consoleProblems: string[] }
 
 function launchChromium(): Promise<Browser> {
   return chromium.launch({
@@ -104,7 +107,7 @@ async function loadCold(browser: Browser, base: string, c: PageCase): Promise<Lo
     })
     page.on('pageerror', (e) => consoleProblems.push(`page error: ${e.message}`))
     const pending: Promise<void>[] = []
-    const load: Load = { jsBytes: 0, jsRawBytes: 0, jsFiles: 0, encodings: new Set(), usableMs: Number.NaN, title: '', consoleProblems }
+    const load: Load = { jsBytes: 0, jsRawBytes: 0, jsFiles: 0, files: [], encodings: new Set(), usableMs: Number.NaN, title: '', consoleProblems }
     page.on('requestfinished', (req: Request) => {
       if (req.resourceType() !== 'script') return
       pending.push(
@@ -113,7 +116,10 @@ async function loadCold(browser: Browser, base: string, c: PageCase): Promise<Lo
           load.jsFiles++
           load.jsBytes += sizes.responseBodySize
           // The uncompressed size is the built file's own.
-          load.jsRawBytes += statSync(path.join(dist, new URL(req.url()).pathname)).size
+          const { pathname } = new URL(req.url())
+          const raw = statSync(path.join(dist, pathname)).size
+          load.jsRawBytes += raw
+          load.files.push({ name: pathname, bytes: sizes.responseBodySize, raw })
           load.encodings.add((await response?.headerValue('content-encoding')) ?? 'none')
         })(),
       )
@@ -267,6 +273,7 @@ try {
     console.log(
       `${c.label.padEnd(28)}${kB(first.jsBytes).padStart(8)}${kB(first.jsRawBytes).padStart(9)}${String(first.jsFiles).padStart(7)}  ${[...first.encodings].join(',').padEnd(10)}${`${ms.toFixed(0)} (${Math.min(...times).toFixed(0)}–${Math.max(...times).toFixed(0)})`.padStart(21)}  "${first.title}"${targets.length ? ` · ${targets.join(' · ')}` : ''}`,
     )
+    if (listFiles) for (const f of [...first.files].sort((a, b) => b.bytes - a.bytes)) console.log(`    ${kB(f.bytes).padStart(7)} kB (${kB(f.raw)} kB raw) ${f.name}`)
     const problems = [...new Set(loads.flatMap((l) => l.consoleProblems))]
     if (problems.length) {
       failed = true

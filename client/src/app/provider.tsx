@@ -1,6 +1,5 @@
 import { QueryClient, QueryClientProvider } from '@tanstack/react-query'
 import type { ReactNode } from 'react'
-import { Toaster } from 'sonner'
 import { ApiError } from '../lib/api-client'
 
 export const queryClient = new QueryClient({
@@ -15,9 +14,6 @@ export const queryClient = new QueryClient({
 
 export function AppProvider({ children }: { children: ReactNode }) {
   return (
-    <QueryClientProvider client={queryClient}>
-      {children}
-      <Toaster position="top-center" richColors closeButton toastOptions={{ className: 'text-base' }} />
-    </QueryClientProvider>
+    <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>
   )
 }

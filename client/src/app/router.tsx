@@ -1,62 +1,81 @@
-import { createBrowserRouter } from 'react-router-dom'
+import { createBrowserRouter, type RouteObject } from 'react-router-dom'
 import { paths } from '../config/paths'
-import { requireRole, requireUser } from './auth-guard'
-import { AppShell } from './routes/app-shell'
+import { afterSignIn, requireRole, requireUser } from './auth-guard'
 import { RouteErrorBoundary } from './routes/error-boundary'
 import { NotFoundPage } from './routes/not-found'
+import { Root, StartingUp, title } from './routes/root'
 
-export const router = createBrowserRouter([
+/**
+ * Every page of the app. Pages are route modules loaded with the router's own `lazy` when first
+ * opened, so the first load of any page carries only the router, React, the query cache and that
+ * page; each page names itself with `handle: title(…)` (shown as "Orders · Kitwright"). Pages behind
+ * sign-in fetch their code only once someone is signed in (`afterSignIn`), so a tablet opening the
+ * shop's address before signing in downloads the sign-in page alone.
+ * The root shows `StartingUp` while the first page's code and data arrive.
+ */
+export const routes: RouteObject[] = [
   {
-    path: paths.signIn.pattern,
-    lazy: () => import('./routes/sign-in'),
+    Component: Root,
+    HydrateFallback: StartingUp,
     errorElement: <RouteErrorBoundary />,
-  },
-  {
-    // The customer's build-record link from the shipping e-mail: no sign-in, the token is the key.
-    path: paths.publicRecord.pattern,
-    lazy: () => import('./routes/public-record'),
-    errorElement: <RouteErrorBoundary />,
-  },
-  {
-    path: '/',
-    element: <AppShell />,
-    errorElement: <RouteErrorBoundary />,
-    loader: ({ request }) => requireUser(request),
     children: [
       {
+        path: paths.signIn.pattern,
+        handle: title('Sign in'),
+        lazy: () => import('./routes/sign-in'),
         errorElement: <RouteErrorBoundary />,
+      },
+      {
+        // The customer's build-record link from the shipping e-mail: no sign-in, the token is the key.
+        path: paths.publicRecord.pattern,
+        handle: title('Build record'),
+        lazy: () => import('./routes/public-record'),
+        errorElement: <RouteErrorBoundary />,
+      },
+      {
+        path: '/',
+        lazy: afterSignIn(async () => ({ Component: (await import('./routes/app-shell')).AppShell })),
+        errorElement: <RouteErrorBoundary />,
+        loader: ({ request }) => requireUser(request),
         children: [
-          { index: true, lazy: () => import('./routes/home'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.scan.pattern, lazy: () => import('./routes/scan') },
-          { path: paths.users.pattern, lazy: () => import('./routes/admin/users'), loader: ({ request }) => requireRole(request, ['admin']) },
-          { path: paths.audit.pattern, lazy: () => import('./routes/admin/audit'), loader: ({ request }) => requireRole(request, ['admin']) },
-          { path: paths.settings.pattern, lazy: () => import('./routes/admin/settings'), loader: ({ request }) => requireRole(request, ['admin']) },
-          { path: paths.connectTablet.pattern, lazy: () => import('./routes/admin/connect-tablet'), loader: ({ request }) => requireRole(request, ['admin']) },
-          { path: paths.kits.pattern, lazy: () => import('./routes/catalog/kits'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.revision.pattern, lazy: () => import('./routes/catalog/revision'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.parts.pattern, lazy: () => import('./routes/catalog/parts'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.partNew.pattern, lazy: () => import('./routes/catalog/part-detail'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.partsImport.pattern, lazy: () => import('./routes/catalog/parts-import'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.part.pattern, lazy: () => import('./routes/catalog/part-detail'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.stock.pattern, lazy: () => import('./routes/catalog/stock'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.stockReceive.pattern, lazy: () => import('./routes/catalog/stock-receive'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.stockPart.pattern, lazy: () => import('./routes/catalog/stock-part'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.orders.pattern, lazy: () => import('./routes/orders/orders'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.orderNew.pattern, lazy: () => import('./routes/orders/order-new'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.ordersImport.pattern, lazy: () => import('./routes/orders/orders-import'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.order.pattern, lazy: () => import('./routes/orders/order-detail'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.shortages.pattern, lazy: () => import('./routes/shortages'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.outbox.pattern, lazy: () => import('./routes/outbox'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.cutRuns.pattern, lazy: () => import('./routes/planning/cut-runs'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.cutRun.pattern, lazy: () => import('./routes/planning/cut-run'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.bins.pattern, lazy: () => import('./routes/admin/bins'), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-          { path: paths.cutBench.pattern, lazy: () => import('./routes/bench/cut'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'cutter']) },
-          { path: paths.buildBench.pattern, lazy: () => import('./routes/bench/build'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler']) },
-          { path: paths.packBench.pattern, lazy: () => import('./routes/bench/pack'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'packer']) },
-          { path: paths.unit.pattern, lazy: () => import('./routes/units/unit'), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler', 'packer']) },
-          { path: '*', element: <NotFoundPage /> },
+          {
+            errorElement: <RouteErrorBoundary />,
+            children: [
+              { index: true, handle: title('Home'), lazy: afterSignIn(() => import('./routes/home')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.scan.pattern, handle: title('Scan'), lazy: afterSignIn(() => import('./routes/scan')) },
+              { path: paths.users.pattern, handle: title('Users'), lazy: afterSignIn(() => import('./routes/admin/users')), loader: ({ request }) => requireRole(request, ['admin']) },
+              { path: paths.audit.pattern, handle: title('Audit'), lazy: afterSignIn(() => import('./routes/admin/audit')), loader: ({ request }) => requireRole(request, ['admin']) },
+              { path: paths.settings.pattern, handle: title('Settings'), lazy: afterSignIn(() => import('./routes/admin/settings')), loader: ({ request }) => requireRole(request, ['admin']) },
+              { path: paths.connectTablet.pattern, handle: title('Connect a tablet'), lazy: afterSignIn(() => import('./routes/admin/connect-tablet')), loader: ({ request }) => requireRole(request, ['admin']) },
+              { path: paths.kits.pattern, handle: title('Kits'), lazy: afterSignIn(() => import('./routes/catalog/kits')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.revision.pattern, handle: title('Kit revision'), lazy: afterSignIn(() => import('./routes/catalog/revision')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.parts.pattern, handle: title('Parts'), lazy: afterSignIn(() => import('./routes/catalog/parts')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.partNew.pattern, handle: title('New part'), lazy: afterSignIn(() => import('./routes/catalog/part-detail')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.partsImport.pattern, handle: title('Import parts'), lazy: afterSignIn(() => import('./routes/catalog/parts-import')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.part.pattern, handle: title('Part'), lazy: afterSignIn(() => import('./routes/catalog/part-detail')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.stock.pattern, handle: title('Stock'), lazy: afterSignIn(() => import('./routes/catalog/stock')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.stockReceive.pattern, handle: title('Receive stock'), lazy: afterSignIn(() => import('./routes/catalog/stock-receive')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.stockPart.pattern, handle: title('Stock of a part'), lazy: afterSignIn(() => import('./routes/catalog/stock-part')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.orders.pattern, handle: title('Orders'), lazy: afterSignIn(() => import('./routes/orders/orders')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.orderNew.pattern, handle: title('New order'), lazy: afterSignIn(() => import('./routes/orders/order-new')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.ordersImport.pattern, handle: title('Import orders'), lazy: afterSignIn(() => import('./routes/orders/orders-import')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.order.pattern, handle: title('Order'), lazy: afterSignIn(() => import('./routes/orders/order-detail')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.shortages.pattern, handle: title('Shortages'), lazy: afterSignIn(() => import('./routes/shortages')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.outbox.pattern, handle: title('Outbox'), lazy: afterSignIn(() => import('./routes/outbox')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.cutRuns.pattern, handle: title('Cut runs'), lazy: afterSignIn(() => import('./routes/planning/cut-runs')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.cutRun.pattern, handle: title('Cut run'), lazy: afterSignIn(() => import('./routes/planning/cut-run')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.bins.pattern, handle: title('Bins'), lazy: afterSignIn(() => import('./routes/admin/bins')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.cutBench.pattern, handle: title('Cut bench'), lazy: afterSignIn(() => import('./routes/bench/cut')), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'cutter']) },
+              { path: paths.buildBench.pattern, handle: title('Build bench'), lazy: afterSignIn(() => import('./routes/bench/build')), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler']) },
+              { path: paths.packBench.pattern, handle: title('Pack bench'), lazy: afterSignIn(() => import('./routes/bench/pack')), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'packer']) },
+              { path: paths.unit.pattern, handle: title('Unit'), lazy: afterSignIn(() => import('./routes/units/unit')), loader: ({ request }) => requireRole(request, ['admin', 'planner', 'assembler', 'packer']) },
+              { path: '*', handle: title('Page not found'), element: <NotFoundPage /> },
+            ],
+          },
         ],
       },
     ],
   },
-])
+]
+
+export const router = createBrowserRouter(routes)

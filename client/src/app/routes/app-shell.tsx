@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { NavLink, Outlet, useNavigate } from 'react-router-dom'
+import { Toaster } from 'sonner'
 import type { Role } from '@kitwright/shared/roles'
 import { ROLE_LABELS } from '@kitwright/shared/roles'
 import { Button } from '../../components/ui/button'
@@ -69,6 +70,8 @@ export function AppShell() {
       <main className="mx-auto max-w-7xl px-4 py-6">
         <Outlet />
       </main>
+      {/* Toasts are for signed-in work only; here, the sign-in page does not download them. */}
+      <Toaster position="top-center" richColors closeButton toastOptions={{ className: 'text-base' }} />
     </div>
   )
 }
