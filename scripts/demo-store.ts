@@ -3,8 +3,11 @@
 // deliveries, one ship-to change and one cancellation, and prints one line per delivery.
 //   npm run demo:store -- --orders 20
 //   KITWRIGHT_URL=http://localhost:3100 npm run demo:store
+// Without --url or KITWRIGHT_URL it posts to PUBLIC_URL, else to http://localhost:$PORT (as npm start
+// serves it), and trusts the local certificate authority of `npm start -- --https` (.data/tls/ca.crt).
 // The secret comes from STORE_WEBHOOK_SECRET, else from .data/store-webhook.secret (made by npm start).
 // Every person, street and town below is invented; e-mail addresses use the reserved .example domain.
+import { spawnSync } from 'node:child_process'
 import { randomUUID } from 'node:crypto'
 import { existsSync, readFileSync } from 'node:fs'
 import path from 'node:path'
@@ -18,7 +21,13 @@ if (!Number.isInteger(count) || count < 3 || count > 500) {
   console.error('--orders must be a whole number from 3 to 500, e.g. --orders 12')
   process.exit(1)
 }
-const base = (values.url ?? process.env.KITWRIGHT_URL ?? 'http://localhost:3000').replace(/\/$/, '')
+const base = (values.url ?? process.env.KITWRIGHT_URL ?? process.env.PUBLIC_URL ?? `http://localhost:${process.env.PORT ?? 3000}`).replace(/\/$/, '')
+const localCa = path.resolve(import.meta.dirname, '../.data/tls/ca.crt')
+if (base.startsWith('https:') && !process.env.NODE_EXTRA_CA_CERTS && existsSync(localCa)) {
+  // Node reads extra authorities only at start: run again trusting the local one.
+  const again = spawnSync(process.execPath, [...process.execArgv, ...process.argv.slice(1)], { stdio: 'inherit', env: { ...process.env, NODE_EXTRA_CA_CERTS: localCa } })
+  process.exit(again.status ?? 1)
+}
 const secretFile = path.resolve(import.meta.dirname, '../.data/store-webhook.secret')
 const secret = process.env.STORE_WEBHOOK_SECRET ?? (existsSync(secretFile) ? readFileSync(secretFile, 'utf8').trim() : '')
 if (!secret) {
@@ -114,7 +123,8 @@ for (const event of deliveries) {
     if (status !== 200) failed++
     line = `${status} ${outcome}`
   } catch (err) {
-    console.error(`Kitwright is not answering at ${base} (${err instanceof Error ? err.message : err}). Start it with \`npm start\`, or set KITWRIGHT_URL.`)
+    const reason = err instanceof Error ? `${err.message}${err.cause instanceof Error ? `: ${err.cause.message}` : ''}` : String(err)
+    console.error(`Kitwright is not answering at ${base} (${reason}). Start it with \`npm start\`, or set KITWRIGHT_URL (or PORT / PUBLIC_URL as Kitwright runs with).`)
     process.exit(1)
   }
   console.log(`  ${event.type.padEnd(22)} ${event.orderNumber.padEnd(18)} ${event.eventId.slice(0, 16)}…  ${line}`)

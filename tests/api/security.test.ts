@@ -102,7 +102,7 @@ describe('security headers', () => {
       expect(res.headers['x-frame-options'], what).toBe('SAMEORIGIN')
       expect(res.headers['strict-transport-security'], what).toBeUndefined()
       expect(res.headers['referrer-policy'], what).toBe('no-referrer')
-      expect(res.headers['cross-origin-opener-policy'], what).toBe('same-origin')
+      expect(res.headers['cross-origin-opener-policy'], what).toBeUndefined() // sent over HTTPS only
       expect(res.headers['cross-origin-resource-policy'], what).toBe('same-origin')
       expect(res.headers['x-powered-by'], what).toBeUndefined()
     }
@@ -136,11 +136,12 @@ describe('session cookies', () => {
     return cookie
   }
 
-  it('are httpOnly, SameSite=Lax, on the whole app, and Secure when built for production', async () => {
-    // server/src/index.ts sets secureCookies when NODE_ENV=production.
+  it('are httpOnly, SameSite=Lax, on the whole app, and Secure when built for production and served over HTTPS', async () => {
+    // server/src/index.ts sets secureCookies when NODE_ENV=production; HTTPS here is a TLS-terminating
+    // proxy on loopback (trusted by default) saying so.
     const production = createApp({ ...built.deps, tokens: { ...TEST_TOKENS, secureCookies: true } }).app
     const user = await insertUser(t.db, { role: 'planner' })
-    const signIn = await request(production).post('/api/auth/sign-in').send({ email: user.email, password: TEST_PASSWORD })
+    const signIn = await request(production).post('/api/auth/sign-in').set('X-Forwarded-Proto', 'https').send({ email: user.email, password: TEST_PASSWORD })
     expect(signIn.status).toBe(200)
     const cookie = sessionCookie(signIn)
     expect(cookie).toMatch(/;\s*HttpOnly/i)
@@ -148,12 +149,22 @@ describe('session cookies', () => {
     expect(cookie).toMatch(/;\s*Secure/i)
     expect(cookie).toMatch(/;\s*Path=\//i)
     // Signing out clears it with the same attributes, so the browser really drops it.
-    const signOut = await request(production).post('/api/auth/sign-out').set('Cookie', cookie.split(';')[0]!)
+    const signOut = await request(production).post('/api/auth/sign-out').set('X-Forwarded-Proto', 'https').set('Cookie', cookie.split(';')[0]!)
     expect(signOut.status).toBe(204)
     const cleared = sessionCookie(signOut)
     expect(cleared).toMatch(/;\s*HttpOnly/i)
     expect(cleared).toMatch(/;\s*Secure/i)
     expect(cleared).toMatch(/Expires=Thu, 01 Jan 1970/i)
+  })
+
+  it('are not Secure in production over plain HTTP on the shop network, where a browser would drop a Secure cookie', async () => {
+    const production = createApp({ ...built.deps, tokens: { ...TEST_TOKENS, secureCookies: true } }).app
+    const user = await insertUser(t.db, { role: 'planner' })
+    const signIn = await request(production).post('/api/auth/sign-in').set('Host', 'shop-pc.test:3000').send({ email: user.email, password: TEST_PASSWORD })
+    expect(signIn.status).toBe(200)
+    const cookie = sessionCookie(signIn)
+    expect(cookie).toMatch(/;\s*HttpOnly/i)
+    expect(cookie).not.toMatch(/;\s*Secure/i)
   })
 
   it('are not Secure outside production (plain http on loopback), still httpOnly and SameSite', async () => {

@@ -131,7 +131,9 @@ beforeAll(async () => {
       S3_SECRET_ACCESS_KEY: 'S3RVER',
       RUN_WORKERS: 'false',
       LOG_LEVEL: 'warn',
-      NODE_ENV: 'test',
+      // As `npm start` runs it: production (session cookies Secure only where the request is HTTPS).
+      NODE_ENV: 'production',
+      STORE_WEBHOOK_SECRET: 'kitwright-shop-network-store-secret-0123456789',
     },
     stdio: ['ignore', 'pipe', 'inherit'],
   })

@@ -39,18 +39,27 @@ export async function issueToken(config: TokenConfig, userId: string): Promise<s
     .sign(config.secret)
 }
 
+/**
+ * Secure (sent over HTTPS only) in production when the request came over HTTPS, directly or through a
+ * trusted proxy. Over plain HTTP to a shop-network address a browser drops a Secure cookie, so nobody
+ * could sign in on a tablet; localhost is exempt in browsers, which hid this on the shop computer.
+ */
+function secureCookie(res: Response, config: TokenConfig): boolean {
+  return config.secureCookies && res.req.secure
+}
+
 export async function setSessionCookie(res: Response, config: TokenConfig, userId: string) {
   res.cookie(SESSION_COOKIE, await issueToken(config, userId), {
     httpOnly: true,
     sameSite: 'lax',
-    secure: config.secureCookies,
+    secure: secureCookie(res, config),
     path: '/',
     maxAge: config.lifetimeSeconds * 1000,
   })
 }
 
 export function clearSessionCookie(res: Response, config: TokenConfig) {
-  res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'lax', secure: config.secureCookies, path: '/' })
+  res.clearCookie(SESSION_COOKIE, { httpOnly: true, sameSite: 'lax', secure: secureCookie(res, config), path: '/' })
 }
 
 /**
