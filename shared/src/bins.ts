@@ -19,6 +19,12 @@ export const CreateBinsSchema = z
 /** A batch of new bins. */
 export type CreateBins = z.infer<typeof CreateBinsSchema>
 
+const BinCodeSchema = z
+  .string()
+  .trim()
+  .toUpperCase()
+  .regex(/^BIN-\d{4,}$/, 'A bin code looks like BIN-0012')
+
 /** Label stock for bin labels: 2 × 1 in and 4 × 6 in thermal labels, or a Letter sheet of many. */
 export const BIN_LABEL_SIZES = ['2x1', '4x6', 'letter'] as const
 /** Which bins to print and on what. */
@@ -30,6 +36,9 @@ export const BinLabelQuerySchema = z.object({
     .optional()
     .transform((v) => (v ? v.split(',').filter((s) => s !== '') : undefined))
     .pipe(z.array(z.string().uuid('Not a valid bin id')).max(1000).optional()),
+  /** A batch by its codes, both included: `from=BIN-0011&to=BIN-0020` (a batch is numbered in one run). */
+  from: BinCodeSchema.optional(),
+  to: BinCodeSchema.optional(),
 })
 /** Which bins to print and on what. */
 export type BinLabelQuery = z.infer<typeof BinLabelQuerySchema>

@@ -5,7 +5,8 @@ import path from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { z } from 'zod'
 import { BinSchema } from '@kitwright/shared/bins'
-import { seedDemo } from '../../server/src/db/seed'
+import { binCode } from '@kitwright/shared/bins'
+import { DEMO_BIN_COUNT, seedDemo } from '../../server/src/db/seed'
 import { buildApp, signedInAs } from '../support/app'
 import { decodeCode128, pngSize, removeDir, renderPdfPages } from '../support/decode-barcode'
 import { createTestDb, type TestDb } from '../support/test-db'
@@ -47,10 +48,24 @@ function pageSize(pdf: Buffer) {
   return [Number(m[1]), Number(m[2])]
 }
 
+/** The code of the n-th bin of this test's batch, numbered on after the demo shop's rack. */
+const ours = (n: number) => binCode(DEMO_BIN_COUNT + n)
+
 describe('bin labels', () => {
+  it('starts the demo shop with a rack of free labelled bins', async () => {
+    const res = await planner.get('/api/bins')
+    const all = z.array(BinSchema).parse(res.body)
+    const demo = all.filter((b) => b.code <= binCode(DEMO_BIN_COUNT))
+    expect(demo.map((b) => b.code)).toEqual(Array.from({ length: DEMO_BIN_COUNT }, (_, i) => binCode(i + 1)))
+    expect(demo.every((b) => b.status === 'free')).toBe(true)
+    // Seeding again adds no second rack.
+    await seedDemo(t.db)
+    expect(z.array(BinSchema).parse((await planner.get('/api/bins')).body)).toHaveLength(all.length)
+  })
+
   it('numbers a new batch on from the highest code', async () => {
     const more = z.array(BinSchema).parse((await planner.post('/api/bins').send({ count: 2 })).body)
-    expect(more.map((b) => b.code)).toEqual(['BIN-0005', 'BIN-0006'])
+    expect(more.map((b) => b.code)).toEqual([ours(5), ours(6)])
     const bad = await planner.post('/api/bins').send({ count: 0 })
     expect(bad.status).toBe(400)
   })
@@ -63,15 +78,25 @@ describe('bin labels', () => {
     const { pages, dir } = renderPdfPages(pdf)
     expect(pages).toHaveLength(2)
     expect(pngSize(pages[0]!)).toEqual({ width: 406, height: 203 }) // 2 × 1 in at 203 dpi
-    expect(pages.map((p) => decodeCode128(p))).toEqual(['BIN-0001', 'BIN-0002'])
+    expect(pages.map((p) => decodeCode128(p))).toEqual([ours(1), ours(2)])
     removeDir(dir)
+  })
+
+  it('prints one batch in one go, by its first and last code', async () => {
+    const pdf = await labels({ size: '2x1', from: bins[0]!.code.toLowerCase(), to: bins[3]!.code })
+    const { pages, dir } = renderPdfPages(pdf)
+    expect(pages.map((p) => decodeCode128(p))).toEqual([ours(1), ours(2), ours(3), ours(4)])
+    removeDir(dir)
+    const bad = await planner.get('/api/bins/labels.pdf').query({ size: '2x1', from: 'B-12' })
+    expect(bad.status).toBe(400)
+    expect(bad.body.error.fields).toEqual({ from: 'A bin code looks like BIN-0012' })
   })
 
   it('prints 4 × 6 in labels that decode too', async () => {
     const pdf = await labels({ size: '4x6', ids: bins[2]!.id })
     expect(pageSize(pdf)).toEqual([288, 432])
     const { pages, dir } = renderPdfPages(pdf)
-    expect(pages.map((p) => decodeCode128(p))).toEqual(['BIN-0003'])
+    expect(pages.map((p) => decodeCode128(p))).toEqual([ours(3)])
     removeDir(dir)
   })
 

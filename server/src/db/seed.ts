@@ -6,7 +6,8 @@ import type { Db } from './client'
 import { seedDemoKits } from './seed-kits'
 import { seedDemoOrders } from './seed-orders'
 import { inches } from '@kitwright/shared/domain/units'
-import { shopSettings, users } from './schema/index'
+import { bins, shopSettings, users } from './schema/index'
+import { createBins } from '../features/bins/bins.service'
 import { hashSecret } from '../features/users/users.service'
 import { seedDemoParts } from './seed-catalog'
 import { seedDemoStock } from './seed-stock'
@@ -48,4 +49,10 @@ export async function seedDemo(db: Db) {
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
   await seedDemoOrders(db, { id: owner!.id, name: owner!.name })
+  // A rack of labelled bins, so the cut bench can start at once (a batch of nine units needs nine).
+  const [anyBin] = await db.select({ id: bins.id }).from(bins).limit(1)
+  if (!anyBin) await createBins(db, { count: DEMO_BIN_COUNT })
 }
+
+/** Bins on the demo shop's rack: enough for two batches of nine units and their spare packs. */
+export const DEMO_BIN_COUNT = 24

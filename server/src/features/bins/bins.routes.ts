@@ -3,7 +3,7 @@ import type { Deps } from '../../deps'
 import type { RouteTable } from '../../lib/routes'
 import { binLabelsPdf } from '../labels/bin-labels.pdf'
 import { getShopSettings } from '../settings/settings.service'
-import { createBins, listBins } from './bins.service'
+import { createBins, listBinRange, listBins } from './bins.service'
 
 export function binsRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/bins')
@@ -17,7 +17,7 @@ export function binsRouter(deps: Deps, routes: RouteTable) {
   // The cut bench reprints a bin's label, so the cutter may print too.
   r.get('/labels.pdf', ['admin', 'planner', 'cutter'], async (req, res) => {
     const query = BinLabelQuerySchema.parse(req.query)
-    const found = await listBins(deps.db, query.ids)
+    const found = query.from || query.to ? await listBinRange(deps.db, query.from, query.to) : await listBins(deps.db, query.ids)
     const settings = await getShopSettings(deps.db)
     const pdf = await binLabelsPdf(found, query.size, settings.shopName)
     res.type('application/pdf').attachment(`bin-labels-${query.size}.pdf`).send(pdf)

@@ -14,6 +14,21 @@ function toBin(row: BinRow, serial: string | null): Bin {
   }
 }
 
+/** The number of a BIN-nnnn code, to compare codes of different widths (BIN-9999 < BIN-10000). */
+const binNumber = sql`substring(${bins.code} from '^BIN-([0-9]+)$')::int`
+
+/** The bins of one batch, by the codes of its first and last bin (both included), in code order. */
+export async function listBinRange(db: Db | Tx, from: string | undefined, to: string | undefined): Promise<Bin[]> {
+  const n = (code: string) => Number(/^BIN-(\d+)$/.exec(code)![1])
+  const rows = await db
+    .select({ bin: bins, serial: workOrders.serial })
+    .from(bins)
+    .leftJoin(workOrders, eq(workOrders.id, bins.workOrderId))
+    .where(and(sql`${bins.code} ~ '^BIN-[0-9]+$'`, from ? sql`${binNumber} >= ${n(from)}` : undefined, to ? sql`${binNumber} <= ${n(to)}` : undefined))
+    .orderBy(asc(binNumber))
+  return rows.map((r) => toBin(r.bin, r.serial))
+}
+
 export async function listBins(db: Db | Tx, ids?: readonly string[]): Promise<Bin[]> {
   const rows = await db
     .select({ bin: bins, serial: workOrders.serial })

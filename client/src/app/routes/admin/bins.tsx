@@ -4,7 +4,7 @@ import { toast } from 'sonner'
 import { Button } from '../../../components/ui/button'
 import { Field, Input } from '../../../components/ui/field'
 import { Section } from '../../../components/ui/section'
-import { binLabelsHref, binsListOptions, useCreateBins } from '../../../features/bins/api/bin-queries'
+import { binBatchLabelsHref, binLabelsHref, binsListOptions, useCreateBins } from '../../../features/bins/api/bin-queries'
 
 const linkButton = 'inline-flex h-11 items-center rounded-md border border-stone-300 bg-white px-4 font-bold hover:bg-stone-50'
 
@@ -12,6 +12,8 @@ export function Component() {
   const bins = useQuery(binsListOptions())
   const create = useCreateBins()
   const [count, setCount] = useState(10)
+  // The batch just added, to print its labels in one go.
+  const [batch, setBatch] = useState<{ from: string; to: string; count: number } | null>(null)
   return (
     <div className="space-y-6">
       <h1 className="text-3xl font-bold">Bins</h1>
@@ -22,7 +24,16 @@ export function Component() {
           className="flex flex-wrap items-end gap-3"
           onSubmit={(e) => {
             e.preventDefault()
-            create.mutate({ count }, { onSuccess: (made) => toast.success(`Added ${made.length} bins: ${made[0]?.code} to ${made.at(-1)?.code}`), onError: (err) => toast.error(err.message) })
+            create.mutate(
+              { count },
+              {
+                onSuccess: (made) => {
+                  toast.success(`Added ${made.length} bins: ${made[0]?.code} to ${made.at(-1)?.code}`)
+                  if (made.length > 0) setBatch({ from: made[0]!.code, to: made.at(-1)!.code, count: made.length })
+                },
+                onError: (err) => toast.error(err.message),
+              },
+            )
           }}
         >
           <Field label="How many">
@@ -32,7 +43,18 @@ export function Component() {
             Add bins
           </Button>
         </form>
-        <div className="flex flex-wrap gap-2">
+        {batch && (
+          <div role="group" aria-label="Labels of the new bins" className="flex flex-wrap items-center gap-2 rounded-md border-2 border-brand-600 bg-brand-50 p-3">
+            <span className="font-bold">
+              Print the {batch.count} new labels ({batch.from} to {batch.to}):
+            </span>
+            <a className={linkButton} href={binBatchLabelsHref('2x1', batch.from, batch.to)}>2 × 1 in</a>
+            <a className={linkButton} href={binBatchLabelsHref('4x6', batch.from, batch.to)}>4 × 6 in</a>
+            <a className={linkButton} href={binBatchLabelsHref('letter', batch.from, batch.to)}>Letter sheet</a>
+          </div>
+        )}
+        <div className="flex flex-wrap items-center gap-2">
+          <span className="text-stone-700">Every bin:</span>
           <a className={linkButton} href={binLabelsHref('2x1')}>Labels 2 × 1 in</a>
           <a className={linkButton} href={binLabelsHref('4x6')}>Labels 4 × 6 in</a>
           <a className={linkButton} href={binLabelsHref('letter')}>Letter sheet</a>

@@ -18,6 +18,11 @@ export function useCreateBins() {
 }
 
 /** Where the browser downloads bin labels: all bins, or the ids given. */
+/** The labels of one batch of bins, by its first and last code: one PDF, one print. */
+export function binBatchLabelsHref(size: '2x1' | '4x6' | 'letter', from: string, to: string) {
+  return `/api/bins/labels.pdf?${new URLSearchParams({ size, from, to })}`
+}
+
 export function binLabelsHref(size: '2x1' | '4x6' | 'letter', ids?: string[]) {
   return `/api/bins/labels.pdf?size=${size}${ids?.length ? `&ids=${ids.join(',')}` : ''}`
 }
