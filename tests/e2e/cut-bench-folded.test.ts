@@ -45,7 +45,7 @@ describe('the cut bench folds equal pieces, in Chromium on a tablet', () => {
     // The planner plans and publishes the run (through the API, signed in in this browser).
     await signIn(page, baseUrl, planner.email, planner.password)
     await page.getByRole('heading', { name: /Good day/ }).waitFor()
-    const draft = await page.request.post(`${baseUrl}/api/cut-runs`, { data: { workOrderIds, timeLimitSeconds: 3, stock: [{ partId: pipeId, stickLength: inches(240), maxSticks: 1 }] } })
+    const draft = await page.request.post(`${baseUrl}/api/cut-runs`, { data: { workOrderIds, timeLimitSeconds: 3, useOffcuts: false, stock: [{ partId: pipeId, stickLength: inches(240), maxSticks: 1 }] } })
     expect(draft.status(), await draft.text()).toBe(201)
     const runId = ((await draft.json()) as { id: string }).id
     expect((await page.request.post(`${baseUrl}/api/cut-runs/${runId}/publish`)).status()).toBe(200)
@@ -94,5 +94,13 @@ describe('the cut bench folds equal pieces, in Chromium on a tablet', () => {
     expect(await cutNow()).toBe(3)
     // Progress for screen readers too.
     expect(await row.getByRole('progressbar').getAttribute('aria-valuenow')).toBe('3')
+
+    // The damaged-stick form counts spoiled pieces per row instead of listing every piece.
+    await stick.getByRole('button', { name: 'Stick damaged or miscut…' }).click()
+    const form = stick.getByRole('form', { name: 'Damaged stick' })
+    await form.getByText(/^1–51\. 3-5\/16" for WO \d+ \(3 cut\)$/).waitFor()
+    await form.getByRole('button', { name: 'One spoiled piece more of 1–51' }).click()
+    await form.getByText('1 spoiled', { exact: true }).waitFor()
+    await form.getByRole('button', { name: 'Back' }).click()
   })
 })

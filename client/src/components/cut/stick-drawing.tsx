@@ -79,18 +79,22 @@ export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId 
                   </text>
                 )}
               </>
-            ) : (
-              <>
-                <line x1={cx} y1={BAR} x2={cx} y2={BAR + 6 + m.level * LEVEL} stroke={P.pieceEdge} strokeWidth={1.5} />
-                <text x={cx} y={BAR + 4 + (m.level + 1) * LEVEL} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={P.pieceInk}>
-                  {m.number}
-                </text>
-              </>
-            )}
+            ) : null}
             <title>{`${m.number}. ${format(c.length)} ${c.label} for work order ${c.serial}${done ? ' (cut)' : moved ? ' (moved by re-plan)' : ''}`}</title>
           </g>
         )
       })}
+      {/* Leaders first, then the numbers on a paper-white halo, so no leader runs over a number. */}
+      {marks.map((m) =>
+        m.level === null ? null : <line key={`l${m.number}`} x1={m.x + m.w / 2} y1={BAR} x2={m.x + m.w / 2} y2={BAR + 6 + m.level * LEVEL} stroke={P.pieceEdge} strokeWidth={1.5} />,
+      )}
+      {marks.map((m) =>
+        m.level === null ? null : (
+          <text key={`n${m.number}`} x={m.x + m.w / 2} y={BAR + 4 + (m.level + 1) * LEVEL} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={P.pieceInk} stroke={P.scrap} strokeWidth={5} paintOrder="stroke">
+            {m.number}
+          </text>
+        ),
+      )}
       {stick.remnant > 0 && (
         <g>
           <rect

@@ -117,8 +117,16 @@ function drawStick(doc: Doc, stick: CutStick, x0: number, y: number, width: numb
       continue
     }
     const cx = m.x + m.w / 2
+    doc.lineWidth(0.5).strokeColor(P.pieceEdge).moveTo(cx, y + BAR_H).lineTo(cx, y + BAR_H + 4 + m.level * LEVEL_H).stroke()
+  }
+  // The numbers under the stick after every leader, each on a paper-white patch, so no leader runs over one.
+  for (const m of marks) {
+    if (m.level === null) continue
+    const cx = m.x + m.w / 2
     const top = y + BAR_H + 3 + m.level * LEVEL_H
-    doc.lineWidth(0.5).strokeColor(P.pieceEdge).moveTo(cx, y + BAR_H).lineTo(cx, top + 1).stroke()
+    doc.font('bold').fontSize(NUMBER_SIZE)
+    const tw = doc.widthOfString(m.number)
+    doc.rect(cx - tw / 2 - 1, top + 1, tw + 2, LEVEL_H - 1).fill(P.scrap)
     line(doc, m.number, cx - 10, top + 1, 20, { font: 'bold', size: NUMBER_SIZE, color: P.pieceInk, align: 'center' })
   }
   doc.restore()

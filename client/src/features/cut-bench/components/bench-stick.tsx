@@ -99,14 +99,33 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
             <input value={reason} onChange={(e) => setReason(e.target.value)} className="mt-1 h-14 w-full rounded-md border-2 border-stone-400 px-3 text-xl" placeholder="e.g. cracked end, miscut" />
           </label>
           {stick.cuts.some((c) => c.status === 'cut') && <p className="text-lg">Pieces already cut that are spoiled too:</p>}
-          {stick.cuts
-            .filter((c) => c.status === 'cut')
-            .map((c) => (
-              <label key={c.id} className="flex min-h-12 items-center gap-3 text-xl">
-                <input type="checkbox" className="size-7" checked={spoiled.has(c.id)} onChange={(e) => { const s = new Set(spoiled); if (e.target.checked) s.add(c.id); else s.delete(c.id); setSpoiled(s) }} />
-                {format(c.length)} for WO {c.serial}
-              </label>
-            ))}
+          {rows.map((r) => {
+            // One line per row of equal pieces: how many of its cut pieces are spoiled (the last ones cut).
+            const cut = r.items.filter((c) => c.status === 'cut')
+            if (cut.length === 0) return null
+            const n = cut.filter((c) => spoiled.has(c.id)).length
+            const set = (k: number) => {
+              const s = new Set(spoiled)
+              cut.forEach((c, i) => (i >= cut.length - k ? s.add(c.id) : s.delete(c.id)))
+              setSpoiled(s)
+            }
+            return (
+              <div key={r.items[0]!.id} className="flex min-h-14 flex-wrap items-center gap-3 text-xl">
+                <span className="min-w-0 flex-1">
+                  {runNumbers(r)}. {format(r.items[0]!.length)} for WO {r.items[0]!.serial} ({cut.length} cut)
+                </span>
+                <Button size="bench" variant="secondary" aria-label={`One spoiled piece fewer of ${runNumbers(r)}`} disabled={n === 0} onClick={() => set(n - 1)}>
+                  −
+                </Button>
+                <span className="min-w-24 text-center font-bold" aria-live="polite">
+                  {n} spoiled
+                </span>
+                <Button size="bench" variant="secondary" aria-label={`One spoiled piece more of ${runNumbers(r)}`} disabled={n >= cut.length} onClick={() => set(n + 1)}>
+                  +
+                </Button>
+              </div>
+            )
+          })}
           <div className="flex gap-3">
             <Button type="submit" size="bench" variant="danger" disabled={damage.isPending || reason.trim() === ''}>
               {damage.isPending ? 'Re-planning…' : 'Scrap it and re-plan its pieces'}
