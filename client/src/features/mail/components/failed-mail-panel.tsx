@@ -10,7 +10,7 @@ import { mailListOptions, useResendMail } from '../api/mail-queries'
  * "Send again"; shows nothing when there is none. The periodic sweep also retries them by itself.
  */
 export function FailedMailPanel() {
-  const { data } = useQuery(mailListOptions({ status: 'failed', page: 1, pageSize: 5 }))
+  const { data } = useQuery(mailListOptions({ status: 'failed', page: 1, pageSize: 10 }))
   const resend = useResendMail()
   if (!data || data.total === 0) return null
   return (
