@@ -16,6 +16,7 @@ import { buildApp, signedInAs } from '../support/app'
 import { insertPart } from '../support/factories'
 import { deliver, paidEvent, waitFor } from '../support/store-webhook'
 import { createTestDb, type TestDb } from '../support/test-db'
+import { waitForQueueIdle } from '../support/queue'
 
 let t: TestDb
 let built: ReturnType<typeof buildApp>
@@ -174,8 +175,7 @@ describe('mail while the relay is down', () => {
         30_000,
       )
       expect(sent.attempts).toBeGreaterThanOrEqual(2)
-      // Give a stray second send time to land before counting.
-      await new Promise((r) => setTimeout(r, 1500))
+      await waitForQueueIdle(t2.db) // every job done: a stray second send would have landed by now
       const files = readdirSync(dir).filter((f) => f.endsWith('.eml'))
       const mails = await Promise.all(files.map((f) => simpleParser(readFileSync(path.join(dir, f)))))
       const toCustomer = mails.filter((m) => (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).some((a) => a.value.some((v) => v.address === 'mw-ar-2001@buyer.example')))

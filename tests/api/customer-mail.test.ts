@@ -20,6 +20,7 @@ import { buildApp, signedInAs } from '../support/app'
 import { insertPackOrder, receivePlenty } from '../support/pack-factories'
 import { deliver, paidEvent, waitFor } from '../support/store-webhook'
 import { createTestDb, type TestDb } from '../support/test-db'
+import { waitForQueueIdle } from '../support/queue'
 
 /** Not the default `http://localhost:<port>`: links must follow the setting, not a guess. */
 const PUBLIC_URL = 'https://totes.mistwell.example:8443'
@@ -255,8 +256,7 @@ describe('the cancellation e-mail', () => {
       const [event] = await t.db.select().from(storeEvents).where(eq(storeEvents.eventId, 'evt-cancel-cxl-4001'))
       return event?.processedAt ?? undefined
     })
-    // Give a stray second send time to land before counting.
-    await new Promise((r) => setTimeout(r, 1500))
+    await waitForQueueIdle(t.db) // every job done: a stray second send would have landed by now
     const rows = await t.db.select().from(mailMessages).where(and(eq(mailMessages.orderId, order!.id), eq(mailMessages.purpose, 'order_cancelled')))
     expect(rows).toHaveLength(1)
     expect((await caught(row.to)).filter((m) => m.subject?.includes('is cancelled'))).toHaveLength(1)

@@ -15,6 +15,7 @@ import { startSmtpCatcher } from '../../storage-fake/smtp'
 import { buildApp, signedInAs } from '../support/app'
 import { deliver, paidEvent, waitFor } from '../support/store-webhook'
 import { createTestDb, type TestDb } from '../support/test-db'
+import { waitForQueueIdle } from '../support/queue'
 
 let t: TestDb
 let built: ReturnType<typeof buildApp>
@@ -59,8 +60,7 @@ describe('the "order received" e-mail', () => {
       const found = await caught(mailDir, 'mw-m-1001@buyer.example')
       return found.length > 0 ? found : undefined
     })
-    // Give a stray second send time to land before counting.
-    await new Promise((r) => setTimeout(r, 1500))
+    await waitForQueueIdle(t.db) // every job done: a stray second send would have landed by now
     expect(await caught(mailDir, 'mw-m-1001@buyer.example')).toHaveLength(1)
     const [mail] = messages
     expect(mail!.subject).toBe(`${DEMO_SHOP_NAME}: we have your order MW-M-1001`)
@@ -108,7 +108,7 @@ describe('the "order received" e-mail', () => {
       )
       expect(sent.attempts).toBeGreaterThanOrEqual(2)
       expect(sent.lastError).toBeNull()
-      await new Promise((r) => setTimeout(r, 1500))
+      await waitForQueueIdle(t2.db) // every job done: a stray second send would have landed by now
       expect(await caught(dir, 'mw-m-2001@buyer.example')).toHaveLength(1)
     } finally {
       await catcher?.close()

@@ -14,6 +14,7 @@ import { buildApp, signedInAs } from '../support/app'
 import { insertPackOrder, receivePlenty } from '../support/pack-factories'
 import { waitFor } from '../support/store-webhook'
 import { createTestDb, type TestDb } from '../support/test-db'
+import { waitForQueueIdle } from '../support/queue'
 
 let t: TestDb
 let built: ReturnType<typeof buildApp>
@@ -216,7 +217,7 @@ describe('shipping', () => {
     const mailDir = process.env.FAKE_MAIL_DIR
     if (!mailDir) throw new Error('FAKE_MAIL_DIR is not set: run the suite with `npm test`')
     await waitFor('the shipped e-mail to be sent', async () => ((await t.db.select().from(mailMessages).where(eq(mailMessages.id, mails[0]!.id)))[0]?.status === 'sent' ? true : undefined))
-    await new Promise((r) => setTimeout(r, 1000))
+    await waitForQueueIdle(t.db) // every job done: a stray second send would have landed by now
     const caught = []
     for (const f of readdirSync(mailDir).filter((f) => f.endsWith('.eml'))) {
       const m = await simpleParser(readFileSync(path.join(mailDir, f)))

@@ -12,6 +12,7 @@ import { insertBuildRevision, insertBuildWorkOrder } from '../support/build-fact
 import { deliver, paidEvent, waitFor } from '../support/store-webhook'
 import type { TestDb } from '../support/test-db'
 import { privatePostgres, seconds } from './private-services'
+import { waitForQueueIdle } from '../support/queue'
 
 let pg: Awaited<ReturnType<typeof privatePostgres>>
 let conn: ReturnType<typeof createDb>
@@ -79,7 +80,7 @@ describe('the database stops and starts again in the middle of the work', () => 
     const ordersBack = Date.now() - back
     // Redeliveries of the first events change nothing: still one order each.
     for (const e of events.slice(0, 2)) expect((await deliver(built.app, e)).status).toBe(200)
-    await new Promise((r) => setTimeout(r, 1000))
+    await waitForQueueIdle(conn.db) // every store-event job done: a duplicate order would exist by now
     const rows = await conn.db.select({ number: orders.number }).from(orders).where(inArray(orders.number, all))
     expect(rows.map((r) => r.number).sort()).toEqual([...all].sort())
     const stored = await conn.db.select({ eventId: storeEvents.eventId }).from(storeEvents)

@@ -13,6 +13,7 @@ import { buildApp, signedInAs } from '../support/app'
 import { deliver, paidEvent, waitFor } from '../support/store-webhook'
 import type { TestDb } from '../support/test-db'
 import { privatePostgres, privateSmtp, seconds } from './private-services'
+import { waitForQueueIdle } from '../support/queue'
 
 let pg: Awaited<ReturnType<typeof privatePostgres>>
 let smtp: Awaited<ReturnType<typeof privateSmtp>>
@@ -76,7 +77,7 @@ describe('the SMTP relay stops and starts again in the middle of taking orders',
     const back = Date.now()
     await waitFor('every queued e-mail to go out', async () => ((await mailOf(during)).every((m) => m.status === 'sent') ? true : undefined), 60_000)
     const recovered = Date.now() - back
-    await new Promise((r) => setTimeout(r, 1500)) // time for a stray second send to land before counting
+    await waitForQueueIdle(conn.db) // every job done: a stray second send would have landed by now
 
     const all = [...before, ...during]
     const recipients = await caughtRecipients()

@@ -15,6 +15,7 @@ import { TEST_STORE_SECRET } from '../support/app'
 import { insertUser, TEST_PASSWORD } from '../support/factories'
 import { paidEvent, waitFor } from '../support/store-webhook'
 import { freePort, privatePostgres, privateSmtp, seconds } from './private-services'
+import { waitForQueueIdle } from '../support/queue'
 
 const root = path.resolve(import.meta.dirname, '../..')
 let pg: Awaited<ReturnType<typeof privatePostgres>>
@@ -108,7 +109,7 @@ describe('two API processes over one database and queue', () => {
       return rows.length === numbers.length && rows.every((r) => r.status === 'sent') ? true : undefined
     }, 30_000)
     const settled = Date.now() - started
-    await new Promise((r) => setTimeout(r, 1500)) // time for a stray second send to land before counting
+    await waitForQueueIdle(conn.db) // every job done: a stray second send would have landed by now
 
     const rows = await conn.db.select({ number: orders.number }).from(orders).where(inArray(orders.number, numbers))
     expect(rows.map((r) => r.number).sort()).toEqual([...numbers].sort())
