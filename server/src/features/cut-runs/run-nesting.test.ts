@@ -3,7 +3,7 @@ import { NestingInputError } from '@kitwright/shared/domain/nesting/index'
 import { NestingPool } from './nesting-pool'
 import { runNesting } from './run-nesting'
 
-describe('runNesting (worker thread)', () => {
+describe('runNesting (worker thread)', { timeout: 60_000 }, () => {
   it('plans a cut run in a worker and returns the plan', async () => {
     // Hand-worked: 10 ft = 120 in sticks, base unit 1/1000 in, kerf 1/8 in (125).
     // Four 29 in pieces take 4 × 29 000 + 3 × 125 = 116 375 <= 120 000, so one stick holds them;
@@ -21,7 +21,7 @@ describe('runNesting (worker thread)', () => {
   })
 })
 
-describe('NestingPool', () => {
+describe('NestingPool', { timeout: 60_000 }, () => {
   // Two cut runs planned at once each get a worker of their own; a third waits for one to free.
   it('runs plans side by side, one per worker, and queues the rest', async () => {
     const pool = new NestingPool(2)

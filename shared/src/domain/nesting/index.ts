@@ -9,6 +9,7 @@ export { firstFitDecreasing } from './ffd'
 export { NestingInputError } from './types'
 export type {
   NestBounds,
+  NestBoundSource,
   NestCut,
   NestInput,
   NestOffcut,
@@ -19,6 +20,7 @@ export type {
   NestStick,
   NestStickSource,
   NestStockOption,
+  NestStats,
   NestStockUse,
   NestTotals,
 } from './types'

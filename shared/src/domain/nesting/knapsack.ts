@@ -28,6 +28,12 @@ export interface KnapsackAnswer {
   results: KnapsackResult[]
   /** False when the search stopped at its node limit (the results are then only good ones). */
   exact: boolean
+  /**
+   * With `alternatives` asked for and the dynamic programme used: per capacity, for each piece
+   * kind, the best filling that holds at least one piece of that kind (more columns per pricing
+   * round from the same table, so column generation needs fewer rounds).
+   */
+  alternatives?: KnapsackResult[][]
 }
 
 function gcd(a: number, b: number): number {
@@ -44,7 +50,12 @@ const NODE_LIMIT = 400_000
  * the bounds (Martello & Toth 1990, §3.2) when the table is small and there is no piece limit,
  * and depth-first branch and bound with the Dantzig bound otherwise (§3.3).
  */
-export function solveKnapsack(items: readonly KnapsackItem[], capacities: readonly number[], maxCount = Infinity): KnapsackAnswer {
+export function solveKnapsack(
+  items: readonly KnapsackItem[],
+  capacities: readonly number[],
+  maxCount = Infinity,
+  alternatives = false,
+): KnapsackAnswer {
   const useful = items.map((it, i) => ({ ...it, i })).filter((it) => it.value > 1e-12 && it.bound > 0)
   const empty = (): KnapsackResult => ({ counts: new Array<number>(items.length).fill(0), value: 0 })
   if (useful.length === 0) return { results: capacities.map(empty), exact: true }
@@ -55,7 +66,7 @@ export function solveKnapsack(items: readonly KnapsackItem[], capacities: readon
   let parts = 0
   for (const it of useful) parts += Math.ceil(Math.log2(it.bound + 1))
   if (maxCount === Infinity && parts * (maxCap + 1) <= DP_CELL_LIMIT) {
-    return { results: dp(useful, g, scaledCaps, maxCap, items.length), exact: true }
+    return { ...dp(useful, g, scaledCaps, maxCap, items.length, alternatives), exact: true }
   }
   let exact = true
   const results = capacities.map((c) => {
@@ -72,7 +83,8 @@ function dp(
   caps: readonly number[],
   maxCap: number,
   n: number,
-): KnapsackResult[] {
+  alternatives: boolean,
+): { results: KnapsackResult[]; alternatives?: KnapsackResult[][] } {
   const split: { i: number; mult: number; w: number; v: number }[] = []
   for (const it of useful) {
     let left = it.bound
@@ -87,17 +99,21 @@ function dp(
   const W = maxCap + 1
   const f = new Float64Array(W)
   const choice = new Uint8Array(split.length * W)
-  split.forEach((s, k) => {
+  for (let k = 0; k < split.length; k++) {
+    const s = split[k]
+    if (!s) continue
     const base = k * W
-    for (let c = maxCap; c >= s.w; c--) {
-      const cand = (f[c - s.w] ?? 0) + s.v
-      if (cand > (f[c] ?? 0) + 1e-12) {
+    const w = s.w
+    const v = s.v
+    for (let c = maxCap; c >= w; c--) {
+      const cand = f[c - w]! + v
+      if (cand > f[c]! + 1e-12) {
         f[c] = cand
         choice[base + c] = 1
       }
     }
-  })
-  return caps.map((cap) => {
+  }
+  const rebuild = (cap: number): number[] => {
     const counts = new Array<number>(n).fill(0)
     let c = cap
     for (let k = split.length - 1; k >= 0; k--) {
@@ -107,10 +123,31 @@ function dp(
         c -= s.w
       }
     }
+    return counts
+  }
+  const valueOf = (counts: readonly number[]): number => {
     let value = 0
     for (const it of useful) value += (counts[it.i] ?? 0) * it.value
-    return { counts, value }
+    return value
+  }
+  const results = caps.map((cap) => {
+    const counts = rebuild(cap)
+    return { counts, value: valueOf(counts) }
   })
+  if (!alternatives) return { results }
+  const alts = caps.map((cap) => {
+    const out: KnapsackResult[] = []
+    for (const it of useful) {
+      const w = it.weight / g
+      if (w > cap) continue
+      const counts = rebuild(cap - w)
+      if ((counts[it.i] ?? 0) >= it.bound) continue
+      counts[it.i] = (counts[it.i] ?? 0) + 1
+      out.push({ counts, value: valueOf(counts) })
+    }
+    return out
+  })
+  return { results, alternatives: alts }
 }
 
 function branchAndBound(

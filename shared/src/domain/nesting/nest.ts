@@ -1,14 +1,17 @@
 import { simpleBounds } from './bounds'
 import type { MasterLp } from './column-generation'
 import { solveMasterLp } from './column-generation'
+import { dive } from './dive'
+import { reducePatterns } from './pattern-reduction'
 import { greedyPlan } from './ffd'
 import { loadHighs } from './highs-loader'
 import type { CuttingProblem, PatternSolution } from './problem'
 import { buildProblem, solutionCost, solutionOffcuts } from './problem'
-import { enumeratePatterns, roundLp, searchExactCover, solvePatternMip } from './rounding'
+import { enumeratePatterns, roundLp, searchExactCover, solvePatternMip, weightedCost } from './rounding'
 import { NestingInputError } from './types'
 import type {
   NestBounds,
+  NestBoundSource,
   NestCut,
   NestInput,
   NestOptions,
@@ -19,9 +22,12 @@ import type {
   NestStockUse,
 } from './types'
 
-const DEFAULT_TIME_LIMIT_MS = 10_000
+/** The shop default (a planner waits this long at most); "take longer" passes more. */
+export const DEFAULT_TIME_LIMIT_MS = 2_000
 /** Most patterns listed per enumeration; past it the MIP runs as a heuristic over what was found. */
 const ENUMERATION_LIMIT = 40_000
+/** Longest the pattern-reduction pass may take, whatever the time limit. */
+const PATTERN_PASS_MAX_MS = 2_000
 /** Same, for the quick search before any LP. */
 const QUICK_ENUMERATION_LIMIT = 5_000
 
@@ -39,6 +45,12 @@ interface Search {
   /** Divisor that turned stock costs into the LP's whole-number costs. */
   scale: number
   timedOut: boolean
+  /** Distinct patterns before the reduction pass (unset when it did not run). */
+  patternsBeforeReduction?: number
+  /** Which bound `costBound` is. */
+  source: NestBoundSource
+  /** Work counts. */
+  stats: { lpIterations: number; columns: number; diveSteps: number }
 }
 
 /**
@@ -59,6 +71,9 @@ function better(problem: CuttingProblem, a: PatternSolution, b: PatternSolution 
 
 async function search(problem: CuttingProblem, options: NestOptions, deadline: number): Promise<Search> {
   const sb = simpleBounds(problem)
+  const simpleSource: NestBoundSource = sb.martelloTothSticks > sb.continuousSticks ? 'martello-toth' : 'continuous'
+  let source: NestBoundSource = simpleSource
+  const stats = { lpIterations: 0, columns: 0, diveSteps: 0 }
   const candidates = [greedyPlan(problem, undefined, undefined, true), greedyPlan(problem)]
   let incumbent: PatternSolution | null = null
   for (const c of candidates) if (c && better(problem, c, incumbent)) incumbent = c
@@ -67,10 +82,10 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   }
   if (options.method === 'ffd') {
     const ffd = candidates[0] ?? incumbent
-    return { solution: ffd, costBound: sb.cost, lp: null, scale: 1, timedOut: false }
+    return { solution: ffd, costBound: sb.cost, lp: null, scale: 1, timedOut: false, source, stats }
   }
   if (solutionCost(problem, incumbent) <= sb.cost && problem.bins.every((b) => b.kind === 'stock')) {
-    return { solution: incumbent, costBound: sb.cost, lp: null, scale: 1, timedOut: false }
+    return { solution: incumbent, costBound: sb.cost, lp: null, scale: 1, timedOut: false, source, stats }
   }
 
   // Costs scaled by their greatest common divisor, so every plan costs a whole number; each offcut
@@ -99,7 +114,10 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
       pool: [],
       values: [],
       converged: true,
+      bounded: true,
       dualBound: totalWeight / C,
+      roundedUp: true,
+      iterations: 0,
     }
     const target = lowerBound
     const slack = target * C - totalWeight
@@ -108,8 +126,11 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
     if (all.complete) {
       const cover = searchExactCover(problem, cheap, costs, all.patterns, target, quick)
       if (cover.solution && better(problem, cover.solution, incumbent)) incumbent = cover.solution
-      if (scaledCost(incumbent) <= lowerBound) return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false }
-      if (cover.exhausted) lowerBound = target + 1
+      if (scaledCost(incumbent) <= lowerBound) return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false, source, stats }
+      if (cover.exhausted) {
+        lowerBound = target + 1
+        source = 'search'
+      }
     }
   }
 
@@ -118,12 +139,24 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
     highs = await loadHighs()
   } catch {
     // Without the solver the greedy plan is still a valid plan.
-    return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false }
+    return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false, source, stats }
   }
   const lp = solveMasterLp(highs, problem, costs, incumbent.uses.map((u) => u.pattern), deadline)
-  if (lp.converged) lowerBound = Math.max(lowerBound, Math.ceil(lp.dualBound - 1e-6))
+  stats.lpIterations += lp.iterations
+  stats.columns += lp.pool.length
+  if (lp.bounded) {
+    const fromLp = Math.ceil(lp.dualBound - 1e-6)
+    if (fromLp >= lowerBound) {
+      lowerBound = fromLp
+      source = lp.roundedUp ? 'lp' : 'lagrangian'
+    }
+  }
   const rounded = roundLp(problem, lp, costs)
   if (rounded && better(problem, rounded, incumbent)) incumbent = rounded
+  if (lp.bounded && scaledCost(incumbent) > lowerBound && Date.now() < deadline) {
+    const dived = dive(highs, problem, costs, lp, weightedCost(incumbent, costs), deadline, stats)
+    if (dived && better(problem, dived, incumbent)) incumbent = dived
+  }
 
   let timedOut = false
   // First hunt for a plan at the lower bound (few patterns to list). With one kind of stick, a
@@ -131,7 +164,7 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   // lists every pattern of any plan no dearer than the best one found, so the MIP's optimum over
   // them is the optimum (and, thanks to the offcut bonus, uses the most offcuts at that cost).
   let aimAtBound = true
-  while (lp.converged) {
+  while (lp.bounded) {
     const current = scaledCost(incumbent)
     if (current <= lowerBound && offcutCount === 0) break
     if (Date.now() > deadline) {
@@ -153,6 +186,7 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
         if (cover.exhausted) {
           // Every plan at the target would be an exact cover of this pool: there is none.
           lowerBound = target + 1
+          source = 'search'
           continue
         }
       }
@@ -167,15 +201,17 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
     }
     if (target === current) {
       // The pool held every pattern of every plan no dearer than the incumbent: it is optimal.
+      if (scaledCost(incumbent) > lowerBound) source = 'search'
       lowerBound = Math.max(lowerBound, scaledCost(incumbent))
       break
     }
     if (scaledCost(incumbent) <= target) break
     // Complete enumeration, proven MIP optimum above the target: no plan costs `target`.
     lowerBound = target + 1
+    source = 'search'
     if (!exactCover) aimAtBound = false
   }
-  return { solution: incumbent, costBound: lowerBound * g, lp, scale: g, timedOut }
+  return { solution: incumbent, costBound: lowerBound * g, lp, scale: g, timedOut, source, stats }
 }
 
 /**
@@ -192,7 +228,7 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
  * longest remnant. Cost is always optimised; the tie-breaks are honoured among the plans found.
  *
  * @param input pieces, stock options, offcuts, kerf, trim, minimum offcut, piece limit
- * @param options time limit (default 10 s) and method
+ * @param options time limit (default 2 s) and method
  * @returns the plan; when the time limit is reached, the best plan found so far
  * @throws NestingInputError when the input is invalid or the stock cannot hold the pieces
  */
@@ -201,8 +237,49 @@ export async function nest(input: NestInput, options: NestOptions = {}): Promise
   const problem = buildProblem(input)
   const limit = options.timeLimitMs ?? DEFAULT_TIME_LIMIT_MS
   if (!(limit > 0)) throw new NestingInputError('timeLimitMs', 'The time limit must be a positive number of milliseconds.')
-  const found = await search(problem, options, started + limit)
+  const deadline = started + limit
+  const found = await search(problem, options, deadline)
+  if (options.reducePatterns !== false && options.method !== 'ffd') await fewerPatterns(problem, found, deadline, limit)
   return layOut(input, problem, found, (Date.now() - started) / 1000)
+}
+
+/**
+ * Second pass, once the cost is proven best: fewer distinct patterns (saw set-ups) at the same
+ * cost and stick count, over the patterns column generation produced (a short column generation
+ * runs for them when the plan needed none), in at most half of the time left, a quarter of the
+ * time limit, or {@link PATTERN_PASS_MAX_MS}, whichever is least.
+ */
+async function fewerPatterns(problem: CuttingProblem, found: Search, deadline: number, limit: number): Promise<void> {
+  const sol = found.solution
+  if (sol.uses.length <= 1 || solutionCost(problem, sol) > found.costBound) return
+  const stockUses = sol.uses.filter((u) => problem.bins[u.pattern.bin]?.kind === 'stock').length
+  if (stockUses <= 1) return
+  let highs
+  try {
+    highs = await loadHighs()
+  } catch {
+    // Without the solver the plan stays as it is (still proven best in cost).
+    return
+  }
+  const until = Math.min(deadline, Date.now() + Math.min((deadline - Date.now()) / 2, Math.max(50, limit / 4), PATTERN_PASS_MAX_MS))
+  const g = found.scale
+  // Same weights as the search: each offcut used earns a bonus below one unit in total, so the
+  // pass may not trade an offcut for a new stick.
+  const offcutCount = problem.bins.reduce((s, b) => s + (b.kind === 'offcut' ? b.available : 0), 0)
+  const bonus = offcutCount > 0 ? 0.5 / (offcutCount + 1) : 0
+  const costs = problem.bins.map((b) => (b.kind === 'offcut' ? -bonus : b.cost / g))
+  let pool = found.lp?.pool ?? []
+  if (pool.length === 0) {
+    const lp = solveMasterLp(highs, problem, costs, sol.uses.map((u) => u.pattern), Math.min(until, Date.now() + (until - Date.now()) / 2))
+    found.stats.lpIterations += lp.iterations
+    pool = lp.pool
+  }
+  const before = found.solution.uses.length
+  const reduced = reducePatterns(highs, problem, costs, sol, pool, until)
+  if (reduced !== sol) {
+    found.patternsBeforeReduction = before
+    found.solution = reduced
+  }
 }
 
 function layOut(input: NestInput, problem: CuttingProblem, found: Search, seconds: number): NestPlan {
@@ -295,6 +372,8 @@ function layOut(input: NestInput, problem: CuttingProblem, found: Search, second
     lpCost,
     cost: found.costBound,
     sticks: stickBound,
+    source: found.source,
+    lpConverged: found.lp?.converged ?? false,
   }
   const proven = stockCost <= found.costBound
   return {
@@ -319,5 +398,6 @@ function layOut(input: NestInput, problem: CuttingProblem, found: Search, second
     bounds,
     gap: stockCost > 0 && !proven ? (stockCost - found.costBound) / stockCost : 0,
     seconds,
+    stats: { ...found.stats, patternsBeforeReduction: found.patternsBeforeReduction ?? patterns.length },
   }
 }

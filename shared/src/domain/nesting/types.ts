@@ -74,10 +74,15 @@ export interface NestInput {
 /** Options of one run of the engine. */
 export interface NestOptions {
   /**
-   * Wall-clock limit in milliseconds (default 10 000). When it runs out the best plan found so
-   * far is returned with `status: 'time-limit'`.
+   * Wall-clock limit in milliseconds (default 2 000, the shop default). When it runs out the best
+   * plan found so far is returned with `status: 'time-limit'` and the best bound proven by then.
    */
   timeLimitMs?: number
+  /**
+   * After the stick count (cost) is settled, spend part of what is left of the time limit on
+   * fewer distinct patterns (saw set-ups) at the same cost. Default true.
+   */
+  reducePatterns?: boolean
   /**
    * `'optimize'` (default): column generation, then a search over patterns. `'ffd'`: first-fit
    * decreasing only (the benchmark's baseline; also used on its own for tiny cases).
@@ -184,6 +189,18 @@ export interface NestTotals {
   wastePercent: number
 }
 
+/**
+ * Which bound `NestBounds.cost` / `NestBounds.sticks` is:
+ * - `continuous`: total length ÷ stick length (and the cheapest-capacity cost bound);
+ * - `martello-toth`: the L2 bound (one stick kind);
+ * - `lp`: the LP relaxation rounded up: solved to the end (`lpConverged`), or stopped once a
+ *   Lagrangian bound rounded up met the master's value rounded up, which fixes the same number;
+ * - `lagrangian`: a Lagrangian (Farley) bound from exact pricing, when the LP had not converged
+ *   by the time limit (weaker than the rounded-up LP bound, but proven);
+ * - `search`: a complete search proved no cheaper plan exists (above the rounded-up LP bound).
+ */
+export type NestBoundSource = 'continuous' | 'martello-toth' | 'lp' | 'lagrangian' | 'search'
+
 /** Lower bounds proven for the instance; a plan can never beat them. */
 export interface NestBounds {
   /** Continuous bound on sticks: fewest sticks whose usable lengths could hold all the pieces. */
@@ -199,6 +216,22 @@ export interface NestBounds {
   cost: number
   /** Best proven lower bound on sticks used (stock plus offcuts). */
   sticks: number
+  /** Which bound `cost` (and, with one stick kind, `sticks`) is. */
+  source: NestBoundSource
+  /** True when column generation solved the LP relaxation to the end (then `lpCost` is its value). */
+  lpConverged: boolean
+}
+
+/** Counts of the work done (they do not depend on the machine's speed or load). */
+export interface NestStats {
+  /** Rounds of column generation (master re-solves), dives included. */
+  lpIterations: number
+  /** Columns (patterns) generated for the master. */
+  columns: number
+  /** Columns fixed by diving. */
+  diveSteps: number
+  /** Distinct patterns before the pattern-reduction pass (equal to the plan's when it found nothing). */
+  patternsBeforeReduction: number
 }
 
 /** A complete cut plan. */
@@ -217,6 +250,8 @@ export interface NestPlan {
   gap: number
   /** Wall-clock seconds spent. */
   seconds: number
+  /** Counts of the work done. */
+  stats: NestStats
 }
 
 /** Thrown for input that cannot be planned; `field` names what to fix (e.g. `pieces.3.length`). */
