@@ -64,18 +64,22 @@ export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId 
         const fill = moved ? P.pieceMoved : done ? P.pieceCut : next ? P.pieceNext : P.piece
         const ink = done ? P.pieceCutInk : moved ? P.ink : P.pieceInk
         const cx = m.x + m.w / 2
+        // Length (and serial) under the number when the piece is wide enough; 15-unit type is about 7.5 wide a letter.
+        const lengthText = format(c.length)
+        const showLength = m.level === null && m.w >= lengthText.length * 7.5 + 8
+        const showSerial = m.w >= (lengthText.length + c.serial.length + 3) * 7.5 + 8
         return (
           <g key={c.id}>
             <rect x={m.x} y={next ? 2 : 0} width={m.w} height={next ? BAR - 4 : BAR} fill={fill} stroke={next ? P.pieceInk : P.pieceEdge} strokeWidth={next ? 5 : 2} strokeDasharray={moved ? '6 4' : undefined} />
             {kerf > 0 && <rect x={m.x + m.w} y={0} width={Math.max(2.5, kerf * k)} height={BAR} fill={P.kerf} />}
             {m.level === null ? (
               <>
-                <text x={cx} y={m.w > 90 ? 28 : 40} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={ink}>
+                <text x={cx} y={showLength ? 28 : 40} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={ink}>
                   {done && m.w > numberWidth(m.number) + 22 ? `✓${m.number}` : m.number}
                 </text>
-                {m.w > 90 && (
-                  <text x={cx} y={52} textAnchor="middle" fontSize={16} fill={ink}>
-                    {format(c.length)} · {c.serial}
+                {showLength && (
+                  <text x={cx} y={52} textAnchor="middle" fontSize={15} fill={ink}>
+                    {showSerial ? `${lengthText} · ${c.serial}` : lengthText}
                   </text>
                 )}
               </>
