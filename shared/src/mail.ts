@@ -7,12 +7,8 @@ export const MailStatusSchema = z.enum(MAIL_STATUSES)
 /** The life of an e-mail in the outbox. */
 export type MailStatus = z.infer<typeof MailStatusSchema>
 
-/** What each mail status is called on screen. */
-export const MAIL_STATUS_LABELS: Record<MailStatus, string> = {
-  queued: 'Waiting to send',
-  sent: 'Sent',
-  failed: 'Gave up',
-}
+/** What each mail status is called on screen (one map of words for every state: status-words.ts). */
+export { MAIL_STATUS_LABELS } from './status-words'
 
 /** The statuses the outbox filters by, in the order a message passes through them. */
 export const MAIL_STATUSES_FOR_FILTER: readonly MailStatus[] = MAIL_STATUSES

@@ -10,17 +10,8 @@ export const ORDER_STAGES = ['received', 'released', 'in_production', 'ready_to_
 /** Where an order is in its life. */
 export type OrderStage = (typeof ORDER_STAGES)[number]
 
-/** What each stage is called on screen. */
-export const ORDER_STAGE_LABELS: Record<OrderStage, string> = {
-  received: 'Received',
-  released: 'Released',
-  in_production: 'In production',
-  ready_to_pack: 'Ready to pack',
-  partially_shipped: 'Partly shipped',
-  shipped: 'Shipped',
-  on_hold: 'On hold',
-  cancelled: 'Cancelled',
-}
+/** What each stage is called on screen (one map of words for every state: status-words.ts). */
+export { ORDER_STAGE_LABELS } from './status-words'
 
 /** Work order statuses past the cut bench's queue: the unit is being made. */
 export const STARTED_WORK_ORDER_STATUSES = ['cut', 'building', 'rework', 'built', 'packed', 'shipped'] as const

@@ -33,8 +33,12 @@ export const ORDER_CSV_COLUMNS = [
 /** A column an orders CSV import reads. */
 export type OrderCsvColumn = (typeof ORDER_CSV_COLUMNS)[number]
 
-/** Columns the export adds for the reader; import ignores them. */
-export const ORDER_CSV_EXPORT_ONLY_COLUMNS = ['status', 'source', 'line_total'] as const
+/**
+ * Columns the export adds for the reader; import ignores them. `status`, `source` and `payment` are
+ * the words shown on screen; `status_code` and `source_code` carry the codes for a program reading the
+ * file (`payment_status`, an import column, already holds the payment code).
+ */
+export const ORDER_CSV_EXPORT_ONLY_COLUMNS = ['status', 'status_code', 'source', 'source_code', 'payment', 'line_total'] as const
 
 /** Columns an import file must have; `kit_sku` or `store_product_id` must be there too. */
 export const REQUIRED_ORDER_CSV_COLUMNS: readonly OrderCsvColumn[] = [

@@ -32,26 +32,8 @@ export const ORDER_PRIORITY_LABELS: Record<OrderPriority, string> = { normal: 'N
 /** Where an order is in its life (see `order-stage.ts`). */
 export const OrderStageSchema = z.enum(ORDER_STAGES, { error: `Use one of ${ORDER_STAGES.join(', ')}` })
 
-/** What each order status is called on screen. */
-export const ORDER_STATUS_LABELS: Record<OrderStatus, string> = {
-  open: 'Open',
-  released: 'Released',
-  partially_shipped: 'Partly shipped',
-  shipped: 'Shipped',
-  cancelled: 'Cancelled',
-}
-
-/** What each work order status is called on screen. */
-export const WORK_ORDER_STATUS_LABELS: Record<WorkOrderStatus, string> = {
-  waiting_cut: 'Waiting for cutting',
-  cut: 'Cut',
-  building: 'Building',
-  rework: 'Rework',
-  built: 'Ready to pack',
-  packed: 'Packed',
-  shipped: 'Shipped',
-  cancelled: 'Cancelled',
-}
+// One word per state, kept in one map for screens, CSV files and e-mails alike.
+export { ORDER_SOURCE_LABELS, ORDER_STATUS_LABELS, PAYMENT_STATUS_LABELS, WORK_ORDER_STATUS_LABELS } from './status-words'
 
 /**
  * Kinds of timeline event Kitwright writes on an order. The column is free text so a new kind needs

@@ -85,7 +85,7 @@ describe('the promised ship date', () => {
     const bare = await postOrder(buildNewOrder({ placedAt: '2026-03-02T09:15:00Z', promisedShipDate: undefined }))
     expect(bare.promisedShipDate).toBe('2026-03-11')
     expect(bare.promisedShipDate).toBe(addWorkingDays('2026-03-02', 7))
-    expect(bare.events[0]!.message).toContain("promised to ship by 2026-03-11 (the shop's lead time of 7 working days)")
+    expect(bare.events[0]!.message).toContain("promised to ship by Mar 11, 2026 (the shop's lead time of 7 working days)")
     const given = await postOrder(buildNewOrder({ placedAt: '2026-03-02T09:15:00Z', promisedShipDate: '2026-04-01' }))
     expect(given.promisedShipDate).toBe('2026-04-01')
 
@@ -289,8 +289,10 @@ describe('a planner cancels an order', () => {
     expect(made.map((m) => m.length).sort((a, b) => a - b)).toEqual(keep.map((c) => c.length).sort((a, b) => a - b))
     expect(made.every((m) => m.status === 'in_stock' && m.note!.includes(`of cancelled order ${o.number}`))).toBe(true)
 
-    const event = after.events.at(-1)!
+    const event = after.events.filter((e) => e.kind === 'cancelled').at(-1)!
     expect(event).toMatchObject({ kind: 'cancelled', actorName: plannerName })
+    // The customer's cancellation e-mail is queued right after, on the same timeline.
+    expect(after.events.at(-1)).toMatchObject({ kind: 'mail_queued', message: expect.stringContaining(`your order ${o.number} is cancelled`) })
     expect(event.message).toContain(`Cancelled by ${plannerName} (Customer found a local supplier).`)
     expect(event.message).toContain(`2 work orders cancelled (${released.workOrders.map((w) => w.serial).join(', ')}) and their reserved stock released.`)
     expect(event.message).toContain(`Bin ${bin.code} freed.`)

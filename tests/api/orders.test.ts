@@ -242,7 +242,10 @@ describe('CSV export of orders', () => {
       ['EXP-1', `'=HYPERLINK("http://x.example","pay")`, "'+1 call first", expect.any(String)],
       ['EXP-2', "'@SUM(A1)", '', "'-Dock 4"],
     ])
-    expect(parsed.data[0]).toMatchObject({ kit_sku: 'MW-TOTE-6C', quantity: '1', unit_price: '129.00', status: 'open', source: 'phone' })
+    expect(parsed.data[0]).toMatchObject({ kit_sku: 'MW-TOTE-6C', quantity: '1', unit_price: '129.00' })
+    // States in the words shown on screen, the codes beside them for a program reading the file.
+    expect(parsed.data[0]).toMatchObject({ status: 'Received', status_code: 'open', source: 'Phone or counter', source_code: 'phone', payment: 'Awaiting payment', payment_status: 'pending' })
+    for (const row of parsed.data) for (const word of [row.status, row.source, row.payment]) expect(word).not.toMatch(/_|^[a-z]/)
 
     const back = await planner.agent.post('/api/orders/import').send({ csv: res.text })
     expect(back.status, JSON.stringify(back.body)).toBe(200)

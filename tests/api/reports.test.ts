@@ -283,10 +283,21 @@ describe('report exports', () => {
     expect(res.headers['content-type']).toMatch(/^text\/csv/)
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?kitwright-late-orders-\d{4}-\d{2}-\d{2}\.csv"?$/)
     const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
-    expect(lines[0]).toBe('Order,Customer,State,Placed (UTC),Promised ship date,Days late,Units,Units shipped')
+    expect(lines[0]).toBe('Order,Customer,State,Placed (UTC),Promised ship date,Days late,Units,Units shipped,State code')
     expect(lines).toHaveLength(3) // the header and both late orders, whatever the screen's limit
     // OWASP "CSV Injection": a cell starting with = gets a leading apostrophe.
-    expect(lines[1]).toContain(`${numbers.o3},"'=HYPERLINK(""http://bad.example"")",released,`)
+    expect(lines[1]).toContain(`${numbers.o3},"'=HYPERLINK(""http://bad.example"")",Released,`)
+    // The state in words as on screen; its code in the last column for a program.
+    expect(lines[1]!.endsWith(',released')).toBe(true)
+  })
+
+  it('exports the order states in words, with the code beside (partially_shipped is "Partly shipped")', async () => {
+    const res = await planner.get('/api/reports/order-states/export.csv')
+    expect(res.status).toBe(200)
+    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
+    expect(lines[0]).toBe('Order state,Orders,State code')
+    expect(lines).toContain('Partly shipped,1,partially_shipped')
+    for (const line of lines.slice(1)) expect(line.split(',')[0]).not.toMatch(/_/)
   })
 
   it('exports the numbers behind the throughput chart', async () => {

@@ -42,7 +42,7 @@ describe('hold and cancel from the order page, in Chromium', () => {
     await page.goto(`${baseUrl}/orders/${id}`)
     await page.getByRole('heading', { name: 'Order P-E2E-HOLD-1' }).waitFor()
     // Promised from the shop's lead time, since the order came without a date.
-    await page.getByRole('list', { name: 'Timeline' }).getByText(/promised to ship by \d{4}-\d{2}-\d{2} \(the shop's lead time of 7 working days\)/).waitFor()
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/promised to ship by [A-Z][a-z]{2} \d{1,2}, \d{4} \(the shop's lead time of 7 working days\)/).waitFor()
 
     await page.getByRole('button', { name: 'Put on hold…' }).click()
     const holdForm = page.getByRole('form', { name: 'Put on hold' })

@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { useSearchParams } from 'react-router-dom'
 import { REPORT_TIME_ZONE, ReportRangeQuerySchema, type ReportRangeQuery } from '@kitwright/shared/reports'
+import { ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../components/ui/section'
 import { meOptions } from '../../features/auth/api/auth-queries'
 import { MeasurementFlagsPanel } from '../../features/build-bench/components/measurement-flags-panel'
@@ -31,7 +32,6 @@ import { WipPanel } from '../../features/reports/components/wip-panel'
 import { YieldChart } from '../../features/reports/components/yield-chart'
 import { useLengthUnit } from '../../lib/shop-settings'
 
-const STATE_LABELS = { open: 'Open', released: 'Released', partially_shipped: 'Partly shipped', shipped: 'Shipped', cancelled: 'Cancelled' } as const
 
 function rangeFromSearch(params: URLSearchParams): ReportRangeQuery {
   const parsed = ReportRangeQuerySchema.safeParse({ from: params.get('from') || undefined, to: params.get('to') || undefined })
@@ -93,7 +93,7 @@ export function Component() {
           <dl className="flex flex-wrap gap-x-8 gap-y-2">
             {states.data.rows.map((r) => (
               <div key={r.status}>
-                <dt className="text-sm font-bold text-stone-600">{STATE_LABELS[r.status]}</dt>
+                <dt className="text-sm font-bold text-stone-600">{ORDER_STATUS_LABELS[r.status]}</dt>
                 <dd className="text-2xl font-bold tabular-nums">{r.count}</dd>
               </div>
             ))}

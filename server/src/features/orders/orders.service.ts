@@ -1,5 +1,7 @@
 import { eq } from 'drizzle-orm'
 import { addWorkingDays, utcDay } from '@kitwright/shared/domain/working-days'
+import { formatDay } from '@kitwright/shared/dates'
+import { ORDER_SOURCE_LABELS, ORDER_STATUS_LABELS, PAYMENT_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 import type { NewOrder, OrderDetail, OrderListQuery, OrderSource, OrdersPage } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
 import { shopSettings, type OrderEventRow, type OrderRow } from '../../db/schema/index'
@@ -128,7 +130,7 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
     kind: 'received',
     message:
       `${SOURCE_WORDS[source]}: ${units} unit${units === 1 ? '' : 's'} on ${input.lines.length} line${input.lines.length === 1 ? '' : 's'}` +
-      (promised ? `; promised to ship by ${promised.date} (the shop's lead time of ${promised.leadTimeDays} working day${promised.leadTimeDays === 1 ? '' : 's'})` : ''),
+      (promised ? `; promised to ship by ${formatDay(promised.date)} (the shop's lead time of ${promised.leadTimeDays} working day${promised.leadTimeDays === 1 ? '' : 's'})` : ''),
     data: { source, number: input.number, promisedShipDate: order.promisedShipDate, leadTimeDays: promised?.leadTimeDays ?? null },
     actor,
   })
@@ -224,8 +226,11 @@ export async function exportOrdersCsv(db: Db, q: Omit<OrderListQuery, 'page' | '
         description: r.description,
         quantity: String(r.quantity),
         unit_price: money(r.unitPriceCents),
-        status: r.status,
-        source: r.source,
+        status: wordFor(ORDER_STATUS_LABELS, r.status),
+        status_code: r.status,
+        source: wordFor(ORDER_SOURCE_LABELS, r.source),
+        source_code: r.source,
+        payment: wordFor(PAYMENT_STATUS_LABELS, r.paymentStatus),
         line_total: money(r.quantity * r.unitPriceCents),
       },
     })),

@@ -1,6 +1,7 @@
 import { sql } from 'drizzle-orm'
 import { z } from 'zod'
 import { toInches, toMillimetres, type LengthUnit } from '@kitwright/shared/domain/units'
+import { ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import {
   LateOrdersQuerySchema,
   REPORT_TIME_ZONE,
@@ -84,7 +85,8 @@ export const orderStatesReport = define({
     const rows = await selectOrderStates(db)
     return { ...stamp(ctx), rows, total: rows.reduce((s, r) => s + r.count, 0) }
   },
-  csv: (r) => ({ header: ['Order state', 'Orders'], rows: r.rows.map((x) => [x.status, x.count]) }),
+  // The state in words as on screen, its code beside for a program reading the file.
+  csv: (r) => ({ header: ['Order state', 'Orders', 'State code'], rows: r.rows.map((x) => [ORDER_STATUS_LABELS[x.status], x.count, x.status]) }),
 })
 
 export const lateOrdersReport = define({
@@ -95,8 +97,8 @@ export const lateOrdersReport = define({
     return { ...stamp(ctx), today: ctx.today, ...(await selectLateOrders(db, ctx.today, ctx.forExport ? null : q.limit)) }
   },
   csv: (r) => ({
-    header: ['Order', 'Customer', 'State', 'Placed (UTC)', 'Promised ship date', 'Days late', 'Units', 'Units shipped'],
-    rows: r.rows.map((x) => [x.number, x.customerName, x.status, x.placedAt, x.promisedShipDate, x.daysLate, x.units, x.unitsShipped]),
+    header: ['Order', 'Customer', 'State', 'Placed (UTC)', 'Promised ship date', 'Days late', 'Units', 'Units shipped', 'State code'],
+    rows: r.rows.map((x) => [x.number, x.customerName, ORDER_STATUS_LABELS[x.status], x.placedAt, x.promisedShipDate, x.daysLate, x.units, x.unitsShipped, x.status]),
   }),
 })
 

@@ -16,7 +16,7 @@ import { ParsedTextField, type TextParse } from './parsed-text-field'
 type Values = z.input<typeof PartInputSchema>
 
 const EMPTY: Values = {
-  sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, supplier: '', leadTimeDays: null,
+  sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, electrical: false, supplier: '', leadTimeDays: null,
   reorderPoint: 0, reorderQuantity: 0, shelfLocation: '', nominalSize: '', outsideDiameter: null, stickLengths: [],
   hsCode: '', originCountry: '', customsDescription: '',
 }
@@ -110,6 +110,13 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
       <Field label="Weight of one unit (g)" error={errors.weightGrams?.message}>
         <Input inputMode="numeric" aria-invalid={!!errors.weightGrams} {...form.register('weightGrams', { valueAsNumber: true })} />
       </Field>
+      <label className="flex items-start gap-3 md:col-span-2">
+        <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('electrical')} />
+        <span>
+          <span className="block font-bold">Runs on mains power</span>
+          <span className="block text-sm text-stone-600">A pump, a timer, a light: the care sheet of every box holding it carries the electricity-and-water cautions.</span>
+        </span>
+      </label>
       <Field label="Supplier" error={errors.supplier?.message}>
         <Input {...form.register('supplier')} />
       </Field>

@@ -1,3 +1,4 @@
+import { ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Link } from 'react-router-dom'
 import type { LateOrdersReport } from '@kitwright/shared/reports'
 import { Section } from '../../../components/ui/section'
@@ -6,7 +7,6 @@ import { reportCsvHref } from '../api/report-queries'
 import { ExportLink } from './export-link'
 import { NumbersTable } from './numbers-table'
 
-const STATE = { open: 'Open', released: 'Released', partially_shipped: 'Partly shipped', shipped: 'Shipped', cancelled: 'Cancelled' } as const
 
 /** Orders past their promised ship date, oldest promise first. */
 export function LateOrdersPanel({ report }: { report: LateOrdersReport | undefined }) {
@@ -27,7 +27,7 @@ export function LateOrdersPanel({ report }: { report: LateOrdersReport | undefin
               {o.number}
             </Link>,
             o.customerName,
-            STATE[o.status],
+            ORDER_STATUS_LABELS[o.status],
             o.promisedShipDate,
             <span key="d" className="font-bold text-red-700">
               {o.daysLate}

@@ -1,0 +1,70 @@
+import type { OrderStage } from './order-stage'
+import type { MAIL_STATUSES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
+
+/**
+ * The one word for each state, on every screen, CSV file and e-mail. A state that an order's stage
+ * and its stored status share (an open order is "Received") has the same word in both.
+ */
+
+/** What each order status is called. `open` is an order received and not yet released. */
+export const ORDER_STATUS_LABELS: Record<(typeof ORDER_STATUSES)[number], string> = {
+  open: 'Received',
+  released: 'Released',
+  partially_shipped: 'Partly shipped',
+  shipped: 'Shipped',
+  cancelled: 'Cancelled',
+}
+
+/**
+ * What each work order (unit) status is called. `built` is a unit finished at the build bench
+ * (leak-tested) or a spare pack made up: "Built"; "Ready to pack" is the stage of an order whose
+ * units are all built.
+ */
+export const WORK_ORDER_STATUS_LABELS: Record<(typeof WORK_ORDER_STATUSES)[number], string> = {
+  waiting_cut: 'Waiting for cutting',
+  cut: 'Cut',
+  building: 'Building',
+  rework: 'Rework',
+  built: 'Built',
+  packed: 'Packed',
+  shipped: 'Shipped',
+  cancelled: 'Cancelled',
+}
+
+/** What each stage of an order is called; the stages that are also order statuses take the status's word. */
+export const ORDER_STAGE_LABELS: Record<OrderStage, string> = {
+  received: ORDER_STATUS_LABELS.open,
+  released: ORDER_STATUS_LABELS.released,
+  in_production: 'In production',
+  ready_to_pack: 'Ready to pack',
+  partially_shipped: ORDER_STATUS_LABELS.partially_shipped,
+  shipped: ORDER_STATUS_LABELS.shipped,
+  on_hold: 'On hold',
+  cancelled: ORDER_STATUS_LABELS.cancelled,
+}
+
+/** What each payment state the store reports is called. */
+export const PAYMENT_STATUS_LABELS: Record<(typeof PAYMENT_STATUSES)[number], string> = {
+  pending: 'Awaiting payment',
+  paid: 'Paid',
+  refunded: 'Refunded',
+}
+
+/** Where an order came from, in words. */
+export const ORDER_SOURCE_LABELS: Record<(typeof ORDER_SOURCES)[number], string> = {
+  store: 'Web store',
+  csv: 'CSV import',
+  phone: 'Phone or counter',
+}
+
+/** What each mail status is called. */
+export const MAIL_STATUS_LABELS: Record<(typeof MAIL_STATUSES)[number], string> = {
+  queued: 'Waiting to send',
+  sent: 'Sent',
+  failed: 'Gave up',
+}
+
+/** The word for a code read from the database as plain text; an unknown code is shown as it is. */
+export function wordFor<K extends string>(labels: Record<K, string>, code: string): string {
+  return Object.hasOwn(labels, code) ? labels[code as K] : code
+}
