@@ -163,7 +163,8 @@ export function createJobs(options: JobsOptions): Jobs {
     },
     async stop() {
       if (!starting) return
-      await starting.catch(() => {})
+      // A start that failed has nothing to stop; say why it failed rather than drop it.
+      await starting.catch((err: unknown) => logger.warn({ err }, 'the job queue never started; nothing to stop'))
       await boss.stop({ graceful: true, timeout: options.stopTimeoutMs ?? 10_000, wait: true })
       starting = null
     },

@@ -11,7 +11,7 @@ import { addOrderEvent } from '../orders/orders.service'
 import type { Carrier, ShipmentRequest } from '../shipping/carrier'
 import { weighParcel } from './parcel-weights'
 import { buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
-import { findBinByCode, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, openShipmentOf } from './pack.queries'
+import { findBinByCode, findOrder, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, openShipmentOf } from './pack.queries'
 
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
 
@@ -73,8 +73,9 @@ export async function scanItem(deps: PackDeps, orderId: string, code: string, ac
     const data = await loadPackData(tx, orderId)
     const { wo, via } = await resolveCode(tx, code)
     if (wo.orderId !== orderId) {
-      const other = await loadPackData(tx, wo.orderId).catch(() => null)
-      throw new Conflict(`Wrong box: ${via} holds unit ${wo.serial} of order ${other?.order.number ?? 'another order'}, not of order ${data.order.number}. Set it aside and scan this order's bins`)
+      // Only for the other order's number in the answer; if it cannot be read the answer says "another order" and still refuses.
+      const other = await findOrder(tx, wo.orderId)
+      throw new Conflict(`Wrong box: ${via} holds unit ${wo.serial} of order ${other?.number ?? 'another order'}, not of order ${data.order.number}. Set it aside and scan this order's bins`)
     }
     if (wo.status === 'shipped') throw new Conflict(`Unit ${wo.serial} has already shipped`)
     const item = data.items.find((i) => i.key === unitKey(wo.serial) || i.key === packKey(wo.serial))

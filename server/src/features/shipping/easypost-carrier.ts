@@ -135,7 +135,15 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
       } catch (err) {
         if (err instanceof Unavailable) throw err
         // Paid for already (a retry after a lost answer): the label is on the carrier's order.
-        const found = await this.findLabel(carrierRef).catch(() => null)
+        let found: CarrierLabel | null = null
+        try {
+          found = await this.findLabel(carrierRef)
+        } catch (lookup) {
+          // The purchase's own error is the answer; the failed look-up goes with it as its cause.
+          const answer = carrierError(err, 'the label')
+          ;(answer as Error & { cause?: unknown }).cause = lookup
+          throw answer
+        }
         if (found) return found
         throw carrierError(err, 'the label')
       }
