@@ -85,7 +85,7 @@ describe('the pack bench in Chromium', () => {
     await page.getByRole('group', { name: `Parcel 1: ${unit!.wo.serial}, ${pack!.wo.serial}` }).getByLabel(/Scale reading/).fill('16.5')
     await page.getByRole('button', { name: 'Get prices' }).click()
     await page.getByRole('button', { name: /^Buy Ground label · \$\d+\.\d\d · 5 days$/ }).click()
-    const tracking = (await page.getByText(/^Label bought:/).textContent())!.match(/KWT\d+/)![0]
+    const tracking = (await page.getByText(/^Label bought:/).textContent())!.match(/BP\d+/)![0]
     const labelHref = await page.getByRole('link', { name: 'Shipping label (4 × 6 in)' }).getAttribute('href')
     const label = await page.request.get(`${baseUrl}${labelHref}`)
     expect(label.headers()['content-type']).toBe('application/pdf')

@@ -26,6 +26,12 @@ const TrackerSchema = z.object({
 })
 const EventSchema = z.object({ id: z.string(), description: z.string(), result: z.unknown() })
 
+/** A service code as people read it: `ground` → Ground, `next_day_air` → Next day air, `Priority` stays. */
+function serviceName(service: string): string {
+  const words = service.replace(/[_-]+/g, ' ').trim()
+  return words.charAt(0).toUpperCase() + words.slice(1)
+}
+
 /** Money as the API writes it ("12.34") → integer cents. */
 function cents(amount: string): number {
   const value = Number(amount)
@@ -120,7 +126,7 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
     async quote(request) {
       const order = OrderSchema.parse(await call('to quote', () => plain.Order.create(orderParams(request, request.reference))))
       // The order's rates are per service for all its parcels together.
-      return order.rates.map((r) => ({ carrier: r.carrier, service: r.service, name: r.service, days: r.delivery_days ?? 0, chargeCents: cents(r.rate) }))
+      return order.rates.map((r) => ({ carrier: r.carrier, service: r.service, name: serviceName(r.service), days: r.delivery_days ?? 0, chargeCents: cents(r.rate) }))
     },
     async prepareLabel(request, key) {
       const order = OrderSchema.parse(await call('to record the parcels', () => keyed(key).Order.create(orderParams(request, key))))
