@@ -1,6 +1,7 @@
 import { constants } from 'node:zlib'
 import compression from 'compression'
 import express, { Router, type Request, type Response } from 'express'
+import expressStaticGzip from 'express-static-gzip'
 import { NotFound } from './http-errors'
 
 /** 365 days: `max-age=31536000`, the usual value for files that never change (ms's '1y' is 365.25 days). */
@@ -22,8 +23,11 @@ export function compressAnswers() {
 }
 
 /**
- * Serves the built client. Vite names every file under /assets by a hash of its contents, so a
- * browser may keep them for a year without asking again (a new build has new names); a missing one
+ * Serves the built client. Its scripts and styles come with brotli (quality 11) and gzip copies
+ * written at build time (client/vite.config.ts): the browser gets the one it accepts, and the
+ * middleware above compresses only what has no copy. Vite names every file under /assets by a hash
+ * of its contents, so a browser may keep them for a year without asking again (a new build has new
+ * names); a missing one
  * is a 404, never the app's page (a script tag must not get HTML). The app's page itself
  * (index.html, also the answer to every client-side route) is `no-cache`: the browser checks it on
  * every load, so a new build reaches every tablet at its next load.
@@ -31,7 +35,15 @@ export function compressAnswers() {
 export function clientFiles(dist: string) {
   const router = Router()
   const noCache = (res: Response) => res.setHeader('Cache-Control', 'no-cache')
-  router.use('/assets', express.static(`${dist}/assets`, { index: false, immutable: true, maxAge: ONE_YEAR_MS, redirect: false }))
+  router.use(
+    '/assets',
+    expressStaticGzip(`${dist}/assets`, {
+      enableBrotli: true,
+      orderPreference: ['br', 'gzip'],
+      index: false,
+      serveStatic: { index: false, immutable: true, maxAge: ONE_YEAR_MS, redirect: false },
+    }),
+  )
   router.use('/assets', () => {
     throw new NotFound('No such file in this build of the app')
   })
