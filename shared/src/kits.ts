@@ -127,6 +127,14 @@ export type RevisionContent = z.infer<typeof RevisionContentSchema>
 /** Everything a draft revision holds, as a form holds it before parsing. */
 export type RevisionContentDraft = z.input<typeof RevisionContentSchema>
 
+/** A kit's list price in cents, or null when it has none. */
+const KitPriceSchema = z
+  .number({ error: 'Enter the price in cents, e.g. 18900 for $189.00' })
+  .int('Enter the price in whole cents')
+  .min(0, 'A price cannot be negative')
+  .max(100_000_000, 'That price is too large; check it')
+  .nullable()
+
 /** Create a kit; it starts with an empty draft revision A. */
 export const CreateKitSchema = z
   .object({
@@ -134,10 +142,15 @@ export const CreateKitSchema = z
     name: Text(120, 'a name'),
     storeProductId: OptionalText(80),
     description: OptionalText(2000),
+    priceCents: KitPriceSchema.optional(),
   })
   .strict()
 /** Create a kit. */
 export type CreateKit = z.infer<typeof CreateKitSchema>
+
+/** Change a kit's list price (null: no list price; phone orders then start with an empty price). */
+export const UpdateKitPriceSchema = z.object({ priceCents: KitPriceSchema }).strict()
+export type UpdateKitPrice = z.infer<typeof UpdateKitPriceSchema>
 
 /** A revision in a kit's list of revisions. */
 export const RevisionSummarySchema = z.object({
@@ -155,6 +168,8 @@ export const KitSchema = z.object({
   name: z.string(),
   storeProductId: z.string().nullable(),
   description: z.string().nullable(),
+  /** List price in cents; a phone order's unit price starts from it. */
+  priceCents: z.number().int().nullable(),
   revisions: z.array(RevisionSummarySchema),
 })
 /** A kit with its revisions. */

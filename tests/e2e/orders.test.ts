@@ -28,7 +28,7 @@ function orderRow(number: string) {
   return ordersTable().getByRole('row').filter({ has: page.getByRole('link', { name: number, exact: true }) })
 }
 
-async function enterPhoneOrder(number: string, kitSku: string, quantity: number) {
+async function enterPhoneOrder(number: string, kitSku: string, quantity: number, price: string | null = '129.00') {
   await page.goto(`${baseUrl}/orders/new`)
   await page.getByRole('heading', { name: 'New phone order' }).waitFor()
   await page.getByLabel('Order number').fill(number)
@@ -43,7 +43,7 @@ async function enterPhoneOrder(number: string, kitSku: string, quantity: number)
   await shipTo.getByLabel('Postal code').fill('30301')
   await page.getByLabel('Kit, line 1').selectOption(kitSku)
   await page.getByLabel('Quantity').fill(String(quantity))
-  await page.getByLabel('Unit price ($)').fill('129.00')
+  if (price !== null) await page.getByLabel('Unit price ($)').fill(price)
   await page.getByRole('button', { name: 'Save order' }).click()
 }
 
@@ -178,5 +178,31 @@ describe('orders, in Chromium', () => {
     await shot('orders-release-summary')
     await summary.getByRole('button', { name: 'Close' }).click()
     await summary.waitFor({ state: 'detached' })
+  })
+  it('starts the unit price from the kit, and takes a phone payment in two parts until the order is paid', async () => {
+    // The demo sprayer pack's list price is $18.00 (invented demo data); 2 packs = $36.00.
+    await page.goto(`${baseUrl}/orders/new`)
+    await page.getByLabel('Kit, line 1').selectOption('MW-SPARE-SPR6')
+    await expect.poll(() => page.getByLabel('Unit price ($)').inputValue()).toBe('18.00')
+    await enterPhoneOrder('P-PAY-1', 'MW-SPARE-SPR6', 2, null)
+    await page.getByRole('heading', { name: 'Order P-PAY-1' }).waitFor()
+    const payment = page.getByRole('region', { name: 'Payment' })
+    await payment.getByText('$36.00 due').waitFor()
+
+    await payment.getByLabel('How they paid').selectOption('cash')
+    await payment.getByLabel('Amount ($)').fill('20')
+    await payment.getByRole('button', { name: 'Record payment' }).click()
+    await payment.getByText('$16.00 due').waitFor()
+    // Too much is refused with the amount that may be entered, and nothing is recorded.
+    await payment.getByLabel('Amount ($)').fill('50.00')
+    await payment.getByRole('button', { name: 'Record payment' }).click()
+    await payment.getByText('Order P-PAY-1 has $16.00 due; enter at most that').waitFor()
+    // An empty amount takes what is due.
+    await payment.getByLabel('Amount ($)').fill('')
+    await payment.getByRole('button', { name: 'Record payment' }).click()
+    await payment.getByText('nothing due').waitFor()
+    expect(await payment.getByRole('list', { name: 'Payments received' }).getByRole('listitem').count()).toBe(2)
+    await page.getByRole('list', { name: 'Timeline' }).getByText(/the order is paid in full/).waitFor()
+    await shot('order-payment')
   })
 })

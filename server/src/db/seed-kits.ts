@@ -136,6 +136,7 @@ export async function seedDemoKits(db: Db, owner: SessionUser) {
       name: 'Grow tote kit, 12 sites',
       storeProductId: 'mw-store-1012',
       description: 'A 27 gal tote with a 12-sprayer manifold, pump, net cups and collars.',
+      priceCents: 18900, // invented demo prices
     })
     const revA = kit.revisions[0]!.id
     await saveRevision(db, revA, manifoldContent(sku, DEMO_TOTE_12_REV_A_FRAME, DEMO_TOTE_12_REV_A_ENCLOSURE, 'tote27A', 12, 9, 'cartonLarge', 40, 'First release.'))
@@ -155,6 +156,7 @@ export async function seedDemoKits(db: Db, owner: SessionUser) {
       name: 'Compact grow tote kit, 6 sites',
       storeProductId: 'mw-store-1006',
       description: 'A 10 gal tote with a 6-sprayer manifold for a windowsill or a shelf.',
+      priceCents: 12900,
     })
     const rev = kit.revisions[0]!.id
     await saveRevision(db, rev, manifoldContent(sku, DEMO_COMPACT_6_FRAME, DEMO_COMPACT_6_ENCLOSURE, 'tote10', 6, 3, 'cartonSmall', 15, 'First release.'))
@@ -162,12 +164,12 @@ export async function seedDemoKits(db: Db, owner: SessionUser) {
   }
 
   const packs = [
-    { kitSku: 'MW-SPARE-SPR6', name: 'Spare sprayer pack (6)', storeProductId: 'mw-store-2006', lines: [['sprayer', 6]] as const },
-    { kitSku: 'MW-SPARE-CUP12', name: 'Spare cups and collars pack (12)', storeProductId: 'mw-store-2012', lines: [['netCup', 12], ['collar', 12]] as const },
+    { kitSku: 'MW-SPARE-SPR6', name: 'Spare sprayer pack (6)', storeProductId: 'mw-store-2006', priceCents: 1800, lines: [['sprayer', 6]] as const },
+    { kitSku: 'MW-SPARE-CUP12', name: 'Spare cups and collars pack (12)', storeProductId: 'mw-store-2012', priceCents: 1400, lines: [['netCup', 12], ['collar', 12]] as const },
   ]
   for (const pack of packs) {
     if (await exists(pack.kitSku)) continue
-    const kit = await createKit(db, { sku: pack.kitSku, name: pack.name, storeProductId: pack.storeProductId, description: null })
+    const kit = await createKit(db, { sku: pack.kitSku, name: pack.name, storeProductId: pack.storeProductId, description: null, priceCents: pack.priceCents })
     const rev = kit.revisions[0]!.id
     await saveRevision(db, rev, {
       notes: 'Packed at the pack bench; no build.',

@@ -12,6 +12,7 @@ export function toKit(row: KitRow & { revisions: KitRevisionRow[] }): Kit {
     name: row.name,
     storeProductId: row.storeProductId,
     description: row.description,
+    priceCents: row.priceCents,
     revisions: row.revisions.map((r) => ({
       id: r.id,
       code: r.code,

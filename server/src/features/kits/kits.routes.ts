@@ -1,11 +1,12 @@
 import { z } from 'zod'
-import { CreateKitSchema, NewRevisionSchema, RevisionContentSchema } from '@kitwright/shared/kits'
+import { formatMoney } from '@kitwright/shared/money'
+import { CreateKitSchema, NewRevisionSchema, RevisionContentSchema, UpdateKitPriceSchema } from '@kitwright/shared/kits'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
-import { createKit, getKit, getRevision, listKits, newRevision, releaseRevision, retireRevision, saveRevision } from './kits.service'
+import { createKit, getKit, setKitPrice, getRevision, listKits, newRevision, releaseRevision, retireRevision, saveRevision } from './kits.service'
 
 const catalogEditors = ['admin', 'planner'] as const
 
@@ -22,6 +23,13 @@ export function kitsRouter(deps: Deps, routes: RouteTable) {
   })
   r.get('/:id', 'signed-in', async (req, res) => {
     res.json(await getKit(deps.db, IdParamsSchema.parse(req.params).id))
+  })
+  r.put('/:id/price', catalogEditors, async (req, res) => {
+    const { id } = IdParamsSchema.parse(req.params)
+    const { priceCents } = UpdateKitPriceSchema.parse(req.body)
+    const kit = await setKitPrice(deps.db, id, priceCents)
+    await recordAudit(deps.db, auditContext(req), { action: 'kit.price', entityType: 'kit', entityId: id, summary: `Set the list price of ${kit.sku} to ${priceCents === null ? 'none' : formatMoney(priceCents)}` })
+    res.json(kit)
   })
   r.post('/:id/revisions', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)

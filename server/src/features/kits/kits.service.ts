@@ -35,6 +35,12 @@ export async function createKit(db: Db, input: CreateKit): Promise<Kit> {
   return getKit(db, id)
 }
 
+export async function setKitPrice(db: Db, id: string, priceCents: number | null): Promise<Kit> {
+  const [row] = await db.update(kits).set({ priceCents, updatedAt: new Date() }).where(eq(kits.id, id)).returning({ id: kits.id })
+  if (!row) throw new NotFound('No such kit')
+  return getKit(db, id)
+}
+
 export async function getRevision(db: Db | Tx, id: string): Promise<RevisionDetail> {
   const tree = await loadRevisionTree(db, id)
   if (!tree) throw new NotFound('No such kit revision')

@@ -7,12 +7,14 @@ import { DataTable } from '../../../components/ui/data-table'
 import { paths } from '../../../config/paths'
 import { kitsListOptions } from '../../../features/kits/api/kit-queries'
 import { CreateKitForm } from '../../../features/kits/components/create-kit-form'
+import { KitPriceCell } from '../../../features/kits/components/kit-price-cell'
 
 function getKitColumns(): ColumnDef<Kit, unknown>[] {
   return [
     { accessorKey: 'sku', header: 'SKU' },
     { accessorKey: 'name', header: 'Kit' },
     { accessorKey: 'storeProductId', header: 'Store product', cell: ({ row }) => row.original.storeProductId ?? '—' },
+    { id: 'price', header: 'List price', enableSorting: false, cell: ({ row }) => <KitPriceCell kit={row.original} /> },
     {
       id: 'revisions',
       header: 'Revisions',

@@ -79,3 +79,12 @@ export function useNewRevision() {
     apiFetch(`/kits/${kitId}/revisions`, RevisionDetailSchema, { method: 'POST', body: { copyFrom } }),
   )
 }
+
+/** Sets (or clears, with null) a kit's list price; phone orders start their unit price from it. */
+export function useSetKitPrice() {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: ({ kitId, priceCents }: { kitId: string; priceCents: number | null }) => apiFetch(`/kits/${kitId}/price`, KitSchema, { method: 'PUT', body: { priceCents } }),
+    onSuccess: () => qc.invalidateQueries({ queryKey: kitKeys.all }),
+  })
+}

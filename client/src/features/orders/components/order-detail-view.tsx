@@ -5,6 +5,7 @@ import { OrderActionsPanel } from './order-actions-panel'
 import { OrderStageBadge } from './order-stage-badge'
 import { PaymentText } from './order-status-badge'
 import { OrderTimeline } from './order-timeline'
+import { PaymentPanel } from './payment-panel'
 import { ReleasePanel } from './release-panel'
 
 const SOURCE_WORDS = { store: 'Web store', csv: 'CSV import', phone: 'Phone order' } as const
@@ -119,6 +120,7 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
       </dl>
       {order.note && <p className="rounded-md bg-stone-100 p-3">Note: {order.note}</p>}
       <OrderActionsPanel order={order} />
+      <PaymentPanel order={order} />
       {!order.onHold && <ReleasePanel order={order} />}
       <Section title="Lines" id="order-lines">
         <Lines order={order} />

@@ -1,17 +1,13 @@
 import { useQuery } from '@tanstack/react-query'
-import { useFieldArray, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form'
+import { useEffect, useState } from 'react'
+import { useController, useFieldArray, useWatch, type Control, type FieldErrors, type UseFormRegister } from 'react-hook-form'
+import type { Kit } from '@kitwright/shared/kits'
 import type { NewOrder, NewOrderDraft } from '@kitwright/shared/orders'
 import { Button } from '../../../components/ui/button'
 import { Field, Input, Select } from '../../../components/ui/field'
 import { orderKitsOptions } from '../api/order-queries'
+import { dollarsToCents } from '@kitwright/shared/money'
 import { formatMoney } from './format'
-
-/** Dollars typed into a price box as cents (NaN when unreadable, so the schema says what to fix). */
-export function dollarsToCents(text: unknown): number {
-  if (typeof text === 'number') return text
-  const m = /^\s*\$?\s*(\d{1,7})(?:\.(\d{1,2}))?\s*$/.exec(String(text ?? ''))
-  return m ? Number(m[1]) * 100 + Number((m[2] ?? '').padEnd(2, '0')) : Number.NaN
-}
 
 export const EMPTY_LINE: NewOrderDraft['lines'][number] = { kitSku: '', quantity: 1, unitPriceCents: Number.NaN }
 
@@ -19,6 +15,42 @@ interface Props {
   control: Control<NewOrderDraft, unknown, NewOrder>
   register: UseFormRegister<NewOrderDraft>
   errors: FieldErrors<NewOrderDraft>
+}
+
+/**
+ * The unit price box: dollars as typed, cents in the form. It starts empty (or at the chosen kit's
+ * list price) and follows the kit while the planner has not typed a price of their own.
+ */
+function UnitPriceInput({ control, index, kit, error }: { control: Control<NewOrderDraft, unknown, NewOrder>; index: number; kit: Kit | undefined; error?: string }) {
+  const { field } = useController({ control, name: `lines.${index}.unitPriceCents` })
+  const [text, setText] = useState(() => (Number.isFinite(field.value) ? (field.value / 100).toFixed(2) : ''))
+  const [typed, setTyped] = useState(false)
+  const listPrice = kit?.priceCents ?? null
+  const { onChange } = field
+  // A kit chosen and no price typed yet: start from its list price.
+  useEffect(() => {
+    if (typed || listPrice === null) return
+    setText((listPrice / 100).toFixed(2))
+    onChange(listPrice)
+  }, [typed, listPrice, onChange])
+  return (
+    <Field label="Unit price ($)" error={error} hint={kit?.priceCents != null ? `List price ${formatMoney(kit.priceCents)}` : undefined}>
+      <Input
+        inputMode="decimal"
+        placeholder="189.00"
+        aria-invalid={!!error}
+        name={field.name}
+        ref={field.ref}
+        value={text}
+        onBlur={field.onBlur}
+        onChange={(e) => {
+          setTyped(true)
+          setText(e.target.value)
+          field.onChange(dollarsToCents(e.target.value))
+        }}
+      />
+    </Field>
+  )
 }
 
 /** The lines of a phone order: a kit, how many, and the price agreed, one row each. */
@@ -47,9 +79,7 @@ export function OrderLinesEditor({ control, register, errors }: Props) {
             <Field label="Quantity" error={e?.quantity?.message}>
               <Input type="number" min={1} inputMode="numeric" aria-invalid={!!e?.quantity} {...register(`lines.${i}.quantity`, { valueAsNumber: true })} />
             </Field>
-            <Field label="Unit price ($)" error={e?.unitPriceCents?.message}>
-              <Input inputMode="decimal" placeholder="189.00" aria-invalid={!!e?.unitPriceCents} {...register(`lines.${i}.unitPriceCents`, { setValueAs: dollarsToCents })} />
-            </Field>
+            <UnitPriceInput control={control} index={i} kit={(kits.data ?? []).find((k) => k.sku === watched?.[i]?.kitSku)} error={e?.unitPriceCents?.message} />
             <Button variant="ghost" className="mt-6" disabled={lines.fields.length === 1} onClick={() => lines.remove(i)} aria-label={`Remove line ${i + 1}`}>
               Remove
             </Button>
