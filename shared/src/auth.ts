@@ -14,13 +14,27 @@ const EmailSchema = z.string().trim().toLowerCase().email('Enter an e-mail addre
 
 /** Sign in with e-mail and password. */
 export const PasswordSignInSchema = z.object({ email: EmailSchema, password: z.string().min(1, 'Enter your password') }).strict()
-/** Sign in at a bench with e-mail and PIN. */
+/** Sign in at a bench with e-mail and PIN (a bench PC with a keyboard). */
 export const PinSignInSchema = z.object({ email: EmailSchema, pin: PinSchema }).strict()
+/** Sign in at a bench tablet: the name picked from the bench's list, and the PIN. No e-mail. */
+export const BenchPinSignInSchema = z.object({ userId: z.string().uuid('Pick your name from the list'), pin: PinSchema }).strict()
 
-/** Sign in with a password, or at a bench with a PIN. */
-export const SignInSchema = z.union([PasswordSignInSchema, PinSignInSchema])
+/** Sign in with a password, or at a bench with a PIN (by name or by e-mail). */
+export const SignInSchema = z.union([PasswordSignInSchema, PinSignInSchema, BenchPinSignInSchema])
 /** Sign in with a password, or at a bench with a PIN. */
 export type SignIn = z.infer<typeof SignInSchema>
+
+/** The benches a tablet can stand at. */
+export const BENCH_DEVICES = ['cut', 'build', 'pack'] as const
+/** A bench a tablet stands at. */
+export type BenchDevice = (typeof BENCH_DEVICES)[number]
+
+/** `GET /api/auth/bench-people?bench=`: which bench's people to list (omitted: every bench role). */
+export const BenchPeopleQuerySchema = z.object({ bench: z.enum(BENCH_DEVICES, { error: 'Choose the cut, build or pack bench' }).optional() })
+/** One name on a bench's sign-in screen: the display name and the id to sign in with, nothing else. */
+export const BenchPersonSchema = z.object({ id: z.string().uuid(), name: z.string() })
+/** One name on a bench's sign-in screen. */
+export type BenchPerson = z.infer<typeof BenchPersonSchema>
 
 /** The signed-in user as the API shows them. */
 export const MeSchema = z.object({

@@ -1,10 +1,10 @@
 import { SignJWT } from 'jose'
 import request from 'supertest'
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
-import { eq } from 'drizzle-orm'
+import { and, eq } from 'drizzle-orm'
 import { MeSchema, SessionSchema } from '@kitwright/shared/auth'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
-import { signInFailures, users } from '../../server/src/db/schema/index'
+import { auditEvents, signInFailures, users } from '../../server/src/db/schema/index'
 import { SESSION_COOKIE } from '../../server/src/lib/auth'
 import { MAX_FAILURES } from '../../server/src/features/auth/sign-in-throttle'
 import { buildApp, signedInAs, TEST_TOKENS } from '../support/app'
@@ -180,5 +180,64 @@ describe('throttling repeated failures', () => {
     expect(ok.status).toBe(200)
     const left = await t.db.select().from(signInFailures).where(eq(signInFailures.email, user.email))
     expect(left).toHaveLength(0)
+  })
+})
+
+describe('signing in at a bench tablet by name and PIN', () => {
+  it('lists the display names of a bench’s people with a PIN, and nothing else about them', async () => {
+    const ines = await insertUser(t.db, { role: 'cutter', name: 'Ines Marrow' })
+    const abel = await insertUser(t.db, { role: 'cutter', name: 'Abel Cord' })
+    await insertUser(t.db, { role: 'cutter', name: 'No Pin Yet', pinHash: null })
+    await insertUser(t.db, { role: 'cutter', name: 'Gone Away', active: false })
+    const kofi = await insertUser(t.db, { role: 'assembler', name: 'Kofi Brandt' })
+    await insertUser(t.db, { role: 'planner', name: 'Tomas Quillan' })
+    const cut = await request(app).get('/api/auth/bench-people').query({ bench: 'cut' })
+    expect(cut.status).toBe(200)
+    // Exactly id and name: no e-mail, role or anything else.
+    expect(cut.body).toEqual([
+      { id: abel.id, name: 'Abel Cord' },
+      { id: ines.id, name: 'Ines Marrow' },
+    ])
+    const all = await request(app).get('/api/auth/bench-people')
+    expect((all.body as { name: string }[]).map((p) => p.name)).toEqual(['Abel Cord', 'Ines Marrow', 'Kofi Brandt'])
+    expect(JSON.stringify(all.body)).not.toContain('@')
+    expect((all.body as { id: string }[]).map((p) => p.id)).toContain(kofi.id)
+    const bad = await request(app).get('/api/auth/bench-people').query({ bench: 'office' })
+    expect(bad.status).toBe(400)
+    expect(ApiErrorBodySchema.parse(bad.body).error.fields).toEqual({ bench: 'Choose the cut, build or pack bench' })
+  })
+
+  it('signs in by the picked name and the PIN, and the audit records the bench the tablet is at', async () => {
+    const packer = await insertUser(t.db, { role: 'packer', name: 'Lena Okafor-Hale' })
+    const res = await request(app).post('/api/auth/sign-in').set('x-kitwright-bench', 'pack').send({ userId: packer.id, pin: TEST_PIN })
+    expect(res.status).toBe(200)
+    expect(MeSchema.parse(res.body)).toMatchObject({ id: packer.id, role: 'packer' })
+    expect(sessionCookie(res)).toBeDefined()
+    const [event] = await t.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'auth.sign_in'), eq(auditEvents.actorId, packer.id)))
+    expect(event).toMatchObject({ bench: 'pack', summary: 'Lena Okafor-Hale signed in with a bench PIN' })
+  })
+
+  it('refuses a wrong PIN naming the person, never their e-mail, and throttles by person and device as the e-mail sign-in does', async () => {
+    const user = await insertUser(t.db, { role: 'assembler', name: 'Kofi Brandt' })
+    const wrong = await request(app).post('/api/auth/sign-in').send({ userId: user.id, pin: '0000' })
+    expect(wrong.status).toBe(401)
+    expect(ApiErrorBodySchema.parse(wrong.body).error.message).toBe("That is not Kofi Brandt's PIN; try again")
+    expect(sessionCookie(wrong)).toBeUndefined()
+    // The failures by name and by e-mail count together: one account, one device.
+    for (let i = 1; i < MAX_FAILURES; i++) {
+      const body = i % 2 ? { email: user.email, pin: '0000' } : { userId: user.id, pin: '0000' }
+      expect((await request(app).post('/api/auth/sign-in').send(body)).status).toBe(401)
+    }
+    const throttled = await request(app).post('/api/auth/sign-in').send({ userId: user.id, pin: TEST_PIN })
+    expect(throttled.status).toBe(429)
+    const message = ApiErrorBodySchema.parse(throttled.body).error.message
+    expect(message).toMatch(/^Too many failed sign-ins for Kofi Brandt from this device/)
+    expect(message).not.toContain(user.email)
+    expect(await t.db.select().from(signInFailures).where(eq(signInFailures.email, user.email))).toHaveLength(MAX_FAILURES)
+    // An id nobody has, and a bad id, are refused the same careful way.
+    const unknown = await request(app).post('/api/auth/sign-in').send({ userId: '00000000-0000-4000-8000-000000000000', pin: TEST_PIN })
+    expect(unknown.status).toBe(401)
+    expect(ApiErrorBodySchema.parse(unknown.body).error.message).toMatch(/not on this bench any more/)
+    expect((await request(app).post('/api/auth/sign-in').send({ userId: 'kofi', pin: TEST_PIN })).status).toBe(400)
   })
 })

@@ -201,7 +201,7 @@ describe('a tablet on the shop network, in Chromium', () => {
     expect(first!.headers()['strict-transport-security']).toBeUndefined()
     expect(first!.headers()['content-security-policy']).not.toContain('upgrade-insecure-requests')
     expect(await page.getByRole('tab', { name: 'Bench PIN' }).getAttribute('aria-selected')).toBe('true')
-    await page.getByLabel('E-mail').fill(assembler.email)
+    await page.getByRole('group', { name: 'Your name' }).getByRole('button', { name: assembler.name, exact: true }).click()
     await page.getByLabel('Bench PIN').fill(assembler.pin!)
     await page.getByRole('button', { name: 'Sign in at the bench' }).click()
     await page.getByRole('heading', { name: 'Build bench' }).waitFor()

@@ -1,5 +1,6 @@
 import type { z } from 'zod'
 import { ApiErrorBodySchema, type ApiErrorBody } from '@kitwright/shared/errors'
+import { deviceBench } from './bench-device'
 
 /** A non-2xx answer from the API, with the server's message and per-field hints. */
 export class ApiError extends Error {
@@ -11,10 +12,13 @@ export class ApiError extends Error {
   }
 }
 
-/** Which screen a request comes from, for the audit trail: a bench page, or the office. */
+/**
+ * Where a request comes from, for the audit trail: a bench page, else the bench this device
+ * stands at (its sign-in screen, the build record opened at the bench), else the office.
+ */
 function benchOfPage(): string {
   const m = /^\/bench\/(cut|build|pack)\b/.exec(window.location.pathname)
-  return m ? m[1]! : 'office'
+  return m ? m[1]! : (deviceBench() ?? 'office')
 }
 
 /** The only caller of fetch: throws ApiError on a non-2xx and parses the JSON with `schema`. */

@@ -7,7 +7,8 @@ import { TooManyRequests } from '../../lib/http-errors'
 export const MAX_FAILURES = 5
 export const WINDOW_MINUTES = 15
 
-export async function assertNotThrottled(db: Db, email: string, address: string, now = new Date()) {
+/** `who` names the account in the message: the e-mail, or the display name where the screen shows names only. */
+export async function assertNotThrottled(db: Db, email: string, address: string, now = new Date(), who = email) {
   const since = new Date(now.getTime() - WINDOW_MINUTES * 60_000)
   const [row] = await db
     .select({ failures: count(), oldest: min(signInFailures.failedAt) })
@@ -17,7 +18,7 @@ export async function assertNotThrottled(db: Db, email: string, address: string,
     const waitMs = row.oldest.getTime() + WINDOW_MINUTES * 60_000 - now.getTime()
     const minutes = Math.max(1, Math.ceil(waitMs / 60_000))
     throw new TooManyRequests(
-      `Too many failed sign-ins for ${email} from this device. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask the owner to reset your password or PIN.`,
+      `Too many failed sign-ins for ${who} from this device. Try again in ${minutes} minute${minutes === 1 ? '' : 's'}, or ask the owner to reset your password or PIN.`,
     )
   }
 }

@@ -2,6 +2,7 @@ import { useQuery, useQueryClient } from '@tanstack/react-query'
 import { Link, useSearchParams } from 'react-router-dom'
 import { Button } from '../../../components/ui/button'
 import { ScanField } from '../../../components/ui/scan-field'
+import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
 import { paths } from '../../../config/paths'
 import { buildLookupOptions, buildWorklistOptions } from '../../../features/build-bench/api/build-queries'
@@ -31,6 +32,7 @@ export function Component() {
       <div className="flex flex-wrap items-end gap-4">
         <h1 className="text-4xl font-bold">Build bench</h1>
         <ScanField label="Scan the bin, or type the serial" className="min-w-72 flex-1" onScan={open} />
+        <BenchDeviceToggle bench="build" />
       </div>
       {code !== '' && (
         <Button size="bench" variant="secondary" onClick={() => setSearch({})}>

@@ -3,6 +3,7 @@ import { useEffect, useState } from 'react'
 import { useSearchParams } from 'react-router-dom'
 import { Button } from '../../../components/ui/button'
 import { Caution } from '../../../components/ui/section'
+import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
 import { benchCutSheetHref, benchRunOptions } from '../../../features/cut-bench/api/cut-bench-queries'
 import { cutWorklistOptions } from '../../../features/cut-bench/api/cut-worklist-queries'
@@ -68,7 +69,10 @@ export function Component() {
   }, [runId, only, setParams])
   return (
     <div className="space-y-4 text-lg">
-      <h1 className="text-4xl font-bold">Cut bench</h1>
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <h1 className="text-4xl font-bold">Cut bench</h1>
+        <BenchDeviceToggle bench="cut" />
+      </div>
       {runs.data?.length === 0 && !params.get('run') && <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">No cut run is published. The planner publishes one from the cut runs page.</p>}
       {runs.isError && <p role="alert" className="text-xl text-red-700">{runs.error.message}</p>}
       {(runs.data?.length ?? 0) > 1 && (

@@ -15,6 +15,7 @@ import { ParcelsPanel } from '../../../features/pack-bench/components/parcels-pa
 import { PartialApproval } from '../../../features/pack-bench/components/partial-approval'
 import { PrintLinks } from '../../../features/pack-bench/components/print-links'
 import { packWorklistOptions } from '../../../features/pack-bench/api/pack-worklist-queries'
+import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
 
 export function Component() {
@@ -62,7 +63,10 @@ export function Component() {
   const packing = view && (view.shipment === null || view.shipment.status === 'packing')
   return (
     <div className="space-y-4 text-lg">
-      <h1 className="text-4xl font-bold">Pack bench</h1>
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <h1 className="text-4xl font-bold">Pack bench</h1>
+        <BenchDeviceToggle bench="pack" />
+      </div>
       <ScanField label={view && !shipped ? `Scan each unit's bin or serial for order ${view.order.number}` : 'Scan a bin or serial to open its order'} onScan={onScan} />
       {problem && (
         <p role="alert" className="rounded-lg border-4 border-red-700 bg-red-50 p-4 text-2xl font-bold text-red-900">

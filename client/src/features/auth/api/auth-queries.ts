@@ -1,6 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import { z } from 'zod'
-import { MeSchema, SessionSchema, type SignIn } from '@kitwright/shared/auth'
+import { BenchPersonSchema, MeSchema, SessionSchema, type BenchDevice, type SignIn } from '@kitwright/shared/auth'
 import { apiFetch } from '../../../lib/api-client'
 
 export const authKeys = {
@@ -13,6 +13,14 @@ export function meOptions() {
     queryKey: authKeys.me,
     queryFn: async ({ signal }) => (await apiFetch('/auth/me', SessionSchema, { signal })).user,
     staleTime: 60_000,
+  })
+}
+
+/** The names on a bench's sign-in screen (every bench's people when the device is no bench). */
+export function benchPeopleOptions(bench: BenchDevice | null) {
+  return queryOptions({
+    queryKey: [...authKeys.me, 'bench-people', bench ?? 'all'] as const,
+    queryFn: ({ signal }) => apiFetch(`/auth/bench-people${bench ? `?bench=${bench}` : ''}`, z.array(BenchPersonSchema), { signal }),
   })
 }
 

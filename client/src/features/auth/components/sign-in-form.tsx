@@ -1,13 +1,15 @@
 import { zodResolver } from '@hookform/resolvers/zod'
 import { useState } from 'react'
 import { useForm } from 'react-hook-form'
-import type { z } from 'zod'
-import { PasswordSignInSchema, PinSignInSchema, type Me } from '@kitwright/shared/auth'
+import { BenchPinSignInSchema, PasswordSignInSchema, type BenchPerson, type Me, type SignIn } from '@kitwright/shared/auth'
 import { Button } from '../../../components/ui/button'
 import { Field, Input } from '../../../components/ui/field'
 import { ApiError } from '../../../lib/api-client'
 import { cn } from '../../../lib/cn'
-import { useSignIn } from '../api/auth-queries'
+import { useQuery } from '@tanstack/react-query'
+import { useDeviceBench } from '../../../components/ui/bench-device-toggle'
+import { BENCH_NAMES } from '../../../lib/bench-device'
+import { benchPeopleOptions, useSignIn } from '../api/auth-queries'
 
 type Mode = 'password' | 'pin'
 
@@ -38,7 +40,7 @@ export function SignInForm({ onSignedIn, initialMode = 'password' }: { onSignedI
 function useSubmit(onSignedIn: (me: Me) => void) {
   const signIn = useSignIn()
   const [error, setError] = useState<string | null>(null)
-  const submit = (input: z.infer<typeof PasswordSignInSchema> | z.infer<typeof PinSignInSchema>) => {
+  const submit = (input: SignIn) => {
     setError(null)
     signIn.mutate(input, {
       onSuccess: onSignedIn,
@@ -77,17 +79,76 @@ function PasswordForm({ onSignedIn }: { onSignedIn: (me: Me) => void }) {
   )
 }
 
+/**
+ * The bench sign-in: pick your name from this bench's people (big buttons, no e-mail), then type
+ * your PIN. On a device that is no bench yet, every bench's people are listed.
+ */
 function PinForm({ onSignedIn }: { onSignedIn: (me: Me) => void }) {
-  const form = useForm({ resolver: zodResolver(PinSignInSchema), defaultValues: { email: '', pin: '' } })
+  const bench = useDeviceBench()
+  const people = useQuery(benchPeopleOptions(bench))
+  const [person, setPerson] = useState<BenchPerson | null>(null)
+  const [pin, setPin] = useState('')
+  const [pinError, setPinError] = useState<string | null>(null)
   const { submit, error, pending } = useSubmit(onSignedIn)
-  const { errors } = form.formState
+  if (!person) {
+    return (
+      <div className="space-y-3">
+        <p className="text-lg font-bold">{bench ? `Who is at the ${BENCH_NAMES[bench]}?` : 'Who are you?'}</p>
+        {people.isError && <FormError error={people.error.message} />}
+        {people.data?.length === 0 && <p>Nobody here has a bench PIN yet; the owner sets PINs on the users page.</p>}
+        <div role="group" aria-label="Your name" className="grid grid-cols-2 gap-2">
+          {people.data?.map((p) => (
+            <button
+              key={p.id}
+              type="button"
+              onClick={() => {
+                setPerson(p)
+                setPin('')
+                setPinError(null)
+              }}
+              className="min-h-16 rounded-md border-2 border-stone-300 bg-white px-3 text-xl font-bold hover:bg-stone-50"
+            >
+              {p.name}
+            </button>
+          ))}
+        </div>
+      </div>
+    )
+  }
   return (
-    <form onSubmit={form.handleSubmit(submit)} className="space-y-4" noValidate>
-      <Field label="E-mail" error={errors.email?.message}>
-        <Input type="email" autoComplete="username" aria-invalid={!!errors.email} {...form.register('email')} />
-      </Field>
-      <Field label="Bench PIN" error={errors.pin?.message}>
-        <Input type="password" inputMode="numeric" autoComplete="off" aria-invalid={!!errors.pin} className="h-14 text-2xl tracking-widest" {...form.register('pin')} />
+    <form
+      className="space-y-4"
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault()
+        const parsed = BenchPinSignInSchema.safeParse({ userId: person.id, pin })
+        if (!parsed.success) {
+          setPinError(parsed.error.issues[0]?.message ?? 'A PIN is 4 to 6 digits')
+          return
+        }
+        setPinError(null)
+        submit(parsed.data)
+      }}
+    >
+      <div className="flex items-center justify-between gap-3">
+        <p className="text-xl">
+          Signing in as <strong>{person.name}</strong>
+        </p>
+        <Button variant="secondary" onClick={() => setPerson(null)}>
+          Not me
+        </Button>
+      </div>
+      <Field label="Bench PIN" error={pinError ?? undefined}>
+        <Input
+          type="password"
+          inputMode="numeric"
+          autoComplete="off"
+          autoFocus
+          value={pin}
+          onChange={(e) => setPin(e.target.value)}
+          aria-invalid={!!pinError}
+          className="h-14 text-2xl tracking-widest"
+        />
       </Field>
       <FormError error={error} />
       <Button type="submit" size="bench" className="w-full" disabled={pending}>
