@@ -3,7 +3,7 @@
 // part that runs on mains power. No job workers run here, so each e-mail stays in the outbox as
 // written until the test reads it.
 import { execFileSync } from 'node:child_process'
-import { mkdtempSync, writeFileSync } from 'node:fs'
+import { mkdirSync, mkdtempSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import path from 'node:path'
 import { and, eq } from 'drizzle-orm'
@@ -16,11 +16,12 @@ import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
 import { mailMessages, orders, parts, storeEvents } from '../../server/src/db/schema/index'
 import { processStoreEvent } from '../../server/src/features/webhooks/store-event.processor'
 import { buildApp, signedInAs } from '../support/app'
-import { removeDir } from '../support/decode-barcode'
+import { removeDir, renderPdfPages } from '../support/decode-barcode'
 import { insertPackOrder, receivePlenty } from '../support/pack-factories'
 import { deliver, paidEvent } from '../support/store-webhook'
 import { createTestDb, type TestDb } from '../support/test-db'
 
+const shots = path.resolve(import.meta.dirname, '../.artifacts')
 let t: TestDb
 let built: ReturnType<typeof buildApp>
 type Agent = Awaited<ReturnType<typeof signedInAs>>['agent']
@@ -113,7 +114,8 @@ describe('the care sheet with the packing slip', () => {
     return text.replace(/\s+/g, ' ')
   }
 
-  async function slipOf(lines: Parameters<typeof insertPackOrder>[1]) {
+  /** The slip's words; its pages kept as PNGs in tests/.artifacts for a person to look at. */
+  async function slipOf(lines: Parameters<typeof insertPackOrder>[1], name: string) {
     const { units } = await insertPackOrder(t.db, lines)
     const v = PackViewSchema.parse((await packer.post(`/api/pack/orders/${units[0]!.wo.orderId}/scan`).send({ code: units[0]!.binCode ?? units[0]!.wo.serial })).body)
     const res = await packer
@@ -125,6 +127,10 @@ describe('the care sheet with the packing slip', () => {
         r.on('end', () => cb(null, Buffer.concat(chunks)))
       })
     expect(res.status).toBe(200)
+    const { pages, dir } = renderPdfPages(res.body as Buffer, 100)
+    mkdirSync(shots, { recursive: true })
+    pages.forEach((p, i) => writeFileSync(path.join(shots, `care-sheet-${name}-${i + 1}.png`), p))
+    removeDir(dir)
     return slipText(res.body as Buffer)
   }
 
@@ -137,13 +143,13 @@ describe('the care sheet with the packing slip', () => {
   })
 
   it('prints the mains-power cautions for a tote kit with its pump, and none for a spare-parts pack', async () => {
-    const kit = await slipOf([{ kitSku: 'MW-TOTE-12' }])
+    const kit = await slipOf([{ kitSku: 'MW-TOTE-12' }], 'tote-kit')
     expect(kit).toContain('Care and safety: read before you fill the tote and plug in the pump')
     expect(kit).toMatch(/Electricity and water \(Submersible pump/)
     expect(kit).toMatch(/ground-fault protected outlet/)
     expect(kit).toMatch(/local electrical codes/)
 
-    const spares = await slipOf([{ kitSku: 'MW-SPARE-CUP12' }])
+    const spares = await slipOf([{ kitSku: 'MW-SPARE-CUP12' }], 'spare-pack')
     expect(spares).toContain('Care: read before you fill the tote')
     expect(spares).not.toMatch(/ground-fault|drip loop|Electricity and water|electrical codes|plug in the pump/i)
     // The shop's identity heads the slip: its name, the return address and where to write.
