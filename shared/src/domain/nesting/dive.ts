@@ -13,14 +13,15 @@ import { enumeratePatterns, searchExactCover, solvePatternMip, weightedCost } fr
  * uses whole, or else one stick of the column with the largest LP value; the master stays warm
  * and only its demand rows change. The dive gives up as soon as the LP of what is left, plus what
  * is fixed, cannot beat `incumbentCost`.
- * @returns a plan costing less than `incumbentCost` (in `costs` units), or null
+ * @param goal most the plan may cost (in `costs` units, whole numbers): usually the lower bound
+ * @returns a plan costing at most `goal`, or null
  */
 export function dive(
   highs: Highs,
   problem: CuttingProblem,
   costs: readonly number[],
   first: MasterLp,
-  incumbentCost: number,
+  goal: number,
   deadline: number,
   stats: { lpIterations: number; columns: number; diveSteps: number },
   maxDiscrepancy = DISCREPANCIES,
@@ -34,6 +35,8 @@ export function dive(
   let found: PatternSolution | null = null
   const master = createMaster(highs, problem, costs, first.pool)
   const costOf = (sol: PatternSolution): number => sol.uses.reduce((s, u) => s + (costs[u.pattern.bin] ?? 0) * u.count, 0)
+  // Plans costing at most `goal` are wanted: a branch whose bound exceeds it is dropped.
+  const incumbentCost = goal + 1
   const apply = (p: Pattern, n: number): void => {
     for (let i = 0; i < m; i++) demand[i] = (demand[i] ?? 0) - (p.counts[i] ?? 0) * n
     available[p.bin] = (available[p.bin] ?? 0) - n

@@ -153,9 +153,15 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   }
   const rounded = roundLp(problem, lp, costs)
   if (rounded && better(problem, rounded, incumbent)) incumbent = rounded
-  if (lp.bounded && scaledCost(incumbent) > lowerBound && Date.now() < deadline) {
-    const dived = dive(highs, problem, costs, lp, weightedCost(incumbent, costs), deadline, stats)
-    if (dived && better(problem, dived, incumbent)) incumbent = dived
+  // Dive for a plan at the lower bound; when the dive proves nothing there, one stick above it.
+  for (let goal = lowerBound; lp.bounded && goal < scaledCost(incumbent) && goal <= lowerBound + 1 && Date.now() < deadline; goal++) {
+    const integral = costs.every((c) => Number.isInteger(c))
+    const dived = dive(highs, problem, costs, lp, integral ? goal : weightedCost(incumbent, costs) - 1, deadline, stats)
+    if (dived && better(problem, dived, incumbent)) {
+      incumbent = dived
+      break
+    }
+    if (!integral) break
   }
 
   let timedOut = false
