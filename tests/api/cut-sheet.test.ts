@@ -75,6 +75,9 @@ async function sheet(run: CutRunDetail, paper: string) {
   expect(res.headers['content-type']).toBe('application/pdf')
   // Opens in the browser's viewer, with a name for when it is saved.
   expect(res.headers['content-disposition']).toBe(`inline; filename="cut-sheet-${run.number}-${paper}.pdf"`)
+  // Chrome's PDF viewer is an internal <embed>: a policy with object-src 'none' would block it (crbug.com/271452).
+  expect(res.headers['content-security-policy']).toBe("frame-ancestors 'self'")
+  expect(res.headers['x-content-type-options']).toBe('nosniff')
   const dir = mkdtempSync(path.join(tmpdir(), 'kw-sheet-'))
   const file = path.join(dir, 's.pdf')
   writeFileSync(file, res.body as Buffer)

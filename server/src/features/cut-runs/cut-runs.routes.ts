@@ -20,6 +20,7 @@ import { getShopSettings } from '../settings/settings.service'
 import { assignRunBin, damageStick, tickCut, undoCut } from './cut-bench.service'
 import { cancelCutRun, getCutRun, listCandidates, listCutRuns, planCutRun, publishCutRun, replanCutRun } from './cut-runs.service'
 import { cutSheetPdf } from '../labels/cut-sheet.pdf'
+import { sendPdfInline } from '../labels/pdf-document'
 import { offcutLabel } from './offcut-label'
 import { loadPipeStock } from './pipe-stock'
 import { cutWorklist } from './cut-worklist'
@@ -87,8 +88,8 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
     const run = await getCutRun(deps.db, id)
     const settings = await getShopSettings(deps.db)
     const pdf = await cutSheetPdf(run, { paper, unit: settings.displayUnit, shopName: settings.shopName })
-    // inline: the browser shows the sheet (and prints it from there); the name is used when saved.
-    res.type('application/pdf').set('content-disposition', `inline; filename="cut-sheet-${run.number}-${paper}.pdf"`).send(pdf)
+    // The browser shows the sheet (and prints it from there); the name is used when it is saved.
+    sendPdfInline(res, `cut-sheet-${run.number}-${paper}.pdf`, pdf)
   })
   r.post('/:id/cuts/:cutId/tick', bench, async (req, res) => {
     const { id, cutId } = RunCutParamsSchema.parse(req.params)

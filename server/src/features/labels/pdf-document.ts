@@ -1,4 +1,5 @@
 import { createRequire } from 'node:module'
+import type { Response } from 'express'
 import PDFDocument from 'pdfkit'
 
 const require = createRequire(import.meta.url)
@@ -30,4 +31,14 @@ export function pdfBuffer(doc: PDFKit.PDFDocument): Promise<Buffer> {
     doc.on('error', reject)
     doc.end()
   })
+}
+
+/**
+ * Sends a PDF for the browser to show in its own viewer (Content-Disposition inline, with the name
+ * used when it is saved). The app's CSP has `object-src 'none'`, which stops Chrome's viewer (it
+ * shows the file through an internal <embed>, crbug.com/271452): a PDF answer carries only
+ * `frame-ancestors 'self'` instead; helmet's nosniff and the explicit type still stand.
+ */
+export function sendPdfInline(res: Response, filename: string, pdf: Buffer) {
+  res.type('application/pdf').set('content-disposition', `inline; filename="${filename.replace(/[^\w.-]/g, '-')}"`).set('content-security-policy', "frame-ancestors 'self'").send(pdf)
 }
