@@ -32,9 +32,9 @@ beforeAll(async () => {
 })
 afterAll(() => t.drop())
 
-// Public routes that check a signature of their own (the store webhook) answer an unsigned call with
+// Public routes that check a signature of their own (the store, payment and carrier webhooks) answer an unsigned call with
 // 401; that answer is theirs, not the access guard's, so for them only 403 and 5xx count as failures.
-const SIGNED_PUBLIC_ROUTES = new Set(['post /api/webhooks/store'])
+const SIGNED_PUBLIC_ROUTES = new Set(['post /api/webhooks/store', 'post /api/webhooks/payments', 'post /api/shipments/tracking-events'])
 
 type Caller = Role | 'anonymous'
 const CALLERS: Caller[] = ['anonymous', ...ROLES]
@@ -71,7 +71,7 @@ describe('role matrix: every route, called as anonymous and as every role', () =
     }
     expect(failures).toEqual([])
     expect(built.routes.records.length).toBeGreaterThanOrEqual(6)
-  })
+  }, 120_000) // hundreds of requests (every route × every caller); a budget, not a speed check
 
   it('keeps the admin pages admin-only', () => {
     const adminOnly = built.routes.records.filter((r) => r.path.startsWith('/api/users'))

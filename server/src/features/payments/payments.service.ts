@@ -95,20 +95,20 @@ export async function recordPayment(db: Db, orderId: string, input: RecordPaymen
  * open link for the same amount is sent again rather than replaced.
  */
 export async function sendPaymentLink(deps: Pick<Deps, 'db' | 'jobs' | 'payments' | 'publicUrl' | 'tokens'>, orderId: string, actor: SessionUser, audit: AuditContext) {
-  const service = deps.payments
-  if (!service) throw new HttpError(503, 'unavailable', 'No payment service is set up (PAYMENT_SERVICE_KEY); record the payment by hand instead')
-  const { link, order } = await deps.db.transaction(async (tx) => {
+  const { link, order, service } = await deps.db.transaction(async (tx) => {
     const order = await lockOrder(tx, orderId)
     const refusal = refusePayment(order)
     if (refusal) throw refusal
+    const service = deps.payments
+    if (!service) throw new Conflict('No payment service is set up (PAYMENT_SERVICE_KEY), so no link can be sent; record the payment by hand instead')
     const due = order.totalCents - (await paidSoFar(tx, orderId))
     const [existing] = await tx
       .select()
       .from(paymentLinks)
       .where(and(eq(paymentLinks.orderId, orderId), inArray(paymentLinks.status, ['creating', 'open']), eq(paymentLinks.amountCents, due)))
-    if (existing) return { link: existing, order }
+    if (existing) return { link: existing, order, service }
     const [created] = await tx.insert(paymentLinks).values({ orderId, idempotencyKey: randomUUID(), amountCents: due, createdBy: actor.id }).returning()
-    return { link: created!, order }
+    return { link: created!, order, service }
   })
 
   let open: PaymentLinkRow = link
