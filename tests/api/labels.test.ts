@@ -1,3 +1,4 @@
+import { execFileSync } from 'node:child_process'
 import { and, eq } from 'drizzle-orm'
 import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -82,6 +83,17 @@ describe('buying a label exactly once', () => {
     expect(numbers.every((n) => /^BP\d+$/.test(n ?? ''))).toBe(true)
     expect(new Set(numbers).size).toBe(2)
     expect(labelled.shipment!.trackingNumber).toBe(numbers[0])
+    // The 4 × 6 in label: page N carries parcel N's own tracking number (read back with poppler's pdftotext).
+    const res = await packer.get(`/api/shipments/${labelled.shipment!.id}/label.pdf`).buffer(true).parse((r, cb) => {
+      const chunks: Buffer[] = []
+      r.on('data', (c: Buffer) => chunks.push(c))
+      r.on('end', () => cb(null, Buffer.concat(chunks)))
+    })
+    expect(res.status).toBe(200)
+    const pages = execFileSync('pdftotext', ['-layout', '-', '-'], { input: res.body as Buffer, encoding: 'utf8' }).split('\f')
+    expect(pages[0]).toContain(numbers[0])
+    expect(pages[0]).not.toContain(numbers[1])
+    expect(pages[1]).toContain(numbers[1])
   })
 
   it('finishes a purchase cut short after the carrier sold the label: the retry records that same label, not a second one', async () => {

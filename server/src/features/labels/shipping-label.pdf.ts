@@ -12,7 +12,8 @@ export interface ShippingLabel {
   routingCode: string
   orderNumber: string
   companyPrefixLength: number
-  parcels: { sscc: string; weight: string; contents: string }[]
+  /** Each parcel's own tracking number (labels bought before each parcel had one print the shipment's). */
+  parcels: { sscc: string; weight: string; contents: string; trackingNumber?: string | null }[]
 }
 
 /**
@@ -25,15 +26,16 @@ export function ssccBarcodePng(ssccDigits: string): Promise<Buffer> {
 
 /**
  * The 4 × 6 in shipping label, one page per parcel: ship-from, ship-to, carrier and service, the
- * tracking number (in type and as Code 128), and the parcel's SSCC-18 in GS1-128 with AI (00).
+ * parcel's own tracking number (in type and as Code 128), and the parcel's SSCC-18 in GS1-128 with AI (00).
  */
 export async function shippingLabelPdf(label: ShippingLabel): Promise<Buffer> {
   const doc = createPdf(`Shipping label ${label.trackingNumber}`)
   const W = 288
   const pad = 12
   const inner = W - 2 * pad
-  const tracking = await code128Png(label.trackingNumber, 12)
   for (const [i, parcel] of label.parcels.entries()) {
+    const number = parcel.trackingNumber ?? label.trackingNumber
+    const tracking = await code128Png(number, 12)
     doc.addPage({ size: [288, 432], margin: 0 })
     doc.fillColor('#000000')
     doc.font('bold').fontSize(7).text('FROM', pad, pad)
@@ -52,7 +54,7 @@ export async function shippingLabelPdf(label: ShippingLabel): Promise<Buffer> {
     doc.font('bold').fontSize(12).text(`${label.carrier} · ${label.service.toUpperCase()}`, pad, 176, { width: inner })
     doc.font('body').fontSize(8).text('TRACKING', pad, 194)
     doc.image(tracking, pad, 204, { fit: [inner, 56], align: 'center', valign: 'center' })
-    doc.font('bold').fontSize(12).text(label.trackingNumber, pad, 262, { width: inner, align: 'center' })
+    doc.font('bold').fontSize(12).text(number, pad, 262, { width: inner, align: 'center' })
     doc.moveTo(0, 282).lineTo(W, 282).lineWidth(1.5).stroke()
 
     doc.font('body').fontSize(8).text('SSCC', pad, 287)

@@ -116,6 +116,7 @@ export async function shippingLabel(db: Db, shipmentId: string): Promise<Buffer>
       sscc: p.sscc,
       weight: formatWeight(p.billableGrams, data.settings.displayUnit),
       contents: p.workOrderIds.map((id) => serialOf.get(id) ?? '?').join(', '),
+      trackingNumber: p.trackingNumber,
     })),
   })
 }
