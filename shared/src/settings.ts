@@ -80,7 +80,7 @@ export const ShipFromAddressSchema = z
       .toUpperCase()
       .regex(/^[A-Z]{2}$/, 'Use the two-letter country code (ISO 3166-1 alpha-2), e.g. US, CA, GB'),
     phone: optionalLine('phone number', 40),
-  })
+  }, { error: 'Give the ship-from address (name, street address, city, postal code, country), or null for none' })
   .strict()
 /** The shop's ship-from (and return) address. */
 export type ShipFromAddress = z.infer<typeof ShipFromAddressSchema>
