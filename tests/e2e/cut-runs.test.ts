@@ -74,6 +74,8 @@ describe('cut runs in Chromium', () => {
     await planner.getByRole('button', { name: 'Publish' }).click()
     await planner.getByRole('heading', { name: `Cut run ${runNumber} published` }).waitFor()
     await planner.getByRole('link', { name: 'Cut sheet (Letter)' }).waitFor()
+    // The sheet opens in a new tab (the server sends it inline), not as a download.
+    expect(await planner.getByRole('link', { name: 'Cut sheet (Letter)' }).getAttribute('target')).toBe('_blank')
 
     // The cutter, on a tablet.
     const cutter = await newPage(1024, 1366)
