@@ -47,11 +47,20 @@ export const shopSettings = pgTable(
     autoReleasePaid: boolean().notNull().default(false),
     /** How long the nesting engine may plan one cut run by default (ms); "take longer" on a run passes more. */
     nestingTimeLimitMs: integer().notNull().default(2000),
+    /** The working day for promise dates: its start (hour, UTC) and length; Monday to Friday. */
+    workdayStartHourUtc: integer().notNull().default(8),
+    workdayHours: integer().notNull().default(8),
+    /** Minutes one unit takes at each bench, until the benches' own history says otherwise. */
+    cutMinutesPerUnit: integer().notNull().default(15),
+    buildMinutesPerUnit: integer().notNull().default(60),
+    packMinutesPerUnit: integer().notNull().default(15),
     updatedAt: updatedAt(),
   },
   (t) => [
     check('shop_settings_single_row', sql`${t.id} = 1`),
     check('shop_settings_lead_time_days_range', sql`${t.leadTimeDays} between 0 and 250`),
+    check('shop_settings_workday_range', sql`${t.workdayStartHourUtc} between 0 and 23 and ${t.workdayHours} between 1 and 24`),
+    check('shop_settings_minutes_per_unit_range', sql`${t.cutMinutesPerUnit} between 1 and 1440 and ${t.buildMinutesPerUnit} between 1 and 1440 and ${t.packMinutesPerUnit} between 1 and 1440`),
     check('shop_settings_nesting_time_limit_range', sql`${t.nestingTimeLimitMs} between 500 and 120000`),
   ],
 )
