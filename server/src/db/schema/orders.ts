@@ -146,6 +146,8 @@ export const mailMessages = pgTable(
     subject: text().notNull(),
     text: text().notNull(),
     html: text(),
+    /** Files sent with it (a purchase order's PDF), base64, kept so a retry sends the same bytes. */
+    attachments: jsonb().$type<{ filename: string; contentType: string; contentBase64: string }[]>().notNull().default([]),
     status: mailStatusEnum().notNull().default('queued'),
     attempts: integer().notNull().default(0),
     lastError: text(),

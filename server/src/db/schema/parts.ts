@@ -1,8 +1,9 @@
 import { relations } from 'drizzle-orm'
-import { boolean, check, index, integer, pgEnum, pgTable, text } from 'drizzle-orm/pg-core'
+import { boolean, check, index, integer, pgEnum, pgTable, text, uuid } from 'drizzle-orm/pg-core'
 import { sql } from 'drizzle-orm'
 import { PART_KINDS } from '@kitwright/shared/parts'
 import { createdAt, id, updatedAt } from './columns'
+import { suppliers } from './suppliers'
 
 export const partKindEnum = pgEnum('part_kind', PART_KINDS)
 
@@ -22,7 +23,10 @@ export const parts = pgTable(
     unitCostCents: integer().notNull().default(0),
     /** Weight of one unit (one stick for pipe), in grams; used for shipping weight. */
     weightGrams: integer().notNull().default(0),
+    /** The supplier's name as typed before suppliers were records; kept for the record, no longer edited. */
     supplier: text(),
+    /** Who the shop buys it from (see suppliers); purchase orders from shortages go to them. */
+    supplierId: uuid().references(() => suppliers.id),
     leadTimeDays: integer(),
     reorderPoint: integer().notNull().default(0),
     reorderQuantity: integer().notNull().default(0),
