@@ -136,7 +136,7 @@ describe('the benches on a tablet', () => {
     expect(await leak.getByRole('button', { name: 'Record leak test' }).isDisabled()).toBe(true)
     // Steps go in order.
     const step2 = page.getByRole('listitem', { name: 'Step 2', exact: true })
-    expect(await step2.getByText('After step 1').isVisible()).toBe(true)
+    expect(await step2.getByText('Do step 1 first').isVisible()).toBe(true)
     expect(await step2.getByRole('button', { name: 'Tick step 2' }).isDisabled()).toBe(true)
 
     // Out of limits, typed as a fraction: refused until a reason is given.

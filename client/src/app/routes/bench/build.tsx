@@ -29,11 +29,11 @@ export function Component() {
   }
   return (
     <div className="space-y-6">
-      <div className="flex flex-wrap items-end gap-4">
+      <div className="flex flex-wrap items-center justify-between gap-3">
         <h1 className="text-4xl font-bold">Build bench</h1>
-        <ScanField label="Scan the bin, or type the serial" className="min-w-72 flex-1" onScan={open} />
         <BenchDeviceToggle bench="build" />
       </div>
+      <ScanField label="Scan the bin, or type the serial" onScan={open} />
       {code !== '' && (
         <Button size="bench" variant="secondary" onClick={() => setSearch({})}>
           ◀ Ready to build ({worklist.data?.length ?? '…'})

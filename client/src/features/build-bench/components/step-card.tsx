@@ -153,7 +153,7 @@ export function StepCard({ code, page, step }: { code: string; page: BuildPage; 
           </>
         ) : (
           <>
-            {before.length > 0 && <p className="text-lg text-stone-700">After step{before.length > 1 ? 's' : ''} {before.join(', ')}</p>}
+            {before.length > 0 && <p className="text-lg text-stone-700">Do step {before[0]} first</p>}
             <Button
               size="bench"
               className="ml-auto min-w-40 text-xl"
