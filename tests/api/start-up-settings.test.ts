@@ -110,3 +110,53 @@ describe('the server process', () => {
     expect(badCert.stderr).toContain(`TLS_CERT_FILE: cannot read ${missing} (ENOENT)`)
   }, 60_000)
 })
+
+describe('npm start -- --lan and --https (scripts/lib/network.mjs, scripts/lib/tls.mjs)', () => {
+  interface Plan {
+    host: string
+    publicUrl: string
+    s3Host: string
+    s3PublicUrl?: string
+    reachable: { url: string; note: string }[]
+    certHosts: string[]
+    allowedOrigins: string[]
+  }
+  type PlanInput = { lan: boolean; https: boolean; appPort: number; s3Port: number; env: Record<string, string>; addresses: { name: string; address: string }[]; hostname: string }
+  const shop = { appPort: 3400, s3Port: 54340, addresses: [{ name: 'eth0', address: '192.0.2.2' }, { name: 'wlan0', address: '198.51.100.7' }], hostname: 'shop-pc' }
+
+  it('serves on every network, derives the public addresses from the first network address, and allows only the app origins', async () => {
+    // @ts-expect-error plain JavaScript module of the start-up scripts, without type declarations
+    const { servingPlan } = (await import('../../scripts/lib/network.mjs')) as { servingPlan: (input: PlanInput) => Plan }
+    const lan = servingPlan({ ...shop, lan: true, https: false, env: {} })
+    expect(lan).toMatchObject({ host: '0.0.0.0', publicUrl: 'http://192.0.2.2:3400', s3Host: '0.0.0.0', s3PublicUrl: 'http://192.0.2.2:54340' })
+    expect(lan.reachable.map((r) => r.url)).toEqual(['http://192.0.2.2:3400', 'http://198.51.100.7:3400', 'http://shop-pc:3400', 'http://localhost:3400'])
+    expect(lan.allowedOrigins).toEqual(['http://192.0.2.2:3400', 'http://198.51.100.7:3400', 'http://shop-pc:3400', 'http://localhost:3400', 'http://127.0.0.1:3400'])
+    // Settings win over what is derived.
+    const set = servingPlan({ ...shop, lan: true, https: true, env: { PUBLIC_URL: 'https://kitwright.shop.example', HOST: '192.0.2.2' } })
+    expect(set).toMatchObject({ host: '192.0.2.2', publicUrl: 'https://kitwright.shop.example', s3PublicUrl: 'https://192.0.2.2:54340' })
+    expect(set.certHosts).toEqual(['localhost', '127.0.0.1', 'shop-pc', '192.0.2.2', '198.51.100.7', 'kitwright.shop.example'])
+    // Without --lan: this computer only, as before.
+    expect(servingPlan({ ...shop, lan: false, https: false, env: {} })).toMatchObject({ host: '127.0.0.1', publicUrl: 'http://localhost:3400', s3Host: '127.0.0.1', s3PublicUrl: undefined })
+    // No network address: a message that says what to do.
+    expect(() => servingPlan({ ...shop, addresses: [], lan: true, https: false, env: {} })).toThrow('--lan: this computer has no network address besides loopback (127.0.0.1). Connect it to the shop network')
+  })
+
+  it('makes the authority once, keeps the server certificate while it fits, and reissues it from the same authority when an address changes', () => {
+    const tlsDir = path.join(dir, 'tls')
+    const first = localTls.ensureLocalCertificates(tlsDir, ['localhost', '192.0.2.2'])
+    expect([first.createdCa, first.issued]).toEqual([true, true])
+    const caBefore = readFileSync(first.caFile, 'utf8')
+    const certBefore = readFileSync(first.certFile, 'utf8')
+    const again = localTls.ensureLocalCertificates(tlsDir, ['localhost', '192.0.2.2'])
+    expect([again.createdCa, again.issued]).toEqual([false, false])
+    expect(readFileSync(again.certFile, 'utf8')).toBe(certBefore)
+    const moved = localTls.ensureLocalCertificates(tlsDir, ['localhost', '192.0.2.77'])
+    expect([moved.createdCa, moved.issued]).toEqual([false, true])
+    expect(readFileSync(moved.caFile, 'utf8')).toBe(caBefore)
+    const cert = new X509Certificate(readFileSync(moved.certFile))
+    expect(cert.checkIP('192.0.2.77')).toBe('192.0.2.77')
+    expect(cert.checkIssued(new X509Certificate(caBefore))).toBe(true)
+    // And the start-up check accepts what it made.
+    expect(loadEnv({ ...BASE, TLS_CERT_FILE: moved.certFile, TLS_KEY_FILE: moved.keyFile, TLS_CA_FILE: moved.caFile }).tls).not.toBeNull()
+  })
+})
