@@ -63,6 +63,8 @@ describe('over plain HTTP (a tablet on the shop network, or this computer)', () 
       expect(csp['img-src'], url).toEqual(["'self'", PUBLIC_STORE])
       expect(csp['default-src'], url).toEqual(["'self'"])
       expect(res.headers['x-content-type-options'], url).toBe('nosniff')
+      // Ignored by browsers on an http:// shop address, where Chromium logs an error for it on every page.
+      expect(res.headers['cross-origin-opener-policy'], url).toBeUndefined()
     }
   })
 
@@ -93,6 +95,7 @@ describe('over HTTPS, served by Kitwright itself (npm start -- --https)', () => 
     expect(res.status).toBe(200)
     expect(res.headers['strict-transport-security']).toMatch(/^max-age=\d{7,}; includeSubDomains$/)
     expect(directives(res)['upgrade-insecure-requests']).toEqual([])
+    expect(res.headers['cross-origin-opener-policy']).toBe('same-origin')
     expect(directives(res)['connect-src']).toEqual(["'self'", new URL(testStorageConfig().endpoint!).origin])
   })
 
