@@ -17,8 +17,13 @@ const ONE_FORMAT = /^[A-Z][a-z]{2} \d{1,2}, \d{4}, \d{1,2}:\d{2}\s?[AP]M$/
 
 describe('the shop identity on the settings page, in Chromium', () => {
   it('shows the public address read-only, refuses a bad reply-to with what to fix, and saves a new sender', async () => {
+    const problems: string[] = []
+    page.on('pageerror', (e) => problems.push(e.message))
     await signIn(page, baseUrl, admin.email, admin.password)
+    await page.getByRole('heading', { name: /Good day/ }).waitFor()
     await page.goto(`${baseUrl}/admin/settings`)
+    await page.getByRole('heading', { name: 'Settings' }).waitFor()
+    expect(problems).toEqual([])
     const form = page.getByRole('form', { name: 'Shop identity' })
     await form.getByLabel('Sender e-mail').waitFor()
     expect(await form.getByLabel('Sender e-mail').inputValue()).toBe('orders@mistwell.example')

@@ -97,7 +97,7 @@ export function IdentityForm({ identity }: { identity: ShopIdentity }) {
             <Input type="email" {...form.register('mailFromAddress')} aria-invalid={!!errors.mailFromAddress} />
           </Field>
         </div>
-        <Field label="Reply-to e-mail" error={errors.replyToAddress?.message} hint="Where customers' replies go; blank: to the sender e-mail.">
+        <Field label="Reply-to e-mail" error={errors.replyToAddress?.message} hint="Where customers' replies go; blank: to the From address.">
           <Input type="email" {...form.register('replyToAddress')} aria-invalid={!!errors.replyToAddress} />
         </Field>
       </fieldset>
