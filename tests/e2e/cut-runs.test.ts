@@ -70,6 +70,9 @@ describe('cut runs in Chromium', () => {
     const runNumber = /CR-\d{4}/.exec(heading!)![0]
     expect(await planner.getByRole('img', { name: /^(Stick|Offcut) of / }).count()).toBeGreaterThan(0)
     await planner.getByText('Gap to the lower bound').waitFor()
+    // Sticks and saw set-ups, with what the bound proves.
+    const figures = (await planner.getByLabel('Sticks and patterns').textContent())!
+    expect(figures).toMatch(/^\d+ sticks? in \d+ patterns? \(saw set-ups\)\. (Proven best|Every plan needs at least \d+ sticks)/)
     await planner.screenshot({ path: path.join(shots, 'cut-run-draft.png'), fullPage: true })
     await planner.getByRole('button', { name: 'Publish' }).click()
     await planner.getByRole('heading', { name: `Cut run ${runNumber} published` }).waitFor()

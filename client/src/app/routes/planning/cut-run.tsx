@@ -80,7 +80,7 @@ export function Component() {
       </div>
       {replan.isPending && <PlanProgress limitSeconds={LONGER_SECONDS} />}
       <p className="text-lg" aria-label="Sticks and patterns">
-        <strong>{r.totals.sticksUsed}</strong> sticks in <strong>{patterns}</strong> pattern{patterns === 1 ? '' : 's'} (saw set-ups).{' '}
+        <strong>{r.totals.sticksUsed}</strong> stick{r.totals.sticksUsed === 1 ? '' : 's'} in <strong>{patterns}</strong> pattern{patterns === 1 ? '' : 's'} (saw set-ups).{' '}
         {r.planStatus === 'optimal'
           ? 'Proven best: no plan uses less stock.'
           : `Every plan needs at least ${r.totals.lowerBoundSticks} sticks${r.planStatus === 'time-limit' ? '; the engine stopped at its time limit' : ''}${r.status === 'draft' ? ': take longer to look for a better plan' : ''}.`}
