@@ -45,7 +45,7 @@ export const ORDER_STAGE_LABELS: Record<OrderStage, string> = {
 
 /** What each payment state the store reports is called. */
 export const PAYMENT_STATUS_LABELS: Record<(typeof PAYMENT_STATUSES)[number], string> = {
-  pending: 'Awaiting payment',
+  pending: 'Payment pending',
   paid: 'Paid',
   refunded: 'Refunded',
 }

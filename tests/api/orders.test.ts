@@ -244,7 +244,7 @@ describe('CSV export of orders', () => {
     ])
     expect(parsed.data[0]).toMatchObject({ kit_sku: 'MW-TOTE-6C', quantity: '1', unit_price: '129.00' })
     // States in the words shown on screen, the codes beside them for a program reading the file.
-    expect(parsed.data[0]).toMatchObject({ status: 'Received', status_code: 'open', source: 'Phone or counter', source_code: 'phone', payment: 'Awaiting payment', payment_status: 'pending' })
+    expect(parsed.data[0]).toMatchObject({ status: 'Received', status_code: 'open', source: 'Phone or counter', source_code: 'phone', payment: 'Payment pending', payment_status: 'pending' })
     for (const row of parsed.data) for (const word of [row.status, row.source, row.payment]) expect(word).not.toMatch(/_|^[a-z]/)
 
     const back = await planner.agent.post('/api/orders/import').send({ csv: res.text })
