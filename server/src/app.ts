@@ -12,6 +12,7 @@ import { mailRouter } from './features/mail/mail.routes'
 import { ordersRouter } from './features/orders/orders.routes'
 import { orderPaymentsRouter, paymentsPublicRouter } from './features/payments/payments.routes'
 import { partsRouter } from './features/parts/parts.routes'
+import { purchaseOrdersRouter, suppliersRouter } from './features/purchasing/purchasing.routes'
 import { scanRouter } from './features/scan/scan.routes'
 import { settingsRouter } from './features/settings/settings.routes'
 import { stockRouter } from './features/stock/stock.routes'
@@ -59,7 +60,7 @@ export function createApp(deps: Deps) {
   app.use('/api', authenticate(deps.db, deps.tokens))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -157,6 +157,10 @@ export const ReceiveLineSchema = z
     quantity: StockQuantitySchema,
     stickLength: StickLengthSchema,
     reference: StockReferenceSchema,
+    /** Against a purchase order: why more than is still due came in, or why the line is closed short. */
+    reason: z.string().trim().max(200, 'Use at most 200 characters').nullish().transform((v) => (v ? v : null)),
+    /** Against a purchase order: the supplier sends no more of this line (needs a reason). */
+    closeShort: z.boolean().default(false),
   })
   .strict()
   .refine((l) => l.partId !== undefined || l.sku !== undefined, { message: 'Choose a part (its id or SKU)', path: ['partId'] })
@@ -165,7 +169,11 @@ export type ReceiveLine = z.infer<typeof ReceiveLineSchema>
 
 /** A receipt of goods: one or more lines, saved together or not at all. */
 export const ReceiveStockSchema = z
-  .object({ lines: z.array(ReceiveLineSchema).min(1, 'Add at least one line').max(500, 'At most 500 lines at once') })
+  .object({
+    lines: z.array(ReceiveLineSchema).min(1, 'Add at least one line').max(500, 'At most 500 lines at once'),
+    /** The purchase order the goods came on (sent or partly received): its lines count what came in. */
+    purchaseOrderId: uuid.nullish().transform((v) => v ?? null),
+  })
   .strict()
 /** A receipt of goods. */
 export type ReceiveStock = z.infer<typeof ReceiveStockSchema>
@@ -241,13 +249,15 @@ export const PackingListSchema = z
   .object({
     csv: z.string({ error: 'Paste or upload the packing list' }).min(1, 'The packing list is empty').max(500_000, 'The file is too large: at most 500 kB'),
     defaultReference: StockReferenceSchema,
+    /** The purchase order the goods came on; its rows may then carry a `reason` column. */
+    purchaseOrderId: uuid.nullish().transform((v) => v ?? null),
   })
   .strict()
 /** A supplier packing list as CSV text. */
 export type PackingList = z.infer<typeof PackingListSchema>
 
 /** The packing-list columns Kitwright reads, in the order its template lists them. */
-export const PACKING_LIST_COLUMNS = ['sku', 'quantity', 'stick_length', 'reference'] as const
+export const PACKING_LIST_COLUMNS = ['sku', 'quantity', 'stick_length', 'reference', 'supplier', 'purchase_order', 'reason'] as const
 
 /** One data row of a packing list as Kitwright read it; `row` is the line number in the file (header = 1). */
 export const PackingListRowSchema = z.object({
@@ -258,6 +268,10 @@ export const PackingListRowSchema = z.object({
   quantity: z.number().int().nullable(),
   stickLength: z.number().int().nullable(),
   reference: z.string().nullable(),
+  /** The purchase order the row is received against (the file's column, or the one chosen), when any. */
+  purchaseOrderNumber: z.string().nullable().default(null),
+  /** Why more than is still due came in. */
+  reason: z.string().nullable().default(null),
   errors: z.array(z.string()),
 })
 /** One data row of a packing list as Kitwright read it. */

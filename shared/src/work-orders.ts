@@ -87,7 +87,7 @@ export function shortageFieldKey(sku: string): string {
  * One part on the shortages page, over all open demand: the open work orders of released orders and
  * the orders not yet released (each line at its kit's newest released revision). For hardware and
  * packaging, in units: what that demand still needs (BOM × units, less what was consumed), what is
- * reserved for it, what is free in stock, and `short` = needed − reserved − available when above zero. For pipe (kept by the stick and
+ * reserved for it, what is free in stock, and `short` = needed − reserved − available − on order when above zero. For pipe (kept by the stick and
  * reserved only when a cut run is published), the same in sticks, estimated from the cut parts: the
  * total cut length with kerf over the longest stick length, rounded up.
  */
@@ -101,6 +101,10 @@ export const ShortageRowSchema = z.object({
   reserved: z.number().int(),
   available: z.number().int(),
   short: z.number().int(),
+  /** Ordered and not yet received on open purchase orders (sent or partly received); counted before `short`. */
+  onOrder: z.number().int().default(0),
+  /** Those purchase orders, the soonest expected first: number, expected date (YYYY-MM-DD), still to come. */
+  onOrderPurchaseOrders: z.array(z.object({ number: z.string(), expectedDate: z.string().nullable(), outstanding: z.number().int() })).default([]),
   /** Open work orders that need this part. */
   workOrderCount: z.number().int(),
   /** The open orders (released or not) that need it, the earliest ship date first. */
@@ -112,6 +116,7 @@ export const ShortageRowSchema = z.object({
   /** Pipe only: the longest stick length the part is bought in, in base units. */
   stickLength: z.number().int().nullable(),
   supplier: z.string().nullable(),
+  supplierId: z.string().nullable().default(null),
   leadTimeDays: z.number().int().nullable(),
   reorderPoint: z.number().int(),
   reorderQuantity: z.number().int(),

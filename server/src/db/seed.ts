@@ -11,6 +11,7 @@ import { createBins } from '../features/bins/bins.service'
 import { hashSecret } from '../features/users/users.service'
 import { seedDemoParts } from './seed-catalog'
 import { seedDemoStock } from './seed-stock'
+import { seedDemoSuppliers } from './seed-suppliers'
 import { seedDemoShipping } from './seed-shipping'
 
 /**
@@ -44,6 +45,7 @@ export async function seedDemo(db: Db) {
       .onConflictDoNothing({ target: users.email })
   }
   await seedDemoParts(db)
+  await seedDemoSuppliers(db)
   await seedDemoShipping(db)
   await seedDemoStock(db)
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))

@@ -18,6 +18,8 @@ export interface OutgoingMail {
   orderId: string | null
   /** Why it is sent, e.g. `order_received`; with the order, a purpose is sent at most once. */
   purpose: string
+  /** Files sent with it (a purchase order's PDF); stored with the message, so every try sends the same bytes. */
+  attachments?: { filename: string; contentType: string; content: Buffer }[]
 }
 
 /**
@@ -27,7 +29,15 @@ export interface OutgoingMail {
 export async function queueMail(tx: Tx, jobs: Jobs, mail: OutgoingMail): Promise<string | null> {
   const [row] = await tx
     .insert(mailMessages)
-    .values({ to: mail.to, subject: mail.subject, text: mail.text, html: mail.html ?? null, orderId: mail.orderId, purpose: mail.purpose })
+    .values({
+      to: mail.to,
+      subject: mail.subject,
+      text: mail.text,
+      html: mail.html ?? null,
+      orderId: mail.orderId,
+      purpose: mail.purpose,
+      attachments: (mail.attachments ?? []).map((a) => ({ filename: a.filename, contentType: a.contentType, contentBase64: a.content.toString('base64') })),
+    })
     .onConflictDoNothing({ target: [mailMessages.orderId, mailMessages.purpose] })
     .returning({ id: mailMessages.id })
   if (!row) return null
@@ -58,6 +68,9 @@ export async function deliverMail(deps: Pick<Deps, 'db' | 'mail'>, mailId: strin
         subject: mail.subject,
         text: mail.text,
         ...(mail.html ? { html: mail.html } : {}),
+        ...(mail.attachments.length > 0
+          ? { attachments: mail.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, content: Buffer.from(a.contentBase64, 'base64') })) }
+          : {}),
         headers: { 'X-Kitwright-Mail-Id': mail.id },
       })
     } catch (err) {

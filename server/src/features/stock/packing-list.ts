@@ -9,6 +9,10 @@ export interface PackingListLine {
   quantity: number | null
   stickLength: number | null
   reference: string | null
+  /** The supplier the row names (checked against the suppliers), the purchase order it came on, and why it is more than due. */
+  supplier: string | null
+  purchaseOrder: string | null
+  reason: string | null
   /** The stick length cell held something that is not a length (already among the errors). */
   stickLengthUnreadable: boolean
   errors: string[]
@@ -25,6 +29,9 @@ const COLUMN_ALIASES = {
   quantity: ['quantity', 'qty', 'quantity_shipped', 'shipped'],
   stick_length: ['stick_length', 'length', 'stick'],
   reference: ['reference', 'ref', 'packing_list', 'packing_list_no', 'delivery_note'],
+  supplier: ['supplier', 'vendor'],
+  purchase_order: ['purchase_order', 'po', 'po_number', 'purchase_order_no'],
+  reason: ['reason', 'note'],
 } as const
 type Column = keyof typeof COLUMN_ALIASES
 
@@ -84,7 +91,18 @@ export function readPackingList(csv: string, defaultReference: string | null, un
     else if (length) errors.push(`Stick length "${lengthText}": ${length.message}`)
     const reference = cell('reference') || defaultReference
     if (reference && reference.length > 80) errors.push('The reference is longer than 80 characters')
-    lines.push({ row: i + 1, sku, quantity, stickLength, reference: reference || null, stickLengthUnreadable: length?.ok === false, errors })
+    const reason = cell('reason')
+    if (reason.length > 200) errors.push('The reason is longer than 200 characters')
+    lines.push({
+      row: i + 1,
+      sku,
+      quantity,
+      stickLength,
+      reference: reference || null,
+      supplier: cell('supplier') || null,
+      purchaseOrder: cell('purchase_order') || null,
+      reason: reason || null,
+      stickLengthUnreadable: length?.ok === false, errors })
   })
   if (lines.length === 0) fileErrors.push('The packing list has no rows under its header')
   if (lines.length > MAX_PACKING_LIST_ROWS) fileErrors.push(`The packing list has ${lines.length} rows; split it into files of at most ${MAX_PACKING_LIST_ROWS}`)

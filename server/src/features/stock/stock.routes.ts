@@ -52,7 +52,8 @@ export function stockRouter(deps: Deps, routes: RouteTable) {
     res.status(201).json(result)
   })
   r.post('/receive/preview', office, async (req, res) => {
-    res.json(await previewPackingList(deps.db, PackingListSchema.parse(req.body)))
+    const { rowPurchaseOrders: _internal, ...preview } = await previewPackingList(deps.db, PackingListSchema.parse(req.body))
+    res.json(preview)
   })
   r.post('/receive/csv', office, async (req, res) => {
     const result = await receivePackingList(deps.db, PackingListSchema.parse(req.body), currentUser(req))

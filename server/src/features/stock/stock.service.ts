@@ -17,9 +17,10 @@ import {
   type StockPartOption,
 } from '@kitwright/shared/stock'
 import type { Db, Tx } from '../../db/client'
-import { parts, shopSettings, type NewStockMoveRow, type PartRow } from '../../db/schema/index'
+import { parts, purchaseOrders, shopSettings, suppliers, type NewStockMoveRow, type PartRow } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
+import { findPurchaseOrderByNumber, receiveOnPurchaseOrder, type PurchaseReceiptLine } from '../purchasing/purchase-orders.service'
 import { readPackingList } from './packing-list'
 import { stockCsv } from './stock-export'
 import { toLedgerEntry, toStockMove, toStockRow } from './stock.mapper'
@@ -157,29 +158,71 @@ export async function receiveStock(db: Db, input: ReceiveStock, actor: Actor): P
   const first = Object.values(fields)[0]
   if (first) throw new BadRequest(first, fields)
   const unit = await displayUnit(db)
-  return db.transaction((tx) => receiveLines(tx, resolved, actor, unit))
+  const purchaseOrderId = input.purchaseOrderId
+  if (!purchaseOrderId) return db.transaction((tx) => receiveLines(tx, resolved, actor, unit))
+  // Against a purchase order: its lines are checked and counted, and the receipt is priced from it.
+  const skuOf = new Map((await db.select({ id: parts.id, sku: parts.sku }).from(parts).where(sql`${parts.id} in ${[...new Set(resolved.map((l) => l.partId))]}`)).map((p) => [p.id, p.sku]))
+  const receipt = resolved.map(
+    (l, i): PurchaseReceiptLine => ({ partId: l.partId, quantity: l.quantity, reason: input.lines[i]!.reason, closeShort: input.lines[i]!.closeShort, field: `lines.${i}`, label: skuOf.get(l.partId) ?? 'that part' }),
+  )
+  return db.transaction(async (tx) => {
+    const { moves } = await receiveOnPurchaseOrder(tx, purchaseOrderId, receipt, actor, async (number) => {
+      return (await receiveLines(tx, resolved.map((l) => ({ ...l, reference: l.reference ?? number })), actor, unit)).moves
+    })
+    return { moves }
+  })
 }
 
-/** Reads a packing list and checks every row against the parts, saving nothing. */
-export async function previewPackingList(db: Db | Tx, input: PackingList): Promise<PackingListPreview> {
+/** Reads a packing list and checks every row against the parts, saving nothing; `rowPurchaseOrders` says which purchase order each row goes against (not sent to the browser). */
+export async function previewPackingList(db: Db | Tx, input: PackingList): Promise<PackingListPreview & { rowPurchaseOrders: (string | null)[] }> {
   const unit = await displayUnit(db)
   const { lines, fileErrors } = readPackingList(input.csv, input.defaultReference, unit)
   const skus = [...new Set(lines.map((l) => l.sku.toLowerCase()).filter((s) => s !== ''))]
   const found = skus.length ? await db.select().from(parts).where(sql`lower(${parts.sku}) in ${skus}`) : []
   const bySku = new Map(found.map((p) => [p.sku.toLowerCase(), p]))
+  // Suppliers and purchase orders the file names (or the one chosen), each looked up once.
+  const supplierNames = [...new Set(lines.map((l) => l.supplier?.toLowerCase()).filter((n): n is string => !!n))]
+  const knownSuppliers = supplierNames.length ? await db.select({ id: suppliers.id, name: suppliers.name }).from(suppliers).where(sql`lower(${suppliers.name}) in ${supplierNames}`) : []
+  const supplierByName = new Map(knownSuppliers.map((s) => [s.name.toLowerCase(), s]))
+  const chosen = input.purchaseOrderId
+    ? ((await db.select({ id: purchaseOrders.id, number: purchaseOrders.number, supplierId: purchaseOrders.supplierId }).from(purchaseOrders).where(eq(purchaseOrders.id, input.purchaseOrderId)))[0] ?? null)
+    : null
+  if (input.purchaseOrderId && !chosen) fileErrors.push('No such purchase order: choose it again from the list')
+  const poByNumber = new Map<string, Awaited<ReturnType<typeof findPurchaseOrderByNumber>>>()
+  for (const n of new Set(lines.map((l) => l.purchaseOrder?.toUpperCase()).filter((n): n is string => !!n))) poByNumber.set(n, await findPurchaseOrderByNumber(db, n))
   const rows = lines.map((line) => {
     const part = line.sku ? bySku.get(line.sku.toLowerCase()) : undefined
     const errors = [...line.errors]
+    const po = line.purchaseOrder ? poByNumber.get(line.purchaseOrder.toUpperCase()) : chosen
+    if (line.purchaseOrder && !po) errors.push(`No purchase order ${line.purchaseOrder}: correct the number or leave the cell empty`)
+    else if (line.purchaseOrder && chosen && po && po.id !== chosen.id) errors.push(`The row names ${po.number} but the list is received against ${chosen.number}`)
+    if (line.supplier) {
+      const supplier = supplierByName.get(line.supplier.toLowerCase())
+      if (!supplier) errors.push(`No supplier named "${line.supplier}": add it on the Suppliers page or correct the name`)
+      else if (po && po.supplierId !== supplier.id) errors.push(`${po.number} is not from ${supplier.name}`)
+    }
     if (line.sku && !part) errors.push(`No part with SKU ${line.sku}: add the part first or correct the SKU`)
     else if (part && !part.active) errors.push(`${partLabel(part)} is retired; reactivate it first`)
     else if (part && !line.stickLengthUnreadable) {
       const problem = stickLengthProblem(part, line.stickLength, unit, true)
       if (problem) errors.push(problem)
     }
-    return { row: line.row, sku: part?.sku ?? line.sku, partId: part?.id ?? null, partName: part?.name ?? null, quantity: line.quantity, stickLength: line.stickLength, reference: line.reference, errors }
+    return {
+      row: line.row,
+      sku: part?.sku ?? line.sku,
+      partId: part?.id ?? null,
+      partName: part?.name ?? null,
+      quantity: line.quantity,
+      stickLength: line.stickLength,
+      reference: line.reference,
+      purchaseOrderNumber: po?.number ?? null,
+      purchaseOrderId: po?.id ?? null,
+      reason: line.reason,
+      errors,
+    }
   })
   const errors = [...fileErrors, ...rows.flatMap((r) => r.errors.map((e) => `Row ${r.row}: ${e}`))]
-  return { rows, fileErrors, errors, ok: errors.length === 0 }
+  return { rows: rows.map(({ purchaseOrderId: _id, ...r }) => r), rowPurchaseOrders: rows.map((r) => r.purchaseOrderId), fileErrors, errors, ok: errors.length === 0 }
 }
 
 /** Receives a whole packing list in one transaction, or nothing when any row has a problem. */
@@ -192,9 +235,24 @@ export async function receivePackingList(db: Db, input: PackingList, actor: Acto
       const count = preview.errors.length
       throw new BadRequest(`Nothing was received: the packing list has ${count} problem${count === 1 ? '' : 's'}. ${preview.errors[0]}`, fields)
     }
+    const unit = await displayUnit(tx)
+    const { rowPurchaseOrders, ...shown } = preview
     const lines = preview.rows.map((r) => ({ partId: r.partId!, quantity: r.quantity!, stickLength: r.stickLength, reference: r.reference }))
-    const result = await receiveLines(tx, lines, actor, await displayUnit(tx))
-    return { ...result, preview }
+    // Rows on no purchase order are received as before; the others per order, each checked and counted against it.
+    const plain = lines.filter((_, i) => !rowPurchaseOrders[i])
+    const moves = plain.length ? (await receiveLines(tx, plain, actor, unit)).moves : []
+    for (const poId of [...new Set(rowPurchaseOrders.filter((id): id is string => !!id))].sort()) {
+      const idx = rowPurchaseOrders.flatMap((id, i) => (id === poId ? [i] : []))
+      const receipt = idx.map((i): PurchaseReceiptLine => {
+        const r = preview.rows[i]!
+        return { partId: r.partId!, quantity: r.quantity!, reason: r.reason, closeShort: false, field: `rows.${r.row}`, label: r.sku }
+      })
+      const done = await receiveOnPurchaseOrder(tx, poId, receipt, actor, async (number) => {
+        return (await receiveLines(tx, idx.map((i) => ({ ...lines[i]!, reference: lines[i]!.reference ?? number })), actor, unit)).moves
+      })
+      moves.push(...done.moves)
+    }
+    return { moves, preview: shown }
   })
 }
 

@@ -15,6 +15,10 @@ export interface ShortageRecord extends Record<string, unknown> {
   reserved: number
   available: number
   short: number
+  /** Ordered − received on open purchase orders (sent or partly received). */
+  onOrder: number
+  /** Those purchase orders: number, expected date and what is still to come of this part. */
+  onOrderPurchaseOrders: { number: string; expectedDate: string | null; outstanding: number }[]
   workOrderCount: number
   /** Open orders (released or not yet) that need the part, oldest need first. */
   orderNumbers: string[]
@@ -23,6 +27,7 @@ export interface ShortageRecord extends Record<string, unknown> {
   cutLength: string | null
   stickLength: number | null
   supplier: string | null
+  supplierId: string | null
   leadTimeDays: number | null
   reorderPoint: number
   reorderQuantity: number
@@ -42,9 +47,12 @@ const OPEN = sql.raw(OPEN_WORK_ORDER_STATUSES.map((s) => `'${s}'`).join(', '))
  * orders' reservations; available = on hand − every reservation. Pipe (reserved only when a cut run
  * is published): the cut parts of units not yet cut, each piece plus one kerf, over the longest
  * stick the part comes in, rounded up to whole sticks; offcuts in stock are not counted (an estimate
- * that errs towards buying). short = needed − reserved − available, when above zero. A part whose
- * free stock is at or below its reorder point is listed too, needed or not. The suggested order is
- * the shortfall, or the reorder quantity when that is more (or when below the reorder point).
+ * that errs towards buying). On order = ordered − received on open purchase orders (sent or partly
+ * received; a line closed short expects nothing more). short = needed − reserved − available − on
+ * order, when above zero. A part whose free stock is at or below its reorder point is listed too,
+ * needed or not; it is below the point when free stock plus what is on order is at or below it. The
+ * suggested order is the shortfall, or the reorder quantity when that is more (or when below the
+ * reorder point).
  */
 export async function selectShortages(db: Conn, q: ShortagesQuery): Promise<ShortageRecord[]> {
   const onlyShort = q.only === 'short' ? sql`where r."short" > 0 or r."belowReorderPoint"` : sql``
@@ -88,6 +96,14 @@ export async function selectShortages(db: Conn, q: ShortagesQuery): Promise<Shor
       from stock_moves m join work_orders w on w.id = m.work_order_id and w.status in (${OPEN})
       group by m.part_id
     ),
+    on_order as (
+      select l.part_id, sum(l.quantity - l.received)::int as on_order,
+        jsonb_agg(jsonb_build_object('number', po.number, 'expectedDate', to_char(po.expected_date, 'YYYY-MM-DD'), 'outstanding', l.quantity - l.received)
+          order by po.expected_date nulls last, po.number) as pos
+      from purchase_order_lines l join purchase_orders po on po.id = l.purchase_order_id
+      where po.status in ('sent', 'partly_received') and l.closed_short_reason is null and l.quantity > l.received
+      group by l.part_id
+    ),
     balances as (
       select m.part_id,
         coalesce(sum(m.quantity) filter (where m.kind in ('receive', 'adjust', 'consume', 'offcut_in', 'offcut_out', 'ship') and m.offcut_id is null), 0) as on_hand,
@@ -111,19 +127,23 @@ export async function selectShortages(db: Conn, q: ShortagesQuery): Promise<Shor
         to_char(coalesce(bn.needed_by, pn.needed_by), 'YYYY-MM-DD') as "neededBy",
         pn.cut_length::text as "cutLength",
         case when p.kind = 'stock_length' then (select max(l) from unnest(p.stick_lengths) l) end as "stickLength",
-        p.supplier, p.lead_time_days as "leadTimeDays", p.reorder_point as "reorderPoint", p.reorder_quantity as "reorderQuantity"
+        coalesce(oo.on_order, 0)::int as "onOrder", coalesce(oo.pos, '[]'::jsonb) as "onOrderPurchaseOrders",
+        coalesce(sup.name, p.supplier) as "supplier", p.supplier_id as "supplierId",
+        coalesce(sup.lead_time_days, p.lead_time_days) as "leadTimeDays", p.reorder_point as "reorderPoint", p.reorder_quantity as "reorderQuantity"
       from parts p
       left join bom_need bn on bn.part_id = p.id
       left join pipe_need pn on pn.part_id = p.id
       left join wo_moves wm on wm.part_id = p.id
       left join balances bal on bal.part_id = p.id
+      left join on_order oo on oo.part_id = p.id
+      left join suppliers sup on sup.id = p.supplier_id
       where p.active and (bn.part_id is not null or pn.part_id is not null
         or (p.reorder_point > 0 and coalesce(bal.on_hand, 0) - coalesce(bal.reserved, 0) <= p.reorder_point))
     )
     select r.*, (case when r."short" > 0 or r."belowReorderPoint" then greatest(r."short", r."reorderQuantity") else 0 end)::int as "suggestedOrder"
     from (
-      select *, greatest(coalesce("needed", 0) - "reserved" - "available", 0)::int as "short",
-        ("reorderPoint" > 0 and "available" <= "reorderPoint") as "belowReorderPoint"
+      select *, greatest(coalesce("needed", 0) - "reserved" - "available" - "onOrder", 0)::int as "short",
+        ("reorderPoint" > 0 and "available" + "onOrder" <= "reorderPoint") as "belowReorderPoint"
       from rows
     ) r
     ${onlyShort}
