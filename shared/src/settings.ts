@@ -13,9 +13,19 @@ export const ShopSettingsSchema = z.object({
   autoReleasePaid: z.boolean(),
   /** How long the nesting engine may plan one cut run unless the planner asks for longer, in seconds. */
   nestingTimeLimitSeconds: z.number(),
+  /** The working day promise dates count in: its start (hour, UTC) and length in hours. */
+  workdayStartHourUtc: z.number().int(),
+  workdayHours: z.number().int(),
+  /** Minutes one unit takes at each bench until the benches' history says otherwise. */
+  cutMinutesPerUnit: z.number().int(),
+  buildMinutesPerUnit: z.number().int(),
+  packMinutesPerUnit: z.number().int(),
 })
 /** The shop's settings as the API shows them. */
 export type ShopSettings = z.infer<typeof ShopSettingsSchema>
+
+const minutesPerUnit = (bench: string) =>
+  z.number({ error: `Enter the minutes one unit takes at the ${bench} bench` }).int('Whole minutes').min(1, 'At least 1 minute').max(1440, 'At most a day (1440 minutes)')
 
 /** What the admin may change in the shop's settings. */
 export const UpdateShopSettingsSchema = z
@@ -31,6 +41,11 @@ export const UpdateShopSettingsSchema = z
       .number({ error: 'Enter the planning time in seconds' })
       .min(0.5, 'At least half a second')
       .max(120, 'At most 120 seconds'),
+    workdayStartHourUtc: z.number({ error: 'Enter the hour the working day starts (0–23, UTC)' }).int('A whole hour').min(0, 'From 0').max(23, 'At most 23'),
+    workdayHours: z.number({ error: 'Enter the hours in a working day' }).int('Whole hours').min(1, 'At least 1 hour').max(24, 'At most 24 hours'),
+    cutMinutesPerUnit: minutesPerUnit('cut'),
+    buildMinutesPerUnit: minutesPerUnit('build'),
+    packMinutesPerUnit: minutesPerUnit('pack'),
   })
   .partial()
   .strict()

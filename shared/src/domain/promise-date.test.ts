@@ -13,6 +13,7 @@ const base: PromiseInput = {
   unitsAhead: { cut: 3, build: 14, pack: 16 },
   ownUnits: { cut: 1, build: 1, pack: 1 },
   shortParts: [],
+  minimumDate: '2026-12-02',
   minimumWorkingDays: 0,
 }
 
@@ -39,8 +40,8 @@ describe('promiseShipDate', () => {
 
   it('never promises sooner than the minimum lead time, and counts from Monday on a weekend', () => {
     // Saturday Dec 5: work starts Monday Dec 7 at minute 0; empty queues, 85 min of work → Monday.
-    // The minimum of 3 working days after Saturday is Wednesday Dec 9 (Mon 1, Tue 2, Wed 3).
-    const r = promiseShipDate({ ...base, now: '2026-12-05T10:00:00Z', unitsAhead: { cut: 0, build: 0, pack: 0 }, minimumWorkingDays: 3 })
+    // The minimum of 3 working days after Saturday (the day it was placed) is Wednesday Dec 9 (Mon 1, Tue 2, Wed 3).
+    const r = promiseShipDate({ ...base, now: '2026-12-05T10:00:00Z', unitsAhead: { cut: 0, build: 0, pack: 0 }, minimumDate: '2026-12-09', minimumWorkingDays: 3 })
     expect(r.date).toBe('2026-12-09')
     expect(r.reasons).toEqual(["the shop's minimum lead time of 3 working days"])
   })

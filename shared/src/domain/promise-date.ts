@@ -29,7 +29,9 @@ export interface PromiseInput {
   ownUnits: Record<Bench, number>
   /** Parts the order's units need that are not free today, with the day enough will be in (YYYY-MM-DD). */
   shortParts: { name: string; arrives: string; how: string }[]
-  /** The shop's minimum lead time in working days after the day the order is placed. */
+  /** Never sooner than this day (YYYY-MM-DD): the shop's minimum lead time after the day the order was placed. */
+  minimumDate: string
+  /** That lead time, in working days, for the words. */
   minimumWorkingDays: number
 }
 
@@ -94,7 +96,7 @@ export function promiseShipDate(input: PromiseInput): PromiseResult {
     done = Math.max(done, queueClears) + input.ownUnits[bench] * m
   }
   let date = dateAt(done)
-  const floor = addWorkingDays(today, input.minimumWorkingDays)
+  const floor = input.minimumDate
   if (floor > date) {
     date = floor
     reasons.push({ weight: Number.MAX_SAFE_INTEGER, words: `the shop's minimum lead time of ${input.minimumWorkingDays} working day${input.minimumWorkingDays === 1 ? '' : 's'}` })

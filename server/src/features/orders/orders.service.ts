@@ -1,13 +1,12 @@
-import { eq } from 'drizzle-orm'
-import { addWorkingDays, utcDay } from '@kitwright/shared/domain/working-days'
 import { formatDay } from '@kitwright/shared/dates'
 import { ORDER_SOURCE_LABELS, ORDER_STATUS_LABELS, PAYMENT_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 import type { NewOrder, OrderDetail, OrderListQuery, OrderSource, OrdersPage } from '@kitwright/shared/orders'
 import type { Db, Tx } from '../../db/client'
-import { shopSettings, type OrderEventRow, type OrderRow } from '../../db/schema/index'
+import type { OrderEventRow, OrderRow } from '../../db/schema/index'
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { writeOrdersCsv } from './orders.csv'
+import { promiseForOrder } from './promise.service'
 import { toOrder, toOrderDetail } from './orders.mapper'
 import {
   countOrders,
@@ -34,16 +33,6 @@ const SOURCE_WORDS: Record<OrderSource, string> = {
   store: 'Received from the web store',
   csv: 'Imported from a CSV file',
   phone: 'Entered as a phone order',
-}
-
-/**
- * The ship date promised for an order that arrives without one: the shop's lead time in working days
- * (Monday to Friday) after the day it was placed (UTC).
- */
-export async function promisedShipDateFor(db: Db | Tx, placedAt: Date | string): Promise<{ date: string; leadTimeDays: number }> {
-  const [row] = await db.select({ leadTimeDays: shopSettings.leadTimeDays }).from(shopSettings).where(eq(shopSettings.id, 1))
-  const leadTimeDays = row?.leadTimeDays ?? 7
-  return { date: addWorkingDays(utcDay(placedAt), leadTimeDays), leadTimeDays }
 }
 
 /** Appends one event to an order's timeline inside the caller's transaction. */
@@ -73,7 +62,16 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
   if (existing) return { order: existing, created: false }
 
   const totalCents = input.lines.reduce((sum, l) => sum + l.quantity * l.unitPriceCents, 0)
-  const promised = input.promisedShipDate ? null : await promisedShipDateFor(tx, input.placedAt)
+  const candidates = await selectKitsForLines(
+    tx,
+    input.lines.flatMap((l) => (l.kitSku ? [l.kitSku] : [])),
+    input.lines.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])),
+  )
+  const kitFor = (line: NewOrder['lines'][number]) =>
+    (line.kitSku ? candidates.find((k) => k.sku.toLowerCase() === line.kitSku!.toLowerCase()) : undefined) ??
+    (line.storeProductId ? candidates.find((k) => k.storeProductId === line.storeProductId) : undefined)
+  // An order without a promise gets one from the work ahead of it (see promise.service).
+  const promised = input.promisedShipDate ? null : await promiseForOrder(tx, input.lines.map((l) => ({ kitId: kitFor(l)?.id ?? null, quantity: l.quantity })), input.placedAt)
   const order = await insertOrderIfNew(tx, {
     number: input.number,
     source,
@@ -100,15 +98,6 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
     return { order: (await selectOrderByNumber(tx, input.number))!, created: false }
   }
 
-  const candidates = await selectKitsForLines(
-    tx,
-    input.lines.flatMap((l) => (l.kitSku ? [l.kitSku] : [])),
-    input.lines.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])),
-  )
-  const kitFor = (line: NewOrder['lines'][number]) =>
-    (line.kitSku ? candidates.find((k) => k.sku.toLowerCase() === line.kitSku!.toLowerCase()) : undefined) ??
-    (line.storeProductId ? candidates.find((k) => k.storeProductId === line.storeProductId) : undefined)
-
   const mapped = input.lines.map((line, i) => ({ line, lineNo: i + 1, kit: kitFor(line) }))
   await insertOrderLines(
     tx,
@@ -130,8 +119,8 @@ export async function createOrder(tx: Tx, input: NewOrder, source: OrderSource, 
     kind: 'received',
     message:
       `${SOURCE_WORDS[source]}: ${units} unit${units === 1 ? '' : 's'} on ${input.lines.length} line${input.lines.length === 1 ? '' : 's'}` +
-      (promised ? `; promised to ship by ${formatDay(promised.date)} (the shop's lead time of ${promised.leadTimeDays} working day${promised.leadTimeDays === 1 ? '' : 's'})` : ''),
-    data: { source, number: input.number, promisedShipDate: order.promisedShipDate, leadTimeDays: promised?.leadTimeDays ?? null },
+      (promised ? `; promised to ship by ${formatDay(promised.date)}${promised.reasons.length ? `: ${promised.reasons.join('; ')}` : ''}` : ''),
+    data: { source, number: input.number, promisedShipDate: order.promisedShipDate, leadTimeDays: promised?.leadTimeDays ?? null, promiseReasons: promised?.reasons ?? null },
     actor,
   })
   for (const { line, lineNo, kit } of mapped) {

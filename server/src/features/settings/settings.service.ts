@@ -16,6 +16,11 @@ function toShopSettings(row: ShopSettingsRow): ShopSettings {
     leadTimeDays: row.leadTimeDays,
     autoReleasePaid: row.autoReleasePaid,
     nestingTimeLimitSeconds: row.nestingTimeLimitMs / 1000,
+    workdayStartHourUtc: row.workdayStartHourUtc,
+    workdayHours: row.workdayHours,
+    cutMinutesPerUnit: row.cutMinutesPerUnit,
+    buildMinutesPerUnit: row.buildMinutesPerUnit,
+    packMinutesPerUnit: row.packMinutesPerUnit,
   }
 }
 

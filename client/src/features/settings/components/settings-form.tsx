@@ -27,6 +27,11 @@ const settingsFormSchema = (unit: LengthUnit) =>
       leadTimeDays: UpdateShopSettingsSchema.shape.leadTimeDays.unwrap(),
       autoReleasePaid: z.boolean(),
       nestingTimeLimitSeconds: UpdateShopSettingsSchema.shape.nestingTimeLimitSeconds.unwrap(),
+      workdayStartHourUtc: UpdateShopSettingsSchema.shape.workdayStartHourUtc.unwrap(),
+      workdayHours: UpdateShopSettingsSchema.shape.workdayHours.unwrap(),
+      cutMinutesPerUnit: UpdateShopSettingsSchema.shape.cutMinutesPerUnit.unwrap(),
+      buildMinutesPerUnit: UpdateShopSettingsSchema.shape.buildMinutesPerUnit.unwrap(),
+      packMinutesPerUnit: UpdateShopSettingsSchema.shape.packMinutesPerUnit.unwrap(),
     })
     .superRefine((v, ctx) => {
       for (const key of LENGTH_FIELDS) {
@@ -56,6 +61,11 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
       leadTimeDays: settings.leadTimeDays,
       autoReleasePaid: settings.autoReleasePaid,
       nestingTimeLimitSeconds: settings.nestingTimeLimitSeconds,
+      workdayStartHourUtc: settings.workdayStartHourUtc,
+      workdayHours: settings.workdayHours,
+      cutMinutesPerUnit: settings.cutMinutesPerUnit,
+      buildMinutesPerUnit: settings.buildMinutesPerUnit,
+      packMinutesPerUnit: settings.packMinutesPerUnit,
     },
   })
   const errors = form.formState.errors
@@ -69,6 +79,11 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
         leadTimeDays: v.leadTimeDays,
         autoReleasePaid: v.autoReleasePaid,
         nestingTimeLimitSeconds: v.nestingTimeLimitSeconds,
+        workdayStartHourUtc: v.workdayStartHourUtc,
+        workdayHours: v.workdayHours,
+        cutMinutesPerUnit: v.cutMinutesPerUnit,
+        buildMinutesPerUnit: v.buildMinutesPerUnit,
+        packMinutesPerUnit: v.packMinutesPerUnit,
       },
       {
         onSuccess: (saved) => {
@@ -81,6 +96,11 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
             leadTimeDays: saved.leadTimeDays,
             autoReleasePaid: saved.autoReleasePaid,
             nestingTimeLimitSeconds: saved.nestingTimeLimitSeconds,
+            workdayStartHourUtc: saved.workdayStartHourUtc,
+            workdayHours: saved.workdayHours,
+            cutMinutesPerUnit: saved.cutMinutesPerUnit,
+            buildMinutesPerUnit: saved.buildMinutesPerUnit,
+            packMinutesPerUnit: saved.packMinutesPerUnit,
           })
         },
         onError: (err) => applyServerErrors(err, form.setError),
@@ -120,9 +140,36 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
       </fieldset>
       <fieldset className="space-y-4">
         <legend className="text-xl font-bold">Orders</legend>
-        <Field label="Lead time (working days)" error={errors.leadTimeDays?.message} hint="Monday to Friday after the order is placed; an order that arrives without a ship date is promised this.">
+        <Field
+          label="Minimum lead time (working days)"
+          error={errors.leadTimeDays?.message}
+          hint="Monday to Friday after the order is placed. An order that arrives without a ship date is promised from the work ahead of it at each bench and the parts it waits for, and never sooner than this."
+        >
           <Input type="number" min={0} max={250} step={1} {...form.register('leadTimeDays', { valueAsNumber: true })} aria-invalid={!!errors.leadTimeDays} className="w-32" />
         </Field>
+        <div className="grid gap-4 sm:grid-cols-2">
+          <Field label="Working day starts at (hour, UTC)" error={errors.workdayStartHourUtc?.message}>
+            <Input type="number" min={0} max={23} step={1} {...form.register('workdayStartHourUtc', { valueAsNumber: true })} aria-invalid={!!errors.workdayStartHourUtc} className="w-32" />
+          </Field>
+          <Field label="Hours in a working day" error={errors.workdayHours?.message}>
+            <Input type="number" min={1} max={24} step={1} {...form.register('workdayHours', { valueAsNumber: true })} aria-invalid={!!errors.workdayHours} className="w-32" />
+          </Field>
+        </div>
+        <div className="grid gap-4 sm:grid-cols-3">
+          <Field label="Cut bench, minutes per unit" error={errors.cutMinutesPerUnit?.message}>
+            <Input type="number" min={1} max={1440} step={1} {...form.register('cutMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.cutMinutesPerUnit} className="w-32" />
+          </Field>
+          <Field label="Build bench, minutes per unit" error={errors.buildMinutesPerUnit?.message}>
+            <Input type="number" min={1} max={1440} step={1} {...form.register('buildMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.buildMinutesPerUnit} className="w-32" />
+          </Field>
+          <Field label="Pack bench, minutes per unit" error={errors.packMinutesPerUnit?.message}>
+            <Input type="number" min={1} max={1440} step={1} {...form.register('packMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.packMinutesPerUnit} className="w-32" />
+          </Field>
+        </div>
+        <p className="text-sm text-stone-600">
+          Until a bench has finished at least 5 units in the last 90 days, promises use these minutes; then the cut and build benches use the median of their own
+          history (the pack bench keeps no start time, so its figure is always this one).
+        </p>
         <label className="flex items-start gap-3">
           <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('autoReleasePaid')} />
           <span>
