@@ -78,6 +78,6 @@ describe('the photo store stops and starts again in the middle of a build', () =
     expect((await agent.post(`/api/build/${wo.id}/steps/${step(4)}/tick`).send({})).status).toBe(200)
     expect((await agent.post(`/api/build/${wo.id}/leak-tests`).send(PASSING)).status).toBe(201)
     expect(await conn.db.select().from(leakTests).where(eq(leakTests.workOrderId, wo.id))).toHaveLength(1)
-    console.log(`[faults] S3 down ${seconds(back - stoppedAt)}: confirm answered 503 in ${answeredIn} ms; photo confirmed ${seconds(recovered)} after the store came back; ticks and leak test kept`)
+    console.log(`[faults] S3 down ${seconds(back - stoppedAt)}: confirm answered 503 in ${answeredIn} ms; photo confirmed ${seconds(recovered)} after the store came back; ticks kept, leak test recorded once the photo step was done`)
   })
 })
