@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { NewOrderSchema, OrderDetailSchema, type NewOrderDraft } from '@kitwright/shared/orders'
 import { ReleasePreviewSchema, ReleaseResultSchema, ShortagesSchema } from '@kitwright/shared/work-orders'
-import { bomLines, cutParts, kitRevisions, kits, orderLines, orders, parts, shopSettings, stockMoves, users, workOrders } from '../../server/src/db/schema/index'
+import { bomLines, cutParts, kitRevisions, kits, orderLines, orders, parts, purchaseOrderLines, purchaseOrders, shopSettings, stockMoves, suppliers, users, workOrders } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/db/seed'
 import { createKit, releaseRevision, saveRevision } from '../../server/src/features/kits/kits.service'
 import { createOrder } from '../../server/src/features/orders/orders.service'
@@ -321,6 +321,31 @@ describe('the shortages page', () => {
     await t.db.insert(stockMoves).values({ partId: idle.id, kind: 'receive', quantity: 10 })
     const idleRow = ShortagesSchema.parse((await planner.get('/api/shortages')).body).rows.find((r) => r.partId === idle.id)!
     expect(idleRow).toMatchObject({ needed: 0, short: 0, belowReorderPoint: true, suggestedOrder: 50, orderNumbers: [] })
+  })
+
+  it('subtracts what is on order on sent and partly received purchase orders, and names them', async () => {
+    const { part, kitSku } = await starvedKit(5, 2)
+    const order = await postOrder(buildNewOrder({ promisedShipDate: '2099-04-01', lines: [{ kitSku, quantity: 5, unitPriceCents: 100 }] }))
+    const [supplier] = await t.db.insert(suppliers).values({ name: `Test valve supplier ${part.sku}` }).returning()
+    const po = async (status: 'draft' | 'sent' | 'partly_received' | 'cancelled', expectedDate: string, quantity: number, received: number) => {
+      const [row] = await t.db.insert(purchaseOrders).values({ supplierId: supplier!.id, status, expectedDate }).returning()
+      await t.db.insert(purchaseOrderLines).values({ purchaseOrderId: row!.id, partId: part.id, quantity, unitPriceCents: 250, received })
+      return row!.number
+    }
+    const sent = await po('sent', '2099-02-01', 2, 0)
+    const partly = await po('partly_received', '2099-01-20', 3, 2)
+    await po('draft', '2099-01-05', 10, 0) // a draft is not on its way yet
+    await po('cancelled', '2099-01-06', 10, 0) // nor is a cancelled order
+    const row = ShortagesSchema.parse((await planner.get('/api/shortages')).body).rows.find((r) => r.partId === part.id)!
+    // By hand: needed 5 packs × 2 = 10, nothing reserved (not released), 5 free.
+    // On order: sent 2 − 0 = 2, plus partly received 3 − 2 = 1 → 3 (draft and cancelled not counted).
+    // short = needed − reserved − available − on order = 10 − 0 − 5 − 3 = 2.
+    expect(row).toMatchObject({ needed: 10, reserved: 0, available: 5, onOrder: 3, short: 2, suggestedOrder: 2, orderNumbers: [order.number] })
+    // The soonest expected first.
+    expect(row.onOrderPurchaseOrders).toEqual([
+      { number: partly, expectedDate: '2099-01-20', outstanding: 1 },
+      { number: sent, expectedDate: '2099-02-01', outstanding: 2 },
+    ])
   })
 
   it('is for admins and planners only', async () => {
