@@ -61,6 +61,8 @@ export const routes: RouteObject[] = [
               { path: paths.ordersImport.pattern, handle: title('Import orders'), lazy: afterSignIn(() => import('./routes/orders/orders-import')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.order.pattern, handle: title('Order'), lazy: afterSignIn(() => import('./routes/orders/order-detail')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.shortages.pattern, handle: title('Shortages'), lazy: afterSignIn(() => import('./routes/shortages')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.purchaseOrders.pattern, handle: title('Purchase orders'), lazy: afterSignIn(() => import('./routes/purchasing/purchase-orders')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
+              { path: paths.suppliers.pattern, handle: title('Suppliers'), lazy: afterSignIn(() => import('./routes/purchasing/suppliers')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.outbox.pattern, handle: title('Outbox'), lazy: afterSignIn(() => import('./routes/outbox')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.cutRuns.pattern, handle: title('Cut runs'), lazy: afterSignIn(() => import('./routes/planning/cut-runs')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.cutRun.pattern, handle: title('Cut run'), lazy: afterSignIn(() => import('./routes/planning/cut-run')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },

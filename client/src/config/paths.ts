@@ -31,6 +31,8 @@ export const paths = {
   ordersImport: { pattern: '/orders/import', href: () => '/orders/import' },
   order: { pattern: '/orders/:orderId', href: (orderId: string) => `/orders/${orderId}` },
   shortages: { pattern: '/shortages', href: () => '/shortages' },
+  purchaseOrders: { pattern: '/purchasing/orders', href: (poId?: string) => (poId ? `/purchasing/orders?po=${poId}` : '/purchasing/orders') },
+  suppliers: { pattern: '/purchasing/suppliers', href: () => '/purchasing/suppliers' },
   outbox: { pattern: '/outbox', href: () => '/outbox' },
 } as const
 

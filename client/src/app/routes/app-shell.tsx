@@ -15,6 +15,8 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
+  { label: 'Purchase orders', href: paths.purchaseOrders.href(), roles: ['admin', 'planner'] },
+  { label: 'Suppliers', href: paths.suppliers.href(), roles: ['admin', 'planner'] },
   { label: 'Outbox', href: paths.outbox.href(), roles: ['admin', 'planner'] },
   { label: 'Cut runs', href: paths.cutRuns.href(), roles: ['admin', 'planner'] },
   { label: 'Bins', href: paths.bins.href(), roles: ['admin', 'planner'] },

@@ -1,8 +1,13 @@
 import { useQuery } from '@tanstack/react-query'
-import { useSearchParams } from 'react-router-dom'
+import { Link, useNavigate, useSearchParams } from 'react-router-dom'
+import { toast } from 'sonner'
 import { ShortagesQuerySchema } from '@kitwright/shared/work-orders'
 import { querySearchWithDefaults } from '@kitwright/shared/pagination'
+import { Button } from '../../components/ui/button'
 import { Select } from '../../components/ui/field'
+import { paths } from '../../config/paths'
+import { useDraftFromShortages } from '../../features/purchasing/api/purchasing-queries'
+import { ApiError } from '../../lib/api-client'
 import { shortagesOptions } from '../../features/shortages/api/shortage-queries'
 import { ShortagesTable } from '../../features/shortages/components/shortages-table'
 import { useLengthUnit } from '../../lib/shop-settings'
@@ -12,6 +17,18 @@ export function Component() {
   const query = querySearchWithDefaults(ShortagesQuerySchema, searchParams)
   const shortages = useQuery(shortagesOptions(query))
   const { format } = useLengthUnit()
+  const draft = useDraftFromShortages()
+  const navigate = useNavigate()
+  const draftOrders = () =>
+    draft.mutate(undefined, {
+      onSuccess: ({ created, skipped }) => {
+        if (created.length > 0) toast.success(`Drafted ${created.map((p) => `${p.number} (${p.supplier.name})`).join(', ')}`)
+        else toast.info('No new drafts: nothing to buy that is not already on a draft')
+        for (const s of skipped) toast.warning(`${s.sku}: ${s.reason}`)
+        if (created.length > 0) navigate(paths.purchaseOrders.href(created.length === 1 ? created[0]!.id : undefined))
+      },
+      onError: (err) => toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright; check the connection and try again'),
+    })
   return (
     <div className="space-y-6">
       <div className="flex flex-wrap items-end gap-3">
@@ -30,6 +47,9 @@ export function Component() {
             <option value="all">Every part needed</option>
           </Select>
         </label>
+        <Button disabled={draft.isPending} onClick={draftOrders}>
+          Draft purchase orders from shortages
+        </Button>
       </div>
       {shortages.isError ? (
         <p role="alert" className="text-red-700">
@@ -46,8 +66,10 @@ export function Component() {
         the pipe comes in, rounded up; offcuts on the rack are not counted.
       </p>
       <p className="text-sm text-stone-600" aria-label="On order">
-        On order: Kitwright keeps no purchase orders yet, so nothing is counted as on its way. The suggested quantities assume nothing has been
-        ordered; check with your supplier before ordering again.
+        On order: what sent and partly received <Link className="underline" to={paths.purchaseOrders.href()}>purchase orders</Link> still
+        bring (ordered − received), with their numbers and expected dates; it is subtracted before a part counts as short (short = needed −
+        reserved − free − on order). Drafts are not counted until they are sent. "Draft purchase orders from shortages" makes one draft per
+        supplier of the suggested quantities, rounded up to the supplier's pack size and minimum order and priced by their price breaks.
       </p>
     </div>
   )

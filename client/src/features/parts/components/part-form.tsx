@@ -106,7 +106,7 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
       <Field label="Unit of measure" hint="each, stick, ft, bag…" error={errors.unitOfMeasure?.message}>
         <Input aria-invalid={!!errors.unitOfMeasure} {...form.register('unitOfMeasure')} />
       </Field>
-      <ParsedTextField control={form.control} name="unitCostCents" label="Unit cost ($)" hint="Dollars and cents, e.g. 3.48" toText={(v) => centsToText(v)} parse={parseCost} />
+      <ParsedTextField control={form.control} name="unitCostCents" label="Unit cost ($)" hint="Dollars and cents, e.g. 3.48. Receiving against a purchase order sets it to the moving average of what was paid for the stock on hand" toText={(v) => centsToText(v)} parse={parseCost} />
       <Field label="Weight of one unit (g)" error={errors.weightGrams?.message}>
         <Input inputMode="numeric" aria-invalid={!!errors.weightGrams} {...form.register('weightGrams', { valueAsNumber: true })} />
       </Field>

@@ -32,6 +32,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
             <th className={th}>Needed</th>
             <th className={th}>Reserved</th>
             <th className={th}>Free in stock</th>
+            <th className={th}>On order</th>
             <th className={th}>Short</th>
             <th className={th}>Needed by</th>
             <th className={th}>Supplier · lead time</th>
@@ -55,6 +56,15 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
               </td>
               <td className={td}>{r.reserved}</td>
               <td className={td}>{r.available}</td>
+              <td className="px-3 py-2" data-testid="on-order">
+                {r.onOrder > 0 ? <span className="block tabular-nums">{r.onOrder}</span> : '—'}
+                {r.onOrderPurchaseOrders.map((po) => (
+                  <span key={po.number} className="block text-sm text-stone-600">
+                    {po.number}: {po.outstanding}
+                    {po.expectedDate ? `, due ${formatDay(po.expectedDate)}` : ''}
+                  </span>
+                ))}
+              </td>
               <td className={cn(td, r.short > 0 && 'font-bold text-red-700')}>{r.short > 0 ? `${r.short} ${unitWord(r)}` : '—'}</td>
               <td className="px-3 py-2">
                 {r.neededBy ? <span className="block font-bold">{formatDay(r.neededBy)}</span> : null}
@@ -68,7 +78,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
                 {r.suggestedOrder > 0 ? `${r.suggestedOrder} ${unitWord(r)}` : '—'}
                 {r.belowReorderPoint && (
                   <span className="block text-sm font-normal text-stone-600">
-                    {r.available} free, reorder point {r.reorderPoint}
+                    {r.available} free{r.onOrder > 0 ? ` + ${r.onOrder} on order` : ''}, reorder point {r.reorderPoint}
                   </span>
                 )}
               </td>
@@ -76,7 +86,7 @@ export function ShortagesTable({ rows, formatLength }: { rows: ShortageRow[]; fo
           ))}
           {rows.length === 0 && (
             <tr>
-              <td colSpan={8} className="px-3 py-6 text-center text-stone-500">
+              <td colSpan={9} className="px-3 py-6 text-center text-stone-500">
                 Nothing is short: every open order's parts are reserved or free in stock, and no part is at its reorder point.
               </td>
             </tr>

@@ -25,7 +25,7 @@ export function PackingListUpload() {
   const receive = useReceivePackingList()
 
   const check = (text: string) =>
-    previewMutation.mutate({ csv: text, defaultReference: defaultReference || null }, { onSuccess: setPreview, onError: showError })
+    previewMutation.mutate({ csv: text, defaultReference: defaultReference || null, purchaseOrderId: null }, { onSuccess: setPreview, onError: showError })
 
   const onFile = async (file: File | undefined) => {
     if (!file) return
@@ -38,7 +38,8 @@ export function PackingListUpload() {
   const apply = () => {
     if (!csv) return
     receive.mutate(
-      { csv, defaultReference: defaultReference || null },
+      // Rows name their purchase order in the file's purchase_order column.
+      { csv, defaultReference: defaultReference || null, purchaseOrderId: null },
       {
         onSuccess: ({ moves }) => {
           toast.success(`Received ${moves.length} ${moves.length === 1 ? 'line' : 'lines'} from ${fileName || 'the packing list'}`)

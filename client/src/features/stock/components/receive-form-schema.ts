@@ -11,12 +11,14 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
   return z
     .object({
       reference: StockReferenceSchema,
+      purchaseOrderId: z.string(),
       lines: z
         .array(
           z.object({
             partId: z.string().min(1, 'Choose a part'),
             quantity: StockQuantitySchema,
             stickLength: z.string().trim(),
+            reason: z.string().trim().max(200, 'Use at most 200 characters'),
           }),
         )
         .min(1, 'Add at least one line'),
@@ -33,9 +35,9 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
             else ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: parsed.message })
           }
         }
-        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference }
+        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference, reason: line.reason || null, closeShort: false }
       })
-      return { lines }
+      return { lines, purchaseOrderId: form.purchaseOrderId || null }
     })
 }
 
