@@ -114,6 +114,8 @@ export const ShopIdentitySchema = z.object({
   replyToAddress: z.string().nullable(),
   /** The ship-from / return address; null until the owner sets it (no label can be bought before). */
   shipFrom: ShipFromAddressSchema.nullable(),
+  /** The carrier the shop ships with, as its shipping service names it; printed on labels, mails and timelines. */
+  carrierName: z.string().nullable(),
   /** Read-only: the address people and customers reach Kitwright by (PUBLIC_URL in the environment). */
   publicUrl: z.string(),
   /** Read-only: the sender address used until the owner sets one (MAIL_FROM in the environment). */
@@ -130,6 +132,8 @@ export const UpdateShopIdentitySchema = z
     mailFromAddress: optionalEmail('sender e-mail'),
     replyToAddress: optionalEmail('reply-to e-mail'),
     shipFrom: ShipFromAddressSchema.nullable(),
+    /** Left out: unchanged. */
+    carrierName: optionalLine('carrier name', 80).optional(),
   })
   .strict()
 /** What the admin sets of the shop's identity. */

@@ -4,7 +4,7 @@
 // the HTML body are read by an HTML parser (happy-dom), those of the text body by a URL pattern.
 import { readdirSync, readFileSync } from 'node:fs'
 import path from 'node:path'
-import { and, eq } from 'drizzle-orm'
+import { and, desc, eq } from 'drizzle-orm'
 import { Window } from 'happy-dom'
 import { simpleParser, type ParsedMail } from 'mailparser'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -108,9 +108,25 @@ describe('the shop identity in the settings', () => {
     const res = await admin.get('/api/settings/identity')
     expect(res.status).toBe(200)
     const identity = ShopIdentitySchema.parse(res.body)
-    expect(identity).toEqual({ shopName: 'Mistwell Tote Works', ...DEMO_MAIL_IDENTITY, shipFrom: SHIP_FROM, publicUrl: PUBLIC_URL, mailFromFallback: FALLBACK_FROM })
+    expect(identity).toEqual({ shopName: 'Mistwell Tote Works', ...DEMO_MAIL_IDENTITY, shipFrom: SHIP_FROM, carrierName: 'Brindlepost', publicUrl: PUBLIC_URL, mailFromFallback: FALLBACK_FROM })
     expect((await planner.get('/api/settings/identity')).status).toBe(403)
     expect((await planner.put('/api/settings/identity').send({ ...identity })).status).toBe(403)
+  })
+
+  it('lets the owner name the carrier the shop ships with, kept when left out, in the audit when changed', async () => {
+    const identity = ShopIdentitySchema.parse((await admin.get('/api/settings/identity')).body)
+    const { publicUrl: _p, mailFromFallback: _f, ...update } = identity
+    try {
+      const renamed = ShopIdentitySchema.parse((await admin.put('/api/settings/identity').send({ ...update, carrierName: 'Harrowgate Freight' })).body)
+      expect(renamed.carrierName).toBe('Harrowgate Freight')
+      const { carrierName: _c, ...withoutCarrier } = update
+      expect(ShopIdentitySchema.parse((await admin.put('/api/settings/identity').send(withoutCarrier)).body).carrierName).toBe('Harrowgate Freight')
+      const [entry] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity')).orderBy(desc(auditEvents.at)).limit(1)
+      expect(entry!.summary).toContain('carrier')
+      expect(error(await admin.put('/api/settings/identity').send({ ...update, carrierName: 'Two\nlines' }), 400).fields).toMatchObject({ carrierName: 'Keep the carrier name on one line' })
+    } finally {
+      await admin.put('/api/settings/identity').send(update)
+    }
   })
 
   it('refuses a bad sender, reply-to or address with what to fix, and keeps what was saved', async () => {
@@ -149,7 +165,7 @@ describe('the shop identity in the settings', () => {
     const res = await admin.put('/api/settings/identity').send(change)
     expect(res.status, JSON.stringify(res.body)).toBe(200)
     expect(ShopIdentitySchema.parse(res.body)).toMatchObject({ mailFromName: 'Ada at Mistwell', mailFromAddress: 'hello@mistwell.example', replyToAddress: 'ada.workbench@mistwell.example' })
-    const [audit] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity'))
+    const [audit] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity')).orderBy(desc(auditEvents.at)).limit(1)
     expect(audit?.summary).toBe("Changed the shop's identity: sender name, sender e-mail, reply-to e-mail, ship-from address")
     expect(audit?.data).toMatchObject({ mailFromName: { from: 'Mistwell Tote Works', to: 'Ada at Mistwell' }, replyToAddress: { from: DEMO_MAIL_IDENTITY.replyToAddress, to: 'ada.workbench@mistwell.example' } })
 

@@ -72,6 +72,7 @@ function toShopIdentity(row: ShopSettingsRow, env: IdentityEnvironment): ShopIde
     mailFromAddress: row.mailFromAddress,
     replyToAddress: row.replyToAddress,
     shipFrom: shipFromOf(row),
+    carrierName: row.carrierName,
     publicUrl: env.publicUrl,
     mailFromFallback: env.mailFrom,
   }
@@ -87,6 +88,7 @@ const IDENTITY_WORDS = {
   mailFromAddress: 'sender e-mail',
   replyToAddress: 'reply-to e-mail',
   shipFrom: 'ship-from address',
+  carrierName: 'carrier',
 } as const
 
 /**
@@ -112,6 +114,7 @@ export async function updateShopIdentity(db: Db, input: z.output<typeof UpdateSh
         senderPostalCode: a?.postalCode ?? null,
         senderCountry: a?.country ?? null,
         senderPhone: a?.phone ?? null,
+        ...(input.carrierName !== undefined ? { carrierName: input.carrierName } : {}),
         updatedAt: new Date(),
       })
       .where(eq(shopSettings.id, 1))

@@ -16,6 +16,7 @@ interface IdentityFormValues {
   mailFromName: string
   mailFromAddress: string
   replyToAddress: string
+  carrierName: string
   shipFrom: Record<AddressField, string>
 }
 
@@ -27,6 +28,7 @@ function toUpdate(v: IdentityFormValues): UpdateShopIdentity {
     mailFromName: v.mailFromName,
     mailFromAddress: v.mailFromAddress,
     replyToAddress: v.replyToAddress,
+    carrierName: v.carrierName,
     shipFrom: blankAddress ? null : { ...v.shipFrom },
   }
 }
@@ -38,6 +40,7 @@ const identityFormSchema = z
     mailFromName: z.string(),
     mailFromAddress: z.string(),
     replyToAddress: z.string(),
+    carrierName: z.string(),
     shipFrom: z.object(Object.fromEntries(ADDRESS_FIELDS.map((k) => [k, z.string()])) as Record<AddressField, z.ZodString>),
   })
   .superRefine((v, ctx) => {
@@ -52,6 +55,7 @@ function valuesOf(identity: ShopIdentity): IdentityFormValues {
     mailFromName: identity.mailFromName ?? '',
     mailFromAddress: identity.mailFromAddress ?? '',
     replyToAddress: identity.replyToAddress ?? '',
+    carrierName: identity.carrierName ?? '',
     shipFrom: Object.fromEntries(ADDRESS_FIELDS.map((k) => [k, a?.[k] ?? ''])) as Record<AddressField, string>,
   }
 }
@@ -99,6 +103,9 @@ export function IdentityForm({ identity }: { identity: ShopIdentity }) {
         </div>
         <Field label="Reply-to e-mail" error={errors.replyToAddress?.message} hint="Where customers' replies go; blank: to the From address.">
           <Input type="email" {...form.register('replyToAddress')} aria-invalid={!!errors.replyToAddress} />
+        </Field>
+        <Field label="Carrier" error={errors.carrierName?.message} hint="The carrier you ship with, as your shipping service names it; printed on labels, e-mails and timelines. Only its rates are offered.">
+          <Input {...form.register('carrierName')} aria-invalid={!!errors.carrierName} />
         </Field>
       </fieldset>
       <fieldset className="space-y-4">
