@@ -70,7 +70,7 @@ export async function updateSupplier(db: Db, id: string, input: SaveSupplier): P
 /** Sets what a supplier sells of a part; `preferred` makes them the part's supplier. */
 export async function saveSupplierPart(db: Db, supplierId: string, partId: string, input: SaveSupplierPart): Promise<Supplier> {
   return db.transaction(async (tx) => {
-    const [supplier] = await tx.select({ id: suppliers.id }).from(suppliers).where(eq(suppliers.id, supplierId))
+    const [supplier] = await tx.select({ id: suppliers.id, name: suppliers.name }).from(suppliers).where(eq(suppliers.id, supplierId))
     if (!supplier) throw new NotFound('No such supplier')
     const [part] = await tx.select({ id: parts.id, supplierId: parts.supplierId }).from(parts).where(eq(parts.id, partId))
     if (!part) throw new NotFound('No such part')
@@ -79,7 +79,8 @@ export async function saveSupplierPart(db: Db, supplierId: string, partId: strin
       .insert(supplierParts)
       .values({ supplierId, partId, ...values })
       .onConflictDoUpdate({ target: [supplierParts.supplierId, supplierParts.partId], set: { ...values, updatedAt: new Date() } })
-    if (input.preferred || part.supplierId === null) await tx.update(parts).set({ supplierId, updatedAt: new Date() }).where(eq(parts.id, partId))
+    // The part's supplier name (its form, list and CSV) follows the record it is linked to.
+    if (input.preferred || part.supplierId === null) await tx.update(parts).set({ supplierId, supplier: supplier.name, updatedAt: new Date() }).where(eq(parts.id, partId))
     return getSupplier(tx, supplierId)
   })
 }
