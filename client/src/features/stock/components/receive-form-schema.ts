@@ -19,6 +19,7 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
             quantity: StockQuantitySchema,
             stickLength: z.string().trim(),
             reason: z.string().trim().max(200, 'Use at most 200 characters'),
+            closeShort: z.boolean(),
           }),
         )
         .min(1, 'Add at least one line'),
@@ -35,7 +36,7 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
             else ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: parsed.message })
           }
         }
-        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference, reason: line.reason || null, closeShort: false }
+        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference, reason: line.reason || null, closeShort: line.closeShort }
       })
       return { lines, purchaseOrderId: form.purchaseOrderId || null }
     })

@@ -12,7 +12,7 @@ import { useLengthUnit } from '../../../lib/shop-settings'
 import { stockPartOptions, useReceiveStock } from '../api/stock-queries'
 import { makeReceiveFormSchema, type ReceiveFormValues } from './receive-form-schema'
 
-const EMPTY_LINE = { partId: '', quantity: Number.NaN, stickLength: '', reason: '' }
+const EMPTY_LINE = { partId: '', quantity: Number.NaN, stickLength: '', reason: '', closeShort: false }
 
 /**
  * The receiving form: one or more lines of one delivery, saved together or not at all. Against a
@@ -38,7 +38,7 @@ export function ReceiveForm({ openOrders = [], initialPurchaseOrderId = '' }: { 
       reference: form.getValues('reference'),
       purchaseOrderId: id,
       lines: due.length
-        ? due.map((l) => ({ partId: l.partId, quantity: l.outstanding, stickLength: l.stickLength === null ? '' : formatStickLength(l.stickLength, unit), reason: '' }))
+        ? due.map((l) => ({ partId: l.partId, quantity: l.outstanding, stickLength: l.stickLength === null ? '' : formatStickLength(l.stickLength, unit), reason: '', closeShort: false }))
         : [EMPTY_LINE],
     })
   }
@@ -138,6 +138,10 @@ export function ReceiveForm({ openOrders = [], initialPurchaseOrderId = '' }: { 
                 <Field label={`Reason, if more than is still to come (line ${i + 1})`} error={e?.reason?.message}>
                   <Input aria-invalid={!!e?.reason} placeholder="e.g. the supplier sent a full box" {...form.register(`lines.${i}.reason`)} />
                 </Field>
+                <label className="mt-2 flex items-center gap-2 text-sm">
+                  <input type="checkbox" className="h-5 w-5" {...form.register(`lines.${i}.closeShort`)} />
+                  The rest of this line will not come: close it short (give the reason above)
+                </label>
               </div>
             )}
             <div className="flex h-full items-end pb-1">
