@@ -292,7 +292,10 @@ describe('the cut bench', () => {
 describe('bins at the cut bench', () => {
   it('assigns a scanned bin to a work order, which is cut once all its pieces are, and refuses a bin in use', async () => {
     const bins = (await planner.post('/api/bins').send({ count: 3 })).body as { id: string; code: string }[]
-    expect(bins.map((b) => b.code)).toEqual(['BIN-0001', 'BIN-0002', 'BIN-0003'])
+    // The demo shop already has its batch of bins; a new batch carries on the numbering.
+    const [first, second, third] = bins.map((b) => b.code) as [string, string, string]
+    const n = Number(first.slice(4))
+    expect([first, second, third]).toEqual([n, n + 1, n + 2].map((k) => `BIN-${String(k).padStart(4, '0')}`))
     const wos = await insertWorkOrders(t.db, { kitSku: 'MW-TOTE-6C', count: 2 })
     const run = await publish((await plan({ workOrderIds: wos.map((w) => w.id), useOffcuts: false })).id)
     const [a, b] = wos
@@ -301,11 +304,11 @@ describe('bins at the cut bench', () => {
     expect(unknown.status).toBe(404)
     expect(ApiErrorBodySchema.parse(unknown.body).error.message).toBe('No bin BIN-9999: check the label, or add the bin on the bins page')
     // A bin early: the work order is not cut until its last piece is.
-    const early = CutRunDetailSchema.parse((await assign(a!.id, ' bin-0002 ')).body)
-    expect(early.workOrders.find((w) => w.id === a!.id)).toMatchObject({ bin: { code: 'BIN-0002' }, status: 'waiting_cut' })
-    const inUse = await assign(b!.id, 'BIN-0002')
+    const early = CutRunDetailSchema.parse((await assign(a!.id, ` ${second.toLowerCase()} `)).body)
+    expect(early.workOrders.find((w) => w.id === a!.id)).toMatchObject({ bin: { code: second }, status: 'waiting_cut' })
+    const inUse = await assign(b!.id, second)
     expect(inUse.status).toBe(409)
-    expect(ApiErrorBodySchema.parse(inUse.body).error.message).toBe(`Bin BIN-0002 already holds work order ${a!.serial}; scan a free bin`)
+    expect(ApiErrorBodySchema.parse(inUse.body).error.message).toBe(`Bin ${second} already holds work order ${a!.serial}; scan a free bin`)
     let view = early
     for (const s of run.sticks) for (const c of s.cuts) if (c.workOrderId === a!.id) view = CutRunDetailSchema.parse((await cutter.post(`/api/cut-runs/${run.id}/cuts/${c.id}/tick`)).body)
     expect(view.workOrders.find((w) => w.id === a!.id)).toMatchObject({ status: 'cut', cut: view.workOrders.find((w) => w.id === a!.id)!.pieces })
@@ -313,10 +316,10 @@ describe('bins at the cut bench', () => {
     // All of b's pieces cut first, then its bin scanned: cut at the scan.
     for (const s of run.sticks) for (const c of s.cuts) if (c.workOrderId === b!.id && c.status === 'pending') await cutter.post(`/api/cut-runs/${run.id}/cuts/${c.id}/tick`)
     expect((await t.db.select().from(workOrders).where(eq(workOrders.id, b!.id)))[0]!.status).toBe('waiting_cut')
-    const scanned = CutRunDetailSchema.parse((await assign(b!.id, 'BIN-0003')).body)
-    expect(scanned.workOrders.find((w) => w.id === b!.id)).toMatchObject({ status: 'cut', bin: { code: 'BIN-0003' } })
-    const second = await assign(b!.id, 'BIN-0001')
-    expect(second.status).toBe(409)
-    expect(ApiErrorBodySchema.parse(second.body).error.message).toMatch(/already has bin BIN-0003/)
+    const scanned = CutRunDetailSchema.parse((await assign(b!.id, third)).body)
+    expect(scanned.workOrders.find((w) => w.id === b!.id)).toMatchObject({ status: 'cut', bin: { code: third } })
+    const again = await assign(b!.id, first)
+    expect(again.status).toBe(409)
+    expect(ApiErrorBodySchema.parse(again.body).error.message).toMatch(new RegExp(`already has bin ${third}`))
   })
 })
