@@ -285,6 +285,29 @@ describe('a packing list against a purchase order', () => {
   })
 })
 
+describe('a line closed short', () => {
+  it('needs a reason; with one, the order is received and nothing more is on order', async () => {
+    const { supplier, part } = await supplierWithPart('Thistledown Seals', 'orders@thistledown.example', 0, 1000)
+    const po = DraftFromShortagesResultSchema.parse((await planner.post('/api/purchase-orders/from-shortages')).body).created.find((p) => p.supplier.id === supplier.id)!
+    expect((await planner.post(`/api/purchase-orders/${po.id}/send`)).status).toBe(201)
+    const before = await counts()
+    const bare = await planner.post('/api/stock/receive').send({ purchaseOrderId: po.id, lines: [{ partId: part.id, quantity: 10, closeShort: true }] })
+    expect(bare.status).toBe(400)
+    expect(ApiErrorBodySchema.parse(bare.body).error.fields?.['lines.0.reason']).toBe(`Say why the rest of ${part.sku} will not come (closing the line short)`)
+    expect(await counts()).toEqual(before)
+    const res = await planner.post('/api/stock/receive').send({ purchaseOrderId: po.id, lines: [{ partId: part.id, quantity: 10, closeShort: true, reason: 'Discontinued by the maker' }] })
+    expect(res.status, JSON.stringify(res.body)).toBe(201)
+    const after = PurchaseOrderSchema.parse((await planner.get(`/api/purchase-orders/${po.id}`)).body)
+    // 15 ordered, 10 received, the other 5 will not come: nothing is outstanding and the order is received.
+    expect(after.status).toBe('received')
+    expect(after.lines[0]).toMatchObject({ quantity: 15, received: 10, outstanding: 0, closedShortReason: 'Discontinued by the maker' })
+    const row = ShortagesSchema.parse((await planner.get('/api/shortages?only=all')).body).rows.find((r) => r.partId === part.id)
+    expect(row?.onOrder ?? 0).toBe(0)
+    // A draft or a received order takes no receipts.
+    expect((await planner.post('/api/stock/receive').send({ purchaseOrderId: po.id, lines: [{ partId: part.id, quantity: 1, reason: 'extra' }] })).status).toBe(409)
+  })
+})
+
 describe('who may buy', () => {
   it('admins and planners; cutters, assemblers and packers get 403 on every purchasing route', async () => {
     const [anyPo] = await t.db.select().from(purchaseOrders).limit(1)
