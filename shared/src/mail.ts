@@ -34,6 +34,8 @@ export type MailSummary = z.infer<typeof MailSummarySchema>
 export const MailMessageSchema = MailSummarySchema.extend({
   text: z.string(),
   html: z.string().nullable(),
+  /** Files sent with it (a purchase order's PDF): name, type and size in bytes. */
+  attachments: z.array(z.object({ filename: z.string(), contentType: z.string(), bytes: z.number().int() })).default([]),
 })
 /** One message with its bodies. */
 export type MailMessage = z.infer<typeof MailMessageSchema>

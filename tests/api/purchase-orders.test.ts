@@ -6,6 +6,7 @@ import { and, eq, sql } from 'drizzle-orm'
 import { simpleParser, type ParsedMail } from 'mailparser'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
+import { MailMessageSchema } from '@kitwright/shared/mail'
 import { DraftFromShortagesResultSchema, PurchaseOrderSchema, SupplierSchema, type PurchaseOrder } from '@kitwright/shared/purchasing'
 import { ShortagesSchema } from '@kitwright/shared/work-orders'
 import { DEMO_SHOP_NAME, seedDemo } from '../../server/src/db/seed'
@@ -195,6 +196,10 @@ describe('purchase orders from shortages to receipt', () => {
     const attachment = mail.attachments.find((x) => x.contentType === 'application/pdf')!
     expect(attachment.filename).toBe(`${po.number}.pdf`)
     expect(pdfText(attachment.content)).toContain(`Purchase order ${po.number}`)
+    // The outbox names the attachment.
+    const outbox = MailMessageSchema.parse((await planner.get(`/api/mail/${po.sentMailId}`)).body)
+    expect(outbox).toMatchObject({ status: 'sent', to: 'orders@marrowby.example' })
+    expect(outbox.attachments).toEqual([{ filename: `${po.number}.pdf`, contentType: 'application/pdf', bytes: attachment.content.length }])
 
     const row = ShortagesSchema.parse((await planner.get('/api/shortages?only=all')).body).rows.find((r) => r.partId === partId)!
     // By hand: 20 ordered, none received → 20 on order; free 4 + 20 on order = 24, still at or below

@@ -17,5 +17,10 @@ export function toMailSummary(row: MailMessageRow, orderNumber: string | null): 
 }
 
 export function toMailMessage(row: MailMessageRow, orderNumber: string | null): MailMessage {
-  return { ...toMailSummary(row, orderNumber), text: row.text, html: row.html }
+  return {
+    ...toMailSummary(row, orderNumber),
+    text: row.text,
+    html: row.html,
+    attachments: row.attachments.map((a) => ({ filename: a.filename, contentType: a.contentType, bytes: Buffer.byteLength(a.contentBase64, 'base64') })),
+  }
 }

@@ -63,6 +63,11 @@ export function MailReader({ id, onClose }: { id: string; onClose: () => void })
               </>
             )}
           </dl>
+          {mail.attachments.length > 0 && (
+            <p className="text-stone-700">
+              Attached: {mail.attachments.map((a) => `${a.filename} (${Math.max(1, Math.round(a.bytes / 1024))} kB)`).join(', ')}
+            </p>
+          )}
           {mail.html ? (
             <iframe title="Message as the customer sees it" sandbox="" srcDoc={mail.html} className="h-96 w-full rounded border border-stone-300 bg-white" />
           ) : (
