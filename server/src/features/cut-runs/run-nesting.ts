@@ -16,6 +16,8 @@ export function nestingPool(): NestingPool {
  * @returns the plan
  * @throws NestingInputError for input the engine rejects; Error for anything else
  */
-export function runNesting(input: NestInput, options: NestOptions = {}): Promise<NestPlan> {
-  return nestingPool().run(input, options)
+export async function runNesting(input: NestInput, options: NestOptions = {}): Promise<NestPlan> {
+  const plan = await nestingPool().run(input, options)
+  if (plan.stats.solverUnavailable) console.warn(`[nesting] the LP solver could not be loaded (${plan.stats.solverUnavailable}); this plan is the greedy one, without proof`)
+  return plan
 }

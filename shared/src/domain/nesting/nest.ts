@@ -50,7 +50,7 @@ interface Search {
   /** Which bound `costBound` is. */
   source: NestBoundSource
   /** Work counts. */
-  stats: { lpIterations: number; columns: number; diveSteps: number }
+  stats: { lpIterations: number; columns: number; diveSteps: number; solverUnavailable: string | null }
 }
 
 /**
@@ -73,7 +73,7 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   const sb = simpleBounds(problem)
   const simpleSource: NestBoundSource = sb.martelloTothSticks > sb.continuousSticks ? 'martello-toth' : 'continuous'
   let source: NestBoundSource = simpleSource
-  const stats = { lpIterations: 0, columns: 0, diveSteps: 0 }
+  const stats = { lpIterations: 0, columns: 0, diveSteps: 0, solverUnavailable: null as string | null }
   const candidates = [greedyPlan(problem, undefined, undefined, true), greedyPlan(problem)]
   let incumbent: PatternSolution | null = null
   for (const c of candidates) if (c && better(problem, c, incumbent)) incumbent = c
@@ -137,8 +137,9 @@ async function search(problem: CuttingProblem, options: NestOptions, deadline: n
   let highs
   try {
     highs = await loadHighs()
-  } catch {
-    // Without the solver the greedy plan is still a valid plan.
+  } catch (err) {
+    // Without the solver the greedy plan is still a valid plan; the plan says why it has no proof.
+    stats.solverUnavailable = err instanceof Error ? err.message : String(err)
     return { solution: incumbent, costBound: lowerBound * g, lp: null, scale: g, timedOut: false, source, stats }
   }
   const lp = solveMasterLp(highs, problem, costs, incumbent.uses.map((u) => u.pattern), deadline)
@@ -263,8 +264,9 @@ async function fewerPatterns(problem: CuttingProblem, found: Search, deadline: n
   let highs
   try {
     highs = await loadHighs()
-  } catch {
+  } catch (err) {
     // Without the solver the plan stays as it is (still proven best in cost).
+    found.stats.solverUnavailable = err instanceof Error ? err.message : String(err)
     return
   }
   const until = Math.min(deadline, Date.now() + Math.min((deadline - Date.now()) / 2, Math.max(50, limit / 4), PATTERN_PASS_MAX_MS))

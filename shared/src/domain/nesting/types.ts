@@ -232,6 +232,8 @@ export interface NestStats {
   diveSteps: number
   /** Distinct patterns before the pattern-reduction pass (equal to the plan's when it found nothing). */
   patternsBeforeReduction: number
+  /** Why the LP solver could not be loaded, when it could not: the plan is then the greedy one, without proof. */
+  solverUnavailable: string | null
 }
 
 /** A complete cut plan. */
