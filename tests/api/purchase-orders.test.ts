@@ -100,6 +100,17 @@ describe('suppliers', () => {
     ])
   })
 
+  it("links a part to the supplier its supplier name stands for, whatever the case, and unlinks it for a name of no supplier", async () => {
+    const { supplier, part } = await supplierWithPart('Pennywhistle Fittings', 'orders@pennywhistle.example', 0, 500)
+    const stored = async () => (await t.db.select().from(parts).where(eq(parts.id, part.id)))[0]!
+    // Saving what the supplier sells made them the part's supplier, with their name.
+    expect(await stored()).toMatchObject({ supplierId: supplier.id, supplier: 'Pennywhistle Fittings' })
+    expect((await planner.patch(`/api/parts/${part.id}`).send({ supplier: 'Somebody Else Ltd' })).status).toBe(200)
+    expect(await stored()).toMatchObject({ supplierId: null, supplier: 'Somebody Else Ltd' })
+    expect((await planner.patch(`/api/parts/${part.id}`).send({ supplier: 'PENNYWHISTLE fittings' })).status).toBe(200)
+    expect((await stored()).supplierId).toBe(supplier.id)
+  })
+
   it('made the demo suppliers from the names the demo parts carried', async () => {
     const res = await planner.get('/api/suppliers')
     const list = SupplierSchema.array().parse(res.body)

@@ -66,19 +66,28 @@ export async function selectAllParts(db: Conn): Promise<PartRow[]> {
   return db.select().from(parts).orderBy(asc(parts.sku))
 }
 
+/**
+ * The supplier record a part's supplier name stands for (same name, whatever its case), or null:
+ * the part is linked to it, so drafts from shortages go to that supplier.
+ */
+function supplierIdOf(name: string | null) {
+  return name ? sql<string | null>`(select s.id from suppliers s where lower(s.name) = lower(${name.trim()}))` : sql<null>`null`
+}
+
 export async function insertPart(db: Conn, input: PartInput): Promise<PartRow> {
-  const [row] = await db.insert(parts).values(input).returning()
+  const [row] = await db.insert(parts).values({ ...input, supplierId: supplierIdOf(input.supplier) }).returning()
   return row!
 }
 
 export async function updatePartRow(db: Conn, id: string, set: Partial<PartInput> & { active?: boolean }): Promise<PartRow | undefined> {
-  const [row] = await db.update(parts).set({ ...set, updatedAt: new Date() }).where(eq(parts.id, id)).returning()
+  const link = set.supplier === undefined ? {} : { supplierId: supplierIdOf(set.supplier) }
+  const [row] = await db.update(parts).set({ ...set, ...link, updatedAt: new Date() }).where(eq(parts.id, id)).returning()
   return row
 }
 
 /** Inserts or, for a SKU already stored, overwrites the part; `active` is left alone when undefined. */
 export async function upsertPart(db: Conn, input: PartInput, active: boolean | undefined): Promise<void> {
-  const values = active === undefined ? input : { ...input, active }
+  const values = { ...(active === undefined ? input : { ...input, active }), supplierId: supplierIdOf(input.supplier) }
   await db
     .insert(parts)
     .values(values)
