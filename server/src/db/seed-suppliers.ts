@@ -36,7 +36,12 @@ export async function seedDemoSuppliers(db: Db) {
   const linked = await db.select().from(parts).where(sql`${parts.supplierId} is not null`)
   for (const p of linked) {
     const pack = PACKS.find((k) => p.sku.startsWith(k.prefix))
-    const priceBreaks = [{ minQuantity: 1, unitPriceCents: p.unitCostCents }, ...(pack?.discounts ?? []).map(([minQuantity, f]) => ({ minQuantity, unitPriceCents: Math.round(p.unitCostCents * f) }))]
+    // A break that would not lower the price (a part of a few cents) is left out.
+    const priceBreaks = [{ minQuantity: 1, unitPriceCents: p.unitCostCents }]
+    for (const [minQuantity, f] of pack?.discounts ?? []) {
+      const unitPriceCents = Math.round(p.unitCostCents * f)
+      if (unitPriceCents < priceBreaks[priceBreaks.length - 1]!.unitPriceCents) priceBreaks.push({ minQuantity, unitPriceCents })
+    }
     await db
       .insert(supplierParts)
       .values({ supplierId: p.supplierId!, partId: p.id, supplierSku: `${p.sku.replace(/^[A-Z]+-/, '')}-S`, packSize: pack?.packSize ?? 1, priceBreaks })
