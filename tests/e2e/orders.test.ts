@@ -133,9 +133,9 @@ describe('orders, in Chromium', () => {
     const row = page.getByRole('table', { name: 'Shortages' }).getByRole('row').filter({ hasText: 'E2E-FLOAT-1' })
     await row.waitFor()
     expect(await row.getAttribute('data-short')).toBe('true')
-    // Needed 3, reserved 2, free 0: short 1; buy the reorder quantity of 20, being more.
+    // Needed 3, reserved 2, free 0, nothing on order: short 1; buy the reorder quantity of 20, being more.
     const cells = await row.getByRole('cell').allTextContents()
-    expect(cells.slice(1, 5)).toEqual(['3 each', '2', '0', '1 each'])
+    expect(cells.slice(1, 6)).toEqual(['3 each', '2', '0', '—', '1 each'])
     expect(cells.at(-1)).toBe('20 each')
     await shot('shortages')
   })
