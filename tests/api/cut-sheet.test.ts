@@ -8,7 +8,7 @@ import { foldRuns, runNumbers, samePieceRow } from '@kitwright/shared/domain/saw
 import { formatLength, inches } from '@kitwright/shared/domain/units'
 import { PAPER } from '../../server/src/features/labels/pdf-document'
 import { seedDemo } from '../../server/src/db/seed'
-import { parts } from '../../server/src/db/schema/index'
+import { parts, stockMoves } from '../../server/src/db/schema/index'
 import { eq } from 'drizzle-orm'
 import { buildApp, signedInAs } from '../support/app'
 import { insertCutKit, insertWorkOrders } from '../support/cut-run-factories'
@@ -20,12 +20,13 @@ let planner: Awaited<ReturnType<typeof signedInAs>>['agent']
 let cutter: Awaited<ReturnType<typeof signedInAs>>['agent']
 let small: CutRunDetail
 let big: CutRunDetail
+let rails: CutRunDetail
 let pegs: CutRunDetail
 const artifacts = path.resolve(import.meta.dirname, '../.artifacts')
 
 async function planAndPublish(workOrderIds: string[], timeLimitSeconds: number, stock?: { partId: string; stickLength: number; maxSticks: number }[]) {
   const draft = await planner.post('/api/cut-runs').send({ workOrderIds, timeLimitSeconds, stock })
-  expect(draft.status).toBe(201)
+  expect(draft.status, JSON.stringify(draft.body)).toBe(201)
   const published = await planner.post(`/api/cut-runs/${draft.body.id}/publish`)
   expect(published.status).toBe(200)
   return CutRunDetailSchema.parse(published.body)
@@ -58,8 +59,15 @@ beforeAll(async () => {
     ...(await insertWorkOrders(t.db, { kitSku: 'TST-SPOKE', count: 8 })),
   ]
   big = await planAndPublish(wos.map((w) => w.id), 5)
-  // One unit of 51 pegs on one 240 in stick: narrow pieces, numbered under the stick with leaders.
   const pipe = await t.db.select().from(parts).where(eq(parts.sku, 'PVC-050-S40'))
+  // Rails alone: two 58 in rails fill a stick and three never fit, so every plan is one pattern cut
+  // on 32 sticks (8 units × 8 rails), taller than a page whatever the engine's time allows.
+  // Cut from 10 ft sticks only, received for it.
+  await insertCutKit(t.db, { sku: 'TST-RAIL8', cutParts: [{ label: 'rail', length: inches(58), quantity: 8 }] })
+  await t.db.insert(stockMoves).values({ partId: pipe[0]!.id, kind: 'receive', quantity: 40, stickLength: inches(120) })
+  const railUnits = await insertWorkOrders(t.db, { kitSku: 'TST-RAIL8', count: 8 })
+  rails = await planAndPublish(railUnits.map((w) => w.id), 5, [{ partId: pipe[0]!.id, stickLength: inches(120), maxSticks: 40 }])
+  // One unit of 51 pegs on one 240 in stick: narrow pieces, numbered under the stick with leaders.
   const pegUnit = await insertWorkOrders(t.db, { kitSku: 'TST-PEG', count: 1 })
   pegs = await planAndPublish(pegUnit.map((w) => w.id), 3, [{ partId: pipe[0]!.id, stickLength: inches(240), maxSticks: 1 }])
 }, 120_000)
@@ -82,7 +90,7 @@ async function sheet(run: CutRunDetail, paper: string) {
   const file = path.join(dir, 's.pdf')
   writeFileSync(file, res.body as Buffer)
   mkdirSync(artifacts, { recursive: true })
-  writeFileSync(path.join(artifacts, `cut-sheet-${run === big ? 'big' : run === pegs ? 'pegs' : 'small'}-${paper}.pdf`), res.body as Buffer)
+  writeFileSync(path.join(artifacts, `cut-sheet-${run === big ? 'big' : run === pegs ? 'pegs' : run === rails ? 'rails' : 'small'}-${paper}.pdf`), res.body as Buffer)
   // poppler's pdftotext and pdfinfo read the PDF back: an outside reader, not our own code.
   const text = execFileSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' })
   const info = execFileSync('pdfinfo', [file], { encoding: 'utf8' })
@@ -234,8 +242,11 @@ describe('the cut sheet PDF', () => {
     const read = checkSheet(big, paper, got)
     expect(got.pages.length).toBeGreaterThanOrEqual(3)
     expect(read.pagesOf.size).toBeGreaterThanOrEqual(4)
-    // Some pattern is taller than a page: it went on, "continued", with its drawing repeated.
-    expect(read.headings.some((h) => h.continued)).toBe(true)
+    // A pattern taller than a page (the rails: one pattern on 32 sticks) goes on, "continued", with its drawing repeated.
+    expect(new Set(rails.sticks.map((x) => x.patternIndex)).size).toBe(1)
+    const tall = await sheet(rails, paper)
+    const readTall = checkSheet(rails, paper, tall)
+    expect(readTall.headings.some((h) => h.continued)).toBe(true)
   })
 
   it.each(['letter', 'a4'] as const)('a stick of 51 equal pegs on %s: one row of 51, all 51 pieces numbered on the drawing', async (paper) => {
