@@ -53,7 +53,10 @@ describe('the stock page, in Chromium', () => {
   it('lets a planner receive pump and pipe through the form and see on-hand change', async () => {
     await page.goto(`${baseUrl}/catalog/stock?q=${DEMO_PART_SKUS.pump}`)
     await stockRow(DEMO_PART_SKUS.pump).waitFor()
-    const before = Number((await cellTexts(DEMO_PART_SKUS.pump))[4]!.replace(/\D/g, ''))
+    const cells = await cellTexts(DEMO_PART_SKUS.pump)
+    const before = Number(cells[4]!.replace(/\D/g, ''))
+    // Earlier browser tests may have released an order that holds a pump: receiving leaves that as it was.
+    const reservedBefore = cells[5]!.replace(/\D/g, '')
 
     await page.getByRole('link', { name: 'Receive stock' }).click()
     const form = page.getByRole('form', { name: 'Receive stock' })
@@ -83,7 +86,7 @@ describe('the stock page, in Chromium', () => {
     const ledger = page.getByRole('table', { name: 'Ledger' })
     await ledger.waitFor()
     const newest = await ledger.getByRole('row').nth(1).getByRole('cell').allTextContents()
-    expect(newest.slice(1)).toEqual(['Received', '+10', '—', 'BWP-0901', planner.name, String(before + 10), '0'])
+    expect(newest.slice(1)).toEqual(['Received', '+10', '—', 'BWP-0901', planner.name, String(before + 10), reservedBefore])
   })
 
   it('records an adjustment with a reason and refuses one that would take on-hand below zero', async () => {

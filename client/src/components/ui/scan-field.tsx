@@ -41,14 +41,22 @@ export function ScanField({ label, onScan, className }: { label: string; onScan:
     }
     const onBlur = refocus(false)
     const onSubmit = refocus(true)
+    // A wedge scanner can start typing before focus came back (the page still settling): a key
+    // pressed with nothing else taking typing moves focus here first, so the key lands in the field.
+    const onKeyDown = (e: KeyboardEvent) => {
+      if (e.ctrlKey || e.metaKey || e.altKey || e.key.length !== 1) return
+      if (document.activeElement !== input && !typingElsewhere(input)) input.focus({ preventScroll: true })
+    }
     input.addEventListener('blur', onBlur)
     document.addEventListener('click', onBlur)
     document.addEventListener('submit', onSubmit)
+    document.addEventListener('keydown', onKeyDown, true)
     return () => {
       clearTimeout(timer)
       input.removeEventListener('blur', onBlur)
       document.removeEventListener('click', onBlur)
       document.removeEventListener('submit', onSubmit)
+      document.removeEventListener('keydown', onKeyDown, true)
     }
   }, [])
   // Each handled scan may change the page around the field: take focus back once it settles.
@@ -62,6 +70,8 @@ export function ScanField({ label, onScan, className }: { label: string; onScan:
         <span className="mb-1 block text-lg font-bold">{label}</span>
         <input
           ref={ref}
+          // Focus as the field appears, before the first paint: a scan right after the page opens lands.
+          autoFocus
           value={value}
           autoComplete="off"
           autoCapitalize="characters"
