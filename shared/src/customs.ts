@@ -34,6 +34,25 @@ export const HsCodeSchema = z
   .transform((v) => v.replace(/[.\s]/g, ''))
   .pipe(z.string().regex(/^[0-9]{6,10}$/, 'Write the HS code as 6 to 10 digits, e.g. 8413.70 (the 6-digit subheading; dots and spaces are allowed)'))
 
+/**
+ * An ISO 3166-1 alpha-2 country code as a form or a file gives it: any case in, upper case out.
+ * Checked against the officially assigned codes of i18n-iso-countries (see {@link isCountryCode}), so
+ * a user-assigned code such as `ZZ` is refused with a message that says what to enter. `what`
+ * finishes the message: "the country where the part was made", "the country it ships to", …
+ */
+export function countryCodeSchema(what: string) {
+  return z
+    .string({ error: 'Enter the two-letter country code, e.g. US' })
+    .trim()
+    .toUpperCase()
+    .min(1, 'Enter the two-letter country code, e.g. US')
+    .regex(/^[A-Z]{2}$/, 'Use the two-letter country code (ISO 3166-1 alpha-2), e.g. US, CA, GB')
+    .superRefine((v, ctx) => {
+      // Only a two-letter code reaches this check; the pattern above has already explained anything else.
+      if (/^[A-Z]{2}$/.test(v) && !isCountryCode(v)) ctx.addIssue({ code: 'custom', message: `"${v}" is not an ISO 3166-1 country code; use the two letters of ${what}, e.g. US, CA, GB` })
+    })
+}
+
 /** An ISO 3166-1 alpha-2 country of origin, any case in, upper case out. */
 export const OriginCountrySchema = z
   .string()

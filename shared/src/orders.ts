@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { EmailSchema } from './auth'
+import { countryCodeSchema } from './customs'
 import { ORDER_STAGES } from './order-stage'
 import { ORDER_PRIORITIES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
 import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
@@ -76,12 +77,11 @@ const optionalText = (max: number) =>
 /** An order number as the store (or the phone desk) writes it: letters, digits, `-`, `_`, `.`, `#`, `/`. */
 export const OrderNumberSchema = requiredText('order number', 40).regex(/^[A-Za-z0-9#._/-]+$/, 'Use letters, digits and - _ . # / only (no spaces)')
 
-/** ISO 3166-1 alpha-2 country code, e.g. US, CA, GB; lower case is accepted and upper-cased. */
-export const CountryCodeSchema = z
-  .string({ error: 'Enter the two-letter country code, e.g. US' })
-  .trim()
-  .toUpperCase()
-  .regex(/^[A-Z]{2}$/, 'Use the two-letter country code (ISO 3166-1 alpha-2), e.g. US, CA, GB')
+/**
+ * ISO 3166-1 alpha-2 country code, e.g. US, CA, GB; lower case is accepted and upper-cased. Only
+ * officially assigned codes pass (the list of i18n-iso-countries): `ZZ` is refused.
+ */
+export const CountryCodeSchema = countryCodeSchema('the country it ships to')
 
 /** A calendar date, `YYYY-MM-DD`. */
 export const IsoDateSchema = z.iso.date('Use a date as YYYY-MM-DD')

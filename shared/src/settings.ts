@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { countryCodeSchema } from './customs'
 
 /** The shop's settings as the API shows them; lengths in base units. */
 export const ShopSettingsSchema = z.object({
@@ -89,11 +90,7 @@ export const ShipFromAddressSchema = z
     city: oneLine('city', 100),
     region: optionalLine('state or region', 100),
     postalCode: oneLine('postal code', 20),
-    country: z
-      .string({ error: 'Enter the two-letter country code, e.g. US' })
-      .trim()
-      .toUpperCase()
-      .regex(/^[A-Z]{2}$/, 'Use the two-letter country code (ISO 3166-1 alpha-2), e.g. US, CA, GB'),
+    country: countryCodeSchema('the country the shop ships from'),
     phone: optionalLine('phone number', 40),
   }, { error: 'Give the ship-from address (name, street address, city, postal code, country), or null for none' })
   .strict()
