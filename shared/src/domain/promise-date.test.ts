@@ -46,6 +46,14 @@ describe('promiseShipDate', () => {
     expect(r.reasons).toEqual(["the shop's minimum lead time of 3 working days"])
   })
 
+  it('with no lead time, an order placed on a Sunday is promised on a working day', () => {
+    // WORKDAY(Sunday Dec 6, 0) is Sunday Dec 6 itself (working-days.ts): the floor then binds nothing;
+    // work starts Monday Dec 7 at minute 0 and 85 min of it ends that Monday.
+    const r = promiseShipDate({ ...base, now: '2026-12-06T10:00:00Z', unitsAhead: { cut: 0, build: 0, pack: 0 }, minimumDate: '2026-12-06', minimumWorkingDays: 0 })
+    expect(r.date).toBe('2026-12-07')
+    expect(r.reasons).toEqual([])
+  })
+
   it('a spare-parts pack goes straight to the pack bench', () => {
     // Only pack: its queue clears at 360 + 16 × 15 = 600, ours at 615 → 2nd working day: Thursday Dec 3.
     const r = promiseShipDate({ ...base, ownUnits: { cut: 0, build: 0, pack: 1 } })

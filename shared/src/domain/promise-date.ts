@@ -1,4 +1,4 @@
-import { addWorkingDays, isWorkingDay } from './working-days'
+import { addWorkingDays, isWorkingDay, workingDayOnOrAfter } from './working-days'
 
 /**
  * The ship-by date to promise a new order, from the work ahead of it. Each bench (cut, build, pack)
@@ -65,14 +65,14 @@ export function promiseShipDate(input: PromiseInput): PromiseResult {
   const nowMs = Date.parse(input.now)
   const today = dayOf(nowMs)
   // Day 0 of the count: today when it is a working day, else the next working day (from its start).
-  const day0 = addWorkingDays(today, 0)
+  const day0 = workingDayOnOrAfter(today)
   const startOfDay0 = Date.parse(`${day0}T00:00:00Z`) + input.dayStartHourUtc * 60 * MINUTE_MS
   const t0 = day0 === today ? Math.min(dayMinutes, Math.max(0, Math.round((nowMs - startOfDay0) / MINUTE_MS))) : 0
 
   const dateAt = (w: number) => addWorkingDays(day0, Math.max(0, Math.ceil(w / dayMinutes) - 1))
   // The start of a day's work, in working minutes (a weekend day counts as the Monday after).
   const minutesTo = (day: string) => {
-    const working = addWorkingDays(day, 0)
+    const working = workingDayOnOrAfter(day)
     return working <= day0 ? 0 : workingDaysBetween(day0, working) * dayMinutes
   }
 
@@ -101,6 +101,6 @@ export function promiseShipDate(input: PromiseInput): PromiseResult {
     date = floor
     reasons.push({ weight: Number.MAX_SAFE_INTEGER, words: `the shop's minimum lead time of ${input.minimumWorkingDays} working day${input.minimumWorkingDays === 1 ? '' : 's'}` })
   }
-  if (!isWorkingDay(date)) date = addWorkingDays(date, 0)
+  if (!isWorkingDay(date)) date = workingDayOnOrAfter(date)
   return { date, reasons: reasons.sort((a, b) => b.weight - a.weight).map((r) => r.words) }
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { addWorkingDays, isWorkingDay, utcDay } from './working-days'
+import { addWorkingDays, isWorkingDay, utcDay, workingDayOnOrAfter } from './working-days'
 
 describe('working days', () => {
   it('knows the weekdays of dates from a printed calendar', () => {
@@ -10,20 +10,34 @@ describe('working days', () => {
     expect(isWorkingDay('2028-02-29')).toBe(true)
   })
 
-  it('adds working days, skipping weekends, the start day not counted', () => {
+  // The rule claimed: the spreadsheet WORKDAY(start, days) function with no holiday list, as its
+  // documentation describes it (from memory of the spreadsheet makers' function reference): it returns
+  // the date `days` working days (Monday to Friday) after `start`, the start itself not counted; with
+  // 0 days it returns `start` unchanged, even when `start` is a Saturday or a Sunday.
+  it('adds working days like WORKDAY(start, days): weekends skipped, the start day not counted', () => {
     // From a Monday (2026-03-02), 7 working days: Tue..Fri (4), Mon..Wed (3) → Wednesday 2026-03-11.
     expect(addWorkingDays('2026-03-02', 7)).toBe('2026-03-11')
     // From a Friday, 1 working day is the Monday after.
     expect(addWorkingDays('2026-03-06', 1)).toBe('2026-03-09')
-    // From a Saturday or Sunday, the Monday is the first working day counted (spreadsheet WORKDAY: common practice).
+    // From a Saturday or Sunday, the Monday is the first working day counted.
     expect(addWorkingDays('2026-03-07', 1)).toBe('2026-03-09')
     expect(addWorkingDays('2026-03-08', 2)).toBe('2026-03-10')
-    // 0 days: the same working day, or the Monday after a weekend.
-    expect(addWorkingDays('2026-03-04', 0)).toBe('2026-03-04')
-    expect(addWorkingDays('2026-03-08', 0)).toBe('2026-03-09')
     // 5 working days is one calendar week from a weekday; across a month end and a leap day.
     expect(addWorkingDays('2028-02-24', 5)).toBe('2028-03-02')
     expect(addWorkingDays('2026-12-31', 10)).toBe('2027-01-14')
+  })
+
+  it('returns the start itself for 0 days, even on a weekend, as WORKDAY(start, 0) does', () => {
+    expect(addWorkingDays('2026-03-04', 0)).toBe('2026-03-04') // a Wednesday
+    expect(addWorkingDays('2026-03-07', 0)).toBe('2026-03-07') // a Saturday
+    expect(addWorkingDays('2026-03-08', 0)).toBe('2026-03-08') // a Sunday
+  })
+
+  it('rolls a weekend day forward to the Monday only when asked (workingDayOnOrAfter)', () => {
+    expect(workingDayOnOrAfter('2026-03-04')).toBe('2026-03-04')
+    expect(workingDayOnOrAfter('2026-03-07')).toBe('2026-03-09')
+    expect(workingDayOnOrAfter('2026-03-08')).toBe('2026-03-09')
+    expect(() => workingDayOnOrAfter('2026-02-30')).toThrow('No such date: 2026-02-30')
   })
 
   it('agrees with a day-by-day count for every start in a year and lead times up to 30', () => {

@@ -20,28 +20,33 @@ export function isWorkingDay(isoDate: string): boolean {
   return weekday !== 0 && weekday !== 6
 }
 
+const isWeekend = (ms: number) => {
+  const d = new Date(ms).getUTCDay()
+  return d === 0 || d === 6
+}
+
 /**
- * The date `days` working days after `isoDate`: the working days strictly after the start are
- * counted, so from a Friday or a Saturday, 1 working day is the Monday after (as a spreadsheet's
- * WORKDAY function counts). With 0 days, the start day when it is a working day, else the Monday
- * after (nothing ships on a Sunday).
+ * The date `days` working days after `isoDate`, by the rule of the spreadsheet WORKDAY function with
+ * no holidays: the working days strictly after the start are counted, so from a Friday, a Saturday or
+ * a Sunday, 1 working day is the Monday after; and 0 days is the start itself, even on a weekend
+ * (WORKDAY(start, 0) returns start). For "the start, or the next working day when it is a weekend
+ * day", use {@link workingDayOnOrAfter}.
  */
 export function addWorkingDays(isoDate: string, days: number): string {
   if (!Number.isInteger(days) || days < 0) throw new Error(`Working days must be a whole number of 0 or more, not ${days}`)
   let ms = parseDay(isoDate)
-  const weekend = (t: number) => {
-    const d = new Date(t).getUTCDay()
-    return d === 0 || d === 6
-  }
-  if (days === 0) {
-    while (weekend(ms)) ms += DAY_MS
-    return new Date(ms).toISOString().slice(0, 10)
-  }
   let left = days
   while (left > 0) {
     ms += DAY_MS
-    if (!weekend(ms)) left -= 1
+    if (!isWeekend(ms)) left -= 1
   }
+  return new Date(ms).toISOString().slice(0, 10)
+}
+
+/** The date itself when it is a working day, else the Monday after (nothing ships on a weekend). */
+export function workingDayOnOrAfter(isoDate: string): string {
+  let ms = parseDay(isoDate)
+  while (isWeekend(ms)) ms += DAY_MS
   return new Date(ms).toISOString().slice(0, 10)
 }
 
