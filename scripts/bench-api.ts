@@ -19,8 +19,8 @@ import { fileURLToPath } from 'node:url'
 import { createDb } from '../server/src/db/client'
 import { ensureDatabase } from '../server/src/db/ensure-database'
 import { migrateDb } from '../server/src/db/migrate'
-import { DEMO_PART_SKUS } from '../server/src/db/seed-catalog'
-import { DEMO_USERS, seedDemo } from '../server/src/db/seed'
+import { DEMO_PART_SKUS } from '../server/src/seeds/catalog'
+import { DEMO_USERS, seedDemo } from '../server/src/seeds/demo'
 import { signStoreDelivery } from '../server/src/features/webhooks/store-signature'
 
 const SCAN_P95_LIMIT_MS = 20

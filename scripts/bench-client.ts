@@ -26,7 +26,7 @@ import type { Role } from '@kitwright/shared/roles'
 import { createDb } from '../server/src/db/client'
 import { ensureDatabase } from '../server/src/db/ensure-database'
 import { migrateDb } from '../server/src/db/migrate'
-import { DEMO_USERS, seedDemo } from '../server/src/db/seed'
+import { DEMO_USERS, seedDemo } from '../server/src/seeds/demo'
 
 const DB_NAME = 'kitwright_bench_client'
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..')

@@ -12,7 +12,7 @@
 import { createDb } from '../server/src/db/client'
 import { ensureDatabase } from '../server/src/db/ensure-database'
 import { migrateDb } from '../server/src/db/migrate'
-import { seedDemo } from '../server/src/db/seed'
+import { seedDemo } from '../server/src/seeds/demo'
 import { REPORTS, reportContext } from '../server/src/features/reports/reports.service'
 import { seedReportHistory } from './lib/seed-report-history'
 

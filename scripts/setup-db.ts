@@ -2,7 +2,7 @@
 import { createDb } from '../server/src/db/client'
 import { ensureDatabase } from '../server/src/db/ensure-database'
 import { migrateDb } from '../server/src/db/migrate'
-import { seedDemo } from '../server/src/db/seed'
+import { seedDemo } from '../server/src/seeds/demo'
 
 const url = process.env.DATABASE_URL
 if (!url) throw new Error('DATABASE_URL is not set')

@@ -145,7 +145,7 @@ function buildClientIfStale() {
 }
 
 function printWelcome() {
-  const users = JSON.parse(readFileSync(path.join(root, 'server/src/db/demo-users.json'), 'utf8'))
+  const users = JSON.parse(readFileSync(path.join(root, 'server/src/seeds/demo-users.json'), 'utf8'))
   const rows = users.map((u) => `  ${u.role.padEnd(10)} ${u.email.padEnd(28)} ${u.password.padEnd(20)} ${u.pin ?? ''}`)
   const where = served.reachable.map((r) => `  ${r.url.padEnd(34)} ${r.note}`).join('\n')
   const tablets = lan

@@ -5,8 +5,8 @@ import { CandidateWorkOrderSchema, CutRunDetailSchema, PipeStockSchema, type Cut
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { cutParts, cutRunCuts, offcuts, parts, stockMoves, workOrders } from '../../server/src/db/schema/index'
-import { seedDemo } from '../../server/src/db/seed'
-import { DEMO_PART_SKUS } from '../../server/src/db/seed-catalog'
+import { seedDemo } from '../../server/src/seeds/demo'
+import { DEMO_PART_SKUS } from '../../server/src/seeds/catalog'
 import { buildApp, signedInAs } from '../support/app'
 import { insertOffcut, insertWorkOrders } from '../support/cut-run-factories'
 import { createTestDb, type TestDb } from '../support/test-db'
@@ -97,7 +97,7 @@ describe('planning a cut run', () => {
     expect(stock.find((p) => p.partId === pipeId)!.sticks).toEqual(
       [TEN_FT, TWENTY_FT].map((l) => ({ stickLength: l, onHand: sum(l, onHandKinds), available: sum(l, onHandKinds) - sum(l, ['reserve', 'release']) })),
     )
-    expect(sum(TEN_FT, ['receive'])).toBe(40) // demo stock: 40 ten-foot sticks received (seed-stock.ts)
+    expect(sum(TEN_FT, ['receive'])).toBe(40) // demo stock: 40 ten-foot sticks received (server/src/seeds/stock.ts)
   })
 
   it('nests every piece of the chosen work orders exactly once, within each stick, and reserves nothing until published', async () => {
@@ -117,7 +117,7 @@ describe('planning a cut run', () => {
     expect(run.totals.sticksUsed).toBe(run.sticks.length)
     expect(run.totals.sticksUsed).toBeGreaterThanOrEqual(run.totals.lowerBoundSticks)
     expect(run.totals.stockCost).toBeGreaterThanOrEqual(run.totals.lowerBoundCost)
-    // Demo shop settings: kerf 1/8 in, trim 1/4 in, offcuts from 6 in (seed.ts).
+    // Demo shop settings: kerf 1/8 in, trim 1/4 in, offcuts from 6 in (server/src/seeds/demo.ts).
     expect([run.kerf, run.endTrim, run.minOffcut]).toEqual([inches(1 / 8), inches(1 / 4), inches(6)])
     expect(await runMoves(run.number)).toEqual([])
   })

@@ -7,7 +7,7 @@ import { CutRunDetailSchema, type CutRunDetail, type CutStick } from '@kitwright
 import { foldRuns, runNumbers, samePieceRow } from '@kitwright/shared/domain/saw-order'
 import { formatLength, inches } from '@kitwright/shared/domain/units'
 import { PAPER } from '../../server/src/features/labels/pdf-document'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { parts, stockMoves } from '../../server/src/db/schema/index'
 import { eq } from 'drizzle-orm'
 import { buildApp, signedInAs } from '../support/app'

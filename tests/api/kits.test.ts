@@ -6,7 +6,7 @@ import { inches, toInches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { KitSchema, RevisionDetailSchema, type RevisionContent, type RevisionDetail } from '@kitwright/shared/kits'
 import { bomLines, kitRevisions } from '../../server/src/db/schema/index'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { buildApp, signedInAs } from '../support/app'
 import { createTestDb, type TestDb } from '../support/test-db'
 

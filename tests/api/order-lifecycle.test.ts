@@ -8,7 +8,7 @@ import { OrderDetailSchema, OrdersPageSchema, type NewOrderDraft, type OrderDeta
 import { ShopSettingsSchema } from '@kitwright/shared/settings'
 import { ReleaseResultSchema } from '@kitwright/shared/work-orders'
 import { auditEvents, bins, cutRunCuts, offcuts, parts, shopSettings, stockMoves, workOrders } from '../../server/src/db/schema/index'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { buildApp, signedInAs } from '../support/app'
 import { insertBin } from '../support/build-factories'
 import { buildNewOrder } from '../support/order-factories'

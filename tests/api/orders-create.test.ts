@@ -2,7 +2,7 @@ import { eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { NewOrderSchema, type NewOrderDraft } from '@kitwright/shared/orders'
 import { orderEvents, orderLines, orders } from '../../server/src/db/schema/index'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { createOrder } from '../../server/src/features/orders/orders.service'
 import { createTestDb, type TestDb } from '../support/test-db'
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { PartInputSchema } from '@kitwright/shared/parts'
 import { inches } from '@kitwright/shared/domain/units'
 import { parts } from '../../server/src/db/schema/index'
-import { DEMO_PART_SKUS, seedDemoParts } from '../../server/src/db/seed-catalog'
+import { DEMO_PART_SKUS, seedDemoParts } from '../../server/src/seeds/catalog'
 import { createTestDb, type TestDb } from '../support/test-db'
 
 let t: TestDb

@@ -2,7 +2,7 @@ import { eq, inArray } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { OrdersPageSchema } from '@kitwright/shared/orders'
 import { orderEvents, orders, stockMoves, workOrders } from '../../server/src/db/schema/index'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { buildApp, signedInAs } from '../support/app'
 import { createTestDb, type TestDb } from '../support/test-db'
 

@@ -4,7 +4,7 @@
 // chart library. The bytes and times are measured by `npm run bench:client`, not asserted here.
 import type { ConsoleMessage, Page, Response } from 'playwright-core'
 import { describe, expect, inject, it } from 'vitest'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

@@ -1,7 +1,7 @@
 import type { Page } from 'playwright-core'
 import { beforeEach, describe, expect, inject, it } from 'vitest'
 import { LateOrdersReportSchema } from '@kitwright/shared/reports'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

@@ -1,6 +1,6 @@
 import type { Page } from 'playwright-core'
 import { beforeEach, describe, expect, inject, it } from 'vitest'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

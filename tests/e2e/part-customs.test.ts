@@ -3,7 +3,7 @@ import { mkdirSync } from 'node:fs'
 import path from 'node:path'
 import { describe, expect, inject, it } from 'vitest'
 import { PartsPageSchema } from '@kitwright/shared/parts'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

@@ -3,7 +3,7 @@ import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
 import { inches } from '@kitwright/shared/domain/units'
 import { PartsPageSchema } from '@kitwright/shared/parts'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { launchChromium, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

@@ -3,7 +3,7 @@ import { mkdirSync } from 'node:fs'
 import path from 'node:path'
 import type { Page } from 'playwright-core'
 import { beforeEach, describe, expect, inject, it } from 'vitest'
-import { DEMO_USERS } from '../../server/src/db/seed'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest, signIn } from '../support/browser'
 
 const baseUrl = inject('baseUrl')

@@ -3,7 +3,7 @@ import path from 'node:path'
 import { createDb } from '../../server/src/db/client'
 import { ensureDatabase } from '../../server/src/db/ensure-database'
 import { migrateDb } from '../../server/src/db/migrate'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { startS3Fake } from '../../storage-fake/s3'
 import { startSmtpCatcher } from '../../storage-fake/smtp'
 

@@ -5,7 +5,7 @@ import type { TestProject } from 'vitest/node'
 import { createDb } from '../../server/src/db/client'
 import { ensureDatabase } from '../../server/src/db/ensure-database'
 import { migrateDb } from '../../server/src/db/migrate'
-import { seedDemo } from '../../server/src/db/seed'
+import { seedDemo } from '../../server/src/seeds/demo'
 import { testDatabaseUrl } from '../support/env'
 
 const root = path.resolve(import.meta.dirname, '../..')

@@ -1,8 +1,9 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { PartInputSchema, type PartInputDraft } from '@kitwright/shared/parts'
 import { inches } from '@kitwright/shared/domain/units'
-import type { Db } from './client'
-import { parts } from './schema/index'
+import { tables, type Db } from './services'
+
+const { parts } = tables
 
 /** The demo parts' SKUs, for the kits seed and tests to refer to. Scheme: FAMILY-WHAT-SIZE. */
 export const DEMO_PART_SKUS = {

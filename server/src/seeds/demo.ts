@@ -2,17 +2,16 @@ import { z } from 'zod'
 import { RoleSchema } from '@kitwright/shared/roles'
 import demoUsers from './demo-users.json' with { type: 'json' }
 import { eq } from 'drizzle-orm'
-import type { Db } from './client'
-import { seedDemoKits } from './seed-kits'
-import { seedDemoOrders } from './seed-orders'
+import { createBins, hashSecret, tables, type Db } from './services'
+import { seedDemoKits } from './kits'
+import { seedDemoOrders } from './orders'
 import { inches } from '@kitwright/shared/domain/units'
-import { bins, shopSettings, users } from './schema/index'
-import { createBins } from '../features/bins/bins.service'
-import { hashSecret } from '../features/users/users.service'
-import { seedDemoParts } from './seed-catalog'
-import { seedDemoStock } from './seed-stock'
-import { seedDemoSuppliers } from './seed-suppliers'
-import { seedDemoShipping } from './seed-shipping'
+import { seedDemoParts } from './catalog'
+import { seedDemoStock } from './stock'
+import { seedDemoSuppliers } from './suppliers'
+import { seedDemoShipping } from './shipping'
+
+const { bins, shopSettings, users } = tables
 
 /**
  * The demo shop, Mistwell Tote Works, and its people are invented for the demo; any likeness to a

@@ -12,11 +12,10 @@ import {
 import type { EnclosureShape } from '@kitwright/shared/domain/reservoir'
 import { inches } from '@kitwright/shared/domain/units'
 import { PASCALS_PER_PSI, type RevisionContent } from '@kitwright/shared/kits'
-import type { SessionUser } from '../lib/auth'
-import { createKit, newRevision, releaseRevision, saveRevision } from '../features/kits/kits.service'
-import type { Db } from './client'
-import { kits, parts } from './schema/index'
-import { DEMO_PART_SKUS as S } from './seed-catalog'
+import { createKit, newRevision, releaseRevision, saveRevision, tables, type Db, type SessionUser } from './services'
+import { DEMO_PART_SKUS as S } from './catalog'
+
+const { kits, parts } = tables
 
 type Step = RevisionContent['buildSteps'][number]
 const step = (text: string, extra: Partial<Step> = {}): Step => ({

@@ -1,10 +1,8 @@
 import { eq } from 'drizzle-orm'
 import { NewOrderSchema, type NewOrderDraft, type OrderSource } from '@kitwright/shared/orders'
-import { addOrderEvent, createOrder } from '../features/orders/orders.service'
-import type { Actor } from '../features/stock/stock.service'
-import { releaseOrder } from '../features/work-orders/release.service'
-import type { Db } from './client'
-import { orders } from './schema/index'
+import { addOrderEvent, createOrder, releaseOrder, tables, type Actor, type Db } from './services'
+
+const { orders } = tables
 
 const DAY = 24 * 60 * 60 * 1000
 

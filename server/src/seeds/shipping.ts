@@ -1,8 +1,9 @@
 import { eq, inArray, isNull } from 'drizzle-orm'
 import { inches } from '@kitwright/shared/domain/units'
-import type { Db } from './client'
-import { boxes, parts, shopSettings } from './schema/index'
-import { DEMO_PART_SKUS as S } from './seed-catalog'
+import { tables, type Db } from './services'
+import { DEMO_PART_SKUS as S } from './catalog'
+
+const { boxes, parts, shopSettings } = tables
 
 /**
  * The demo shop's GS1 Company Prefix: invented for the demo and licensed to nobody. It starts with

@@ -1,8 +1,9 @@
 import { asc, eq, inArray } from 'drizzle-orm'
 import { inches } from '@kitwright/shared/domain/units'
-import type { Db } from './client'
-import { parts, stockMoves, users, type NewStockMoveRow } from './schema/index'
-import { DEMO_PART_SKUS } from './seed-catalog'
+import { tables, type Db, type NewStockMoveRow } from './services'
+import { DEMO_PART_SKUS } from './catalog'
+
+const { parts, stockMoves, users } = tables
 
 const S = DEMO_PART_SKUS
 

@@ -1,6 +1,7 @@
 import { and, eq, isNull, sql } from 'drizzle-orm'
-import type { Db } from './client'
-import { parts, supplierParts, suppliers } from './schema/index'
+import { tables, type Db } from './services'
+
+const { parts, supplierParts, suppliers } = tables
 
 /**
  * The demo shop's suppliers: invented names, people, addresses (the reserved `.example` domain) and

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { PASCALS_PER_PSI } from '../kits'
 import { firstPassYield, formatPressure, fromPascals, judgeLeakTest, toPascals, type LeakTestRule } from './leak-test'
 
-// The demo manifolds' protocol (server/src/db/seed-kits.ts): 10 to 20 psi, hold 10 min, drop at most 0.5 psi.
+// The demo manifolds' protocol (server/src/seeds/kits.ts): 10 to 20 psi, hold 10 min, drop at most 0.5 psi.
 // Worked by hand: 10 × 6894.757293 = 68 947.57 → 68 948 Pa; 20 × … = 137 895.15 → 137 895 Pa; 0.5 × … = 3447.38 → 3447 Pa.
 const RULE: LeakTestRule = { minPressurePa: 68_948, maxPressurePa: 137_895, holdMinutes: 10, maxDropPa: 3447 }
 
