@@ -10,7 +10,9 @@ import { auditEvents, mailMessages, unitPhotos } from '../../server/src/db/schem
 import { recordAudit } from '../../server/src/lib/audit'
 import { SESSION_COOKIE } from '../../server/src/lib/auth'
 import { declaredRoutes, expressRoutes, undeclaredRoutes } from '../../server/src/lib/route-inventory'
-import type { RouteRecord } from '../../server/src/lib/routes'
+import type { Access, RouteRecord } from '../../server/src/lib/routes'
+import { accessDifferences, withOneCallerTurned } from './access-compare'
+import { CALLERS, EXPECTED_ACCESS, type Caller } from './access-expected'
 import { buildApp } from '../support/app'
 import { insertBuildRevision, insertBuildWorkOrder } from '../support/build-factories'
 import { insertUser, TEST_PASSWORD } from '../support/factories'
@@ -36,17 +38,16 @@ afterAll(() => t.drop())
 // 401; that answer is theirs, not the access guard's, so for them only 403 and 5xx count as failures.
 const SIGNED_PUBLIC_ROUTES = new Set(['post /api/webhooks/store', 'post /api/webhooks/payments', 'post /api/shipments/tracking-events'])
 
-type Caller = Role | 'anonymous'
-const CALLERS: Caller[] = ['anonymous', ...ROLES]
-
-function expectedOutcome(route: RouteRecord, caller: Caller): 'allowed' | 401 | 403 {
-  if (route.access === 'public') return 'allowed'
-  if (caller === 'anonymous') return 401
-  if (route.access === 'signed-in') return 'allowed'
-  return route.access.includes(caller) ? 'allowed' : 403
+// What each caller should get, from the hand-written grid (tests/api/access-expected.ts), never from
+// the route table under test.
+function expectedOutcome(route: Pick<RouteRecord, 'method' | 'path'>, caller: Caller): 'allowed' | 401 | 403 {
+  const who = EXPECTED_ACCESS.get(`${route.method} ${route.path}`)
+  if (!who) throw new Error(`${route.method} ${route.path} is not in tests/api/access-expected.ts`)
+  if (who.has(caller)) return 'allowed'
+  return caller === 'signed-out' ? 401 : 403
 }
 
-describe('role matrix: every route, called as anonymous and as every role', () => {
+describe('role matrix: every route, called signed out and as every role', () => {
   it('declares an access rule for every route Express has', () => {
     const actual = expressRoutes(built.app).filter((r) => !r.endsWith(' /*splat') && !r.startsWith('get /.*'))
     expect(actual.length).toBeGreaterThan(0)
@@ -55,13 +56,46 @@ describe('role matrix: every route, called as anonymous and as every role', () =
     expect(undeclaredRoutes(built.app, built.routes)).toEqual([])
   })
 
-  it('answers 401 to anonymous, 403 to the wrong role, and lets the right roles through', async () => {
+  it('gives every route the rule the shop expects, caller by caller (hand-written grid)', () => {
+    expect(accessDifferences(built.routes.records, EXPECTED_ACCESS)).toEqual([])
+    // The grid covers the whole table: every route Express has, every role, and signed out.
+    expect(EXPECTED_ACCESS.size).toBe(built.routes.records.length)
+    expect([...CALLERS].sort()).toEqual(['signed-out', ...ROLES].sort())
+  })
+
+  it('notices a rule changed in the route table alone: every route, every caller the rule language can turn', () => {
+    let turned = 0
+    for (const [i, route] of built.routes.records.entries()) {
+      for (const caller of CALLERS) {
+        const access = withOneCallerTurned(route.access, caller)
+        if (access === null) continue
+        const copy = built.routes.records.map((r, j) => (j === i ? { ...r, access } : r))
+        const found = accessDifferences(copy, EXPECTED_ACCESS)
+        expect(found.length, `${route.method} ${route.path} turned for ${caller}`).toBeGreaterThan(0)
+        expect(found.every((d) => d.startsWith(`${route.method} ${route.path}: `) && d.includes(` ${caller}`)), found.join('\n')).toBe(true)
+        turned++
+      }
+    }
+    // Each route can be turned for at least one caller (a role list can always gain a role it lacks, or lose one of several).
+    expect(turned).toBeGreaterThanOrEqual(built.routes.records.length)
+    // Two slips a person could make, spelled out: the planner let into user accounts, a packer let into cut-run planning.
+    const slip = (key: string, access: Access) => accessDifferences(built.routes.records.map((r) => (`${r.method} ${r.path}` === key ? { ...r, access } : r)), EXPECTED_ACCESS)
+    expect(slip('patch /api/users/:id', ['admin', 'planner'])).toEqual(['patch /api/users/:id: the route table lets planner through; the shop expects a refusal'])
+    expect(slip('post /api/cut-runs/:id/publish', 'signed-in')).toEqual([
+      'post /api/cut-runs/:id/publish: the route table lets cutter through; the shop expects a refusal',
+      'post /api/cut-runs/:id/publish: the route table lets assembler through; the shop expects a refusal',
+      'post /api/cut-runs/:id/publish: the route table lets packer through; the shop expects a refusal',
+    ])
+    expect(slip('get /api/public/unit-records/:token', ['admin'])).toHaveLength(5)
+  })
+
+  it('answers 401 signed out, 403 to the wrong role, and lets the right roles through (the running server against the grid)', async () => {
     const failures: string[] = []
     for (const route of built.routes.records) {
       const path = route.path.replace(/:[a-zA-Z]+/g, '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11')
       for (const caller of CALLERS) {
         let req = request(built.app)[route.method](path)
-        if (caller !== 'anonymous') req = req.set('Cookie', cookies.get(caller)!)
+        if (caller !== 'signed-out') req = req.set('Cookie', cookies.get(caller)!)
         const res = await (route.method === 'get' ? req : req.send({}))
         const expected = expectedOutcome(route, caller)
         const ownSignatureCheck = SIGNED_PUBLIC_ROUTES.has(`${route.method} ${route.path}`) && res.status === 401
@@ -70,14 +104,7 @@ describe('role matrix: every route, called as anonymous and as every role', () =
       }
     }
     expect(failures).toEqual([])
-    expect(built.routes.records.length).toBeGreaterThanOrEqual(6)
   }, 120_000) // hundreds of requests (every route × every caller); a budget, not a speed check
-
-  it('keeps the admin pages admin-only', () => {
-    const adminOnly = built.routes.records.filter((r) => r.path.startsWith('/api/users'))
-    expect(adminOnly.length).toBeGreaterThan(0)
-    for (const r of adminOnly) expect(r.access).toEqual(['admin'])
-  })
 })
 
 describe('object level: guessing ids opens nothing', () => {
@@ -132,7 +159,7 @@ describe('object level: photo uploads', () => {
     for (const wo of [...units, { id: randomUUID(), status: 'none' as const }]) {
       for (const caller of CALLERS) {
         let req = request(built.app).post(`/api/build/${wo.id}/photos/presign`)
-        if (caller !== 'anonymous') req = req.set('Cookie', cookies.get(caller)!)
+        if (caller !== 'signed-out') req = req.set('Cookie', cookies.get(caller)!)
         const res = await req.send({ contentType: 'image/jpeg', size: 2048 })
         const access = expectedOutcome(route!, caller)
         const expected = access !== 'allowed' ? access : wo.status === 'none' ? 404 : (BUILDABLE_STATUSES as readonly string[]).includes(wo.status) ? 201 : 409
