@@ -33,9 +33,6 @@ export const ORDER_PRIORITY_LABELS: Record<OrderPriority, string> = { normal: 'N
 /** Where an order is in its life (see `order-stage.ts`). */
 export const OrderStageSchema = z.enum(ORDER_STAGES, { error: `Use one of ${ORDER_STAGES.join(', ')}` })
 
-// One word per state, kept in one map for screens, CSV files and e-mails alike.
-export { ORDER_SOURCE_LABELS, ORDER_STATUS_LABELS, PAYMENT_STATUS_LABELS, WORK_ORDER_STATUS_LABELS } from './status-words'
-
 /**
  * Kinds of timeline event Kitwright writes on an order. The column is free text so a new kind needs
  * no migration; these are the ones the screens know by name.

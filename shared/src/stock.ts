@@ -16,9 +16,6 @@ export const ON_HAND_MOVE_KINDS: readonly StockMoveKind[] = ['receive', 'adjust'
 /** Where an offcut is in its life. */
 export const OFFCUT_STATUSES = ['in_stock', 'reserved', 'used', 'scrapped'] as const
 
-/** Moves that change what is promised to work orders rather than what is on the shelf. */
-export const RESERVATION_MOVE_KINDS: readonly StockMoveKind[] = ['reserve', 'release']
-
 const uuid = z.string().uuid('Not a valid id')
 
 /** One stick length of a pipe part and its balances (pipe is kept per stick length). */

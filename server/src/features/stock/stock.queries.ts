@@ -215,12 +215,6 @@ export async function selectPartsBySku(db: Conn, skus: readonly string[]) {
   return db.select().from(parts).where(inArray(parts.sku, [...new Set(skus)]))
 }
 
-/** Parts found by id. */
-export async function selectPartsById(db: Conn, ids: readonly string[]) {
-  if (ids.length === 0) return []
-  return db.select().from(parts).where(inArray(parts.id, [...new Set(ids)]))
-}
-
 /** Active parts for the pickers of the stock forms, by SKU. */
 export async function selectPartOptions(db: Conn) {
   return db
@@ -236,8 +230,3 @@ export async function insertMoves(tx: Tx, rows: NewStockMoveRow[]) {
   return tx.insert(stockMoves).values(rows).returning()
 }
 
-/** Whether the ledger has any move at all (the demo seed only fills an empty ledger). */
-export async function ledgerIsEmpty(db: Conn) {
-  const [row] = await db.select({ id: stockMoves.id }).from(stockMoves).limit(1)
-  return row === undefined
-}

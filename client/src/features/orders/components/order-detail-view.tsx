@@ -1,4 +1,5 @@
-import { WORK_ORDER_STATUS_LABELS, type OrderDetail } from '@kitwright/shared/orders'
+import type { OrderDetail } from '@kitwright/shared/orders'
+import { WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../../components/ui/section'
 import { formatDateTime, formatDay, formatMoney } from './format'
 import { OrderActionsPanel } from './order-actions-panel'
