@@ -7,11 +7,15 @@ import {
   DEMO_TOTE_12_REV_B_FRAME,
   FRAME_CAUTIONS,
   PVC_SCHEDULE_40_OD,
+  SCHEDULE_40_FITTINGS_TABLE,
   computeFrame,
   pvcSchedule40Od,
+  schedule40Fittings,
+  schedule40SocketDepth,
   type FrameInputs,
   type FrameResult,
 } from './frame'
+import { WATER_ONLY_PRESSURE_TEST_CAUTION } from './safety-cautions'
 import { LENGTH_BASE_PER_INCH, formatLength, inches, millimetres, toInches, toMillimetres } from './units'
 
 /** The cut list as { key: [length in inches, quantity] }, for compact comparisons. */
@@ -65,7 +69,7 @@ describe('outside figures', () => {
   it('the demo 12-site tote, revision A, gives the cut list worked by hand from its inputs', () => {
     // Inputs: inside 16 × 23-1/2 in at the manifold (worked above), 14 in deep, manifold 12 in up,
     // wall clearance 1/2 in, 1/2 in Schedule 40 pipe (OD 0.840 in, so half is 0.42 in), 1/2 in elbows and
-    // tees 1/2 in from centre to socket bottom (typical of 1/2 in slip fittings, from memory), four cross
+    // tees 1/2 in from centre to socket bottom (G of ASTM D2466's ells and tees table, from memory: fittings.ts), four cross
     // runs, riser tee in the middle of the front short side, pump outlet 4-1/2 in up, adapter socket
     // bottom 1/2 in above the outlet, cuts to the nearest 1/16 in.
     //   centreline width  W = 16 − 2 × (0.5 + 0.42) = 14.16 in; length L = 23.5 − 1.84 = 21.66 in
@@ -100,6 +104,56 @@ describe('outside figures', () => {
       expect(toInches(result.totalCutLength)).toBeGreaterThanOrEqual(110)
       expect(toInches(result.totalCutLength)).toBeLessThanOrEqual(140)
     }
+  })
+})
+
+describe('fittings table (ASTM D1785 pipe, ASTM D2466 Schedule 40 socket fittings)', () => {
+  it('socket depth C: ASTM D2466 tapered socket table (Table 1, number from memory), socket length min', () => {
+    // From memory of ASTM D2466's socket table: 1/2 in 0.688 in, 3/4 in 0.719 in, 1 in 0.875 in. The
+    // same figures are printed in ASTM D2468 (ABS Schedule 40 fittings), Table 1 "Tapered Sockets",
+    // column C socket length min, for the same iron-pipe-size sockets.
+    expect(SCHEDULE_40_FITTINGS_TABLE['1/2'].socketDepth.inches).toBe(0.688)
+    expect(SCHEDULE_40_FITTINGS_TABLE['3/4'].socketDepth.inches).toBe(0.719)
+    expect(SCHEDULE_40_FITTINGS_TABLE['1'].socketDepth.inches).toBe(0.875)
+    // 0.688 in × 40 640 base units per inch = 27 960.32 → 27 960 base units
+    expect(schedule40SocketDepth('1/2')).toBe(27_960)
+  })
+
+  it('centre to socket bottom G of 90° elbows and tees: ASTM D2466 ells/tees table, from memory', () => {
+    // From memory, not checked against a copy: 1/2 in 0.500, 3/4 in 0.594, 1 in 0.688 in.
+    expect(SCHEDULE_40_FITTINGS_TABLE['1/2'].ellAndTeeCentreToSocketBottom.inches).toBe(0.5)
+    expect(SCHEDULE_40_FITTINGS_TABLE['3/4'].ellAndTeeCentreToSocketBottom.inches).toBe(0.594)
+    expect(SCHEDULE_40_FITTINGS_TABLE['1'].ellAndTeeCentreToSocketBottom.inches).toBe(0.688)
+    expect(schedule40Fittings('1/2')).toEqual({
+      elbow: { socketDepth: inches(0.688), centreToSocketBottom: inches(0.5) },
+      tee: { socketDepth: inches(0.688), centreToSocketBottom: inches(0.5) },
+    })
+  })
+
+  it('every figure names its source, and says so where it is from memory', () => {
+    for (const row of Object.values(SCHEDULE_40_FITTINGS_TABLE)) {
+      expect(row.pipeOutsideDiameter.source).toMatch(/^ASTM D1785.*from memory/)
+      expect(row.socketDepth.source).toMatch(/^ASTM D2466.*from memory/)
+      expect(row.ellAndTeeCentreToSocketBottom.source).toMatch(/^ASTM D2466.*from memory/)
+    }
+  })
+
+  it('the demo kits take their fittings from the table', () => {
+    expect(DEMO_HALF_INCH_FITTINGS).toEqual(schedule40Fittings('1/2'))
+    expect(DEMO_TOTE_12_REV_A_FRAME.elbow).toEqual(schedule40Fittings('1/2').elbow)
+    expect(DEMO_TOTE_12_REV_A_FRAME.tee).toEqual(schedule40Fittings('1/2').tee)
+    expect(DEMO_TOTE_12_REV_A_FRAME.pipeOutsideDiameter).toBe(pvcSchedule40Od('1/2'))
+    expect(DEMO_TOTE_12_REV_A_FRAME.riser.pumpAdapter.socketDepth).toBe(schedule40SocketDepth('1/2'))
+  })
+
+  it('checks the pipe left showing between sockets with the table\'s socket depth (demo revision A, by hand)', () => {
+    // Revision A's 3-5/16 in long-side pieces (worked above) sit 0.688 in into each socket:
+    // 3.3125 − 2 × 0.688 = 1.9365 in shows, about 1-15/16 in. The 6-1/2 in riser: 6.5 − 2 × 0.688 = 5.124 in.
+    const result = computeFrame(DEMO_TOTE_12_REV_A_FRAME)
+    const line = (key: string) => result.cutList.find((l) => l.key === key)?.derivation.at(-1)
+    expect(line('long:elbow-tee')).toBe('check: exposed pipe = cut 3-5/16" − elbow socket ≈11/16" − tee socket ≈11/16" = ≈1-15/16" (must not be negative)')
+    expect(line('riser')).toBe('check: exposed pipe = cut 6-1/2" − tee socket ≈11/16" − adapter socket ≈11/16" = ≈5-1/8" (must not be negative)')
+    expect(toInches(result.cutList[0]!.length - 2 * schedule40SocketDepth('1/2'))).toBeCloseTo(1.9365, 3)
   })
 })
 
@@ -196,6 +250,9 @@ describe('hand-worked frame', () => {
     expect(FRAME_CAUTIONS.join(' ')).toMatch(/eye protection/)
     expect(FRAME_CAUTIONS.join(' ')).toMatch(/ground-fault protected/)
     expect(FRAME_CAUTIONS.join(' ')).toMatch(/Local electrical codes and licensed practice/)
+    // Common practice; the warning PVC pipe and fitting makers print (water only, never compressed air or gas).
+    expect(FRAME_CAUTIONS).toContain(WATER_ONLY_PRESSURE_TEST_CAUTION)
+    expect(WATER_ONLY_PRESSURE_TEST_CAUTION).toMatch(/^Test with water only — never compressed air or gas/)
   })
 
   it('writes the derivation in millimetres for a metric shop', () => {

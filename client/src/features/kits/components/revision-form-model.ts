@@ -20,7 +20,7 @@ export const FRAME_LENGTH_FIELDS: { path: string; label: string; hint?: string }
   { path: 'recessBelowRim', label: 'Manifold recess below the rim', hint: 'About 2 in is common practice' },
   { path: 'wallClearance', label: 'Clearance to the walls' },
   { path: 'pipeOutsideDiameter', label: 'Pipe outside diameter', hint: '1/2 in Schedule 40 PVC: 0.840 in (ASTM D1785)' },
-  { path: 'elbow.socketDepth', label: 'Elbow socket depth', hint: 'How far the pipe enters: about 3/4 in for 1/2 in slip fittings' },
+  { path: 'elbow.socketDepth', label: 'Elbow socket depth', hint: 'How far the pipe enters: 0.688 in for 1/2 in Schedule 40 socket fittings (ASTM D2466 socket table, least socket length); measure your own' },
   { path: 'elbow.centreToSocketBottom', label: 'Elbow centre to socket bottom' },
   { path: 'tee.socketDepth', label: 'Tee socket depth' },
   { path: 'tee.centreToSocketBottom', label: 'Tee centre to socket bottom' },
