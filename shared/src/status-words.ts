@@ -1,5 +1,8 @@
 import type { OrderStage } from './order-stage'
+import type { BIN_STATUSES, CUT_RUN_STATUSES, CUT_STICK_STATUSES } from './cut-runs-status'
+import type { REVISION_STATUSES } from './kits'
 import type { MAIL_STATUSES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
+import type { OFFCUT_STATUSES } from './stock'
 
 /**
  * The one word for each state, on every screen, CSV file and e-mail. A state that an order's stage
@@ -55,6 +58,43 @@ export const ORDER_SOURCE_LABELS: Record<(typeof ORDER_SOURCES)[number], string>
   store: 'Web store',
   csv: 'CSV import',
   phone: 'Phone or counter',
+}
+
+/** What each cut run status is called. */
+export const CUT_RUN_STATUS_LABELS: Record<(typeof CUT_RUN_STATUSES)[number], string> = {
+  draft: 'Draft',
+  published: 'Published',
+  done: 'All cut',
+  cancelled: 'Cancelled',
+}
+
+/** Where one stick of a cut run is at the saw, in words. */
+export const CUT_STICK_STATUS_LABELS: Record<(typeof CUT_STICK_STATUSES)[number], string> = {
+  pending: 'To cut',
+  in_progress: 'On the saw',
+  done: 'Cut',
+  damaged: 'Damaged',
+}
+
+/** Whether a bin is on the rack or travelling with a unit, in words. */
+export const BIN_STATUS_LABELS: Record<(typeof BIN_STATUSES)[number], string> = {
+  free: 'Free',
+  in_use: 'Holding a unit',
+}
+
+/** Where an offcut is in its life, in words. */
+export const OFFCUT_STATUS_LABELS: Record<(typeof OFFCUT_STATUSES)[number], string> = {
+  in_stock: 'In stock',
+  reserved: 'Reserved',
+  used: 'Used',
+  scrapped: 'Scrapped',
+}
+
+/** What each kit revision status is called. */
+export const REVISION_STATUS_LABELS: Record<(typeof REVISION_STATUSES)[number], string> = {
+  draft: 'Draft',
+  released: 'Released',
+  retired: 'Retired',
 }
 
 /** What each mail status is called. */

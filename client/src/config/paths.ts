@@ -23,6 +23,7 @@ export const paths = {
   partNew: { pattern: '/catalog/parts/new', href: () => '/catalog/parts/new' },
   partsImport: { pattern: '/catalog/parts/import', href: () => '/catalog/parts/import' },
   part: { pattern: '/catalog/parts/:partId', href: (partId: string) => `/catalog/parts/${partId}` },
+  unitWeights: { pattern: '/catalog/unit-weights', href: () => '/catalog/unit-weights' },
   stock: { pattern: '/catalog/stock', href: () => '/catalog/stock' },
   stockReceive: { pattern: '/catalog/stock/receive', href: () => '/catalog/stock/receive' },
   stockPart: { pattern: '/catalog/stock/:partId', href: (partId: string) => `/catalog/stock/${partId}` },
@@ -34,6 +35,10 @@ export const paths = {
   purchaseOrders: { pattern: '/purchasing/orders', href: (poId?: string) => (poId ? `/purchasing/orders?po=${poId}` : '/purchasing/orders') },
   suppliers: { pattern: '/purchasing/suppliers', href: () => '/purchasing/suppliers' },
   outbox: { pattern: '/outbox', href: () => '/outbox' },
+  lots: { pattern: '/catalog/lots', href: () => '/catalog/lots' },
+  lot: { pattern: '/catalog/lots/:lotId', href: (lotId: string) => `/catalog/lots/${lotId}` },
+  returns: { pattern: '/returns', href: () => '/returns' },
+  returnDetail: { pattern: '/returns/:returnId', href: (returnId: string) => `/returns/${returnId}` },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

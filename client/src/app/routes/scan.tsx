@@ -1,9 +1,20 @@
 import { Link } from 'react-router-dom'
+import type { ScanResult } from '@kitwright/shared/scan'
+import { BIN_STATUS_LABELS, OFFCUT_STATUS_LABELS, ORDER_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 import { ScanField } from '../../components/ui/scan-field'
 import { paths } from '../../config/paths'
 import { useResolveScan } from '../../features/scan/api/scan-queries'
 
 const PLACE_WORDS = { cut: 'Cut bench', build: 'Build bench', pack: 'Pack bench', office: 'Office', stock: 'Stock', done: 'Done' } as const
+
+/** The scanned thing's status in the shop's one word for it (a bin holding a unit shows the unit's). */
+function statusWord(r: ScanResult): string {
+  if (r.kind === 'work_order' || (r.kind === 'bin' && r.workOrderSerial)) return wordFor(WORK_ORDER_STATUS_LABELS, r.status)
+  if (r.kind === 'bin') return wordFor(BIN_STATUS_LABELS, r.status)
+  if (r.kind === 'order') return wordFor(ORDER_STATUS_LABELS, r.status)
+  if (r.kind === 'offcut') return wordFor(OFFCUT_STATUS_LABELS, r.status)
+  return wordFor({ active: 'Active', deactivated: 'Deactivated' }, r.status)
+}
 
 /** Scan anything Kitwright printed and learn what it is and where it goes next. */
 export function Component() {
@@ -22,7 +33,7 @@ export function Component() {
         <section aria-label="Scanned" className="space-y-3 rounded-lg border-2 border-brand-600 bg-white p-6">
           <p className="text-2xl font-bold">{result.title}</p>
           <p className="text-lg">
-            Status: <strong>{result.status.replaceAll('_', ' ')}</strong>
+            Status: <strong>{statusWord(result)}</strong>
           </p>
           <p className="text-xl">
             <strong>{PLACE_WORDS[result.next.place]}:</strong> {result.next.message}

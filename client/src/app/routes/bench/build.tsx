@@ -8,8 +8,7 @@ import { paths } from '../../../config/paths'
 import { buildLookupOptions, buildWorklistOptions } from '../../../features/build-bench/api/build-queries'
 import { BuildUnit } from '../../../features/build-bench/components/build-unit'
 import { ApiError } from '../../../lib/api-client'
-
-const STATUS_WORDS = { cut: 'cut, ready', building: 'in build', rework: 'in rework' } as Record<string, string>
+import { WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 
 /**
  * The build bench: scan a bin (or type a serial), or pick a unit from the list of what is ready
@@ -54,7 +53,7 @@ export function Component() {
             {(u) => (
               <>
                 <strong>Unit {u.serial}</strong> · {u.kitSku} rev {u.revisionCode} · {u.binCode ? `bin ${u.binCode}` : 'no bin'} · order {u.orderNumber} ·{' '}
-                <span className={u.status === 'rework' ? 'font-bold text-red-700' : ''}>{STATUS_WORDS[u.status] ?? u.status}</span>
+                <span className={u.status === 'rework' ? 'font-bold text-red-700' : ''}>{wordFor(WORK_ORDER_STATUS_LABELS, u.status)}</span>
               </>
             )}
           </Worklist>

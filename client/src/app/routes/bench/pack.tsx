@@ -2,6 +2,7 @@ import { useQuery } from '@tanstack/react-query'
 import { useEffect, useRef, useState } from 'react'
 import { useSearchParams } from 'react-router-dom'
 import type { ShipResult } from '@kitwright/shared/pack'
+import { ORDER_STAGE_LABELS } from '@kitwright/shared/status-words'
 import { Button } from '../../../components/ui/button'
 import { ScanField } from '../../../components/ui/scan-field'
 import { Caution } from '../../../components/ui/section'
@@ -96,7 +97,7 @@ export function Component() {
           <p className="text-2xl text-stone-700">Scan the bin of a unit that passed its leak test, or type a serial, or pick the order below.</p>
           {worklist.isError && <p role="alert" className="text-xl text-red-700">{worklist.error.message}</p>}
           <Worklist
-            label="Ready to pack"
+            label={ORDER_STAGE_LABELS.ready_to_pack}
             items={worklist.data}
             empty="No unit is built and waiting: the build bench sends them here."
             itemKey={(o) => o.orderId}

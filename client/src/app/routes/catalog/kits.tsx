@@ -3,6 +3,7 @@ import type { ColumnDef } from '@tanstack/react-table'
 import { useMemo } from 'react'
 import { Link } from 'react-router-dom'
 import type { Kit } from '@kitwright/shared/kits'
+import { REVISION_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { DataTable } from '../../../components/ui/data-table'
 import { paths } from '../../../config/paths'
 import { kitsListOptions } from '../../../features/kits/api/kit-queries'
@@ -23,7 +24,7 @@ function getKitColumns(): ColumnDef<Kit, unknown>[] {
         <span className="flex flex-wrap gap-2">
           {row.original.revisions.map((r) => (
             <Link key={r.id} to={paths.revision.href(r.id)} className="rounded-md border border-stone-300 px-2 py-1 font-bold text-brand-700 hover:bg-brand-50">
-              {r.code} · {r.status}
+              {r.code} · {REVISION_STATUS_LABELS[r.status]}
             </Link>
           ))}
         </span>

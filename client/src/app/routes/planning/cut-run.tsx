@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link, useParams } from 'react-router-dom'
 import { toast } from 'sonner'
+import { CUT_RUN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { paths } from '../../../config/paths'
 import { cutRunDetailOptions, cutSheetHref, useCancelCutRun, usePublishCutRun, useReplanCutRun } from '../../../features/cut-runs/api/cut-run-queries'
 import { PlanProgress } from '../../../features/cut-runs/components/plan-progress'
@@ -27,7 +28,7 @@ export function Component() {
     <div className="space-y-6">
       <div className="flex flex-wrap items-center gap-3">
         <h1 className="mr-auto text-3xl font-bold">
-          Cut run {r.number} <span className="ml-2 rounded bg-stone-100 px-2 text-lg align-middle">{r.status}</span>
+          Cut run {r.number} <span className="ml-2 rounded bg-stone-100 px-2 text-lg align-middle">{CUT_RUN_STATUS_LABELS[r.status]}</span>
         </h1>
         <Link to={paths.cutRuns.href()} className={linkButton}>
           All cut runs

@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link, useNavigate } from 'react-router-dom'
+import { CUT_RUN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { paths } from '../../../config/paths'
 import { cutRunsListOptions } from '../../../features/cut-runs/api/cut-run-queries'
 import { PlanForm } from '../../../features/cut-runs/components/plan-form'
@@ -19,7 +20,7 @@ export function Component() {
               <Link to={paths.cutRun.href(r.id)} className="font-bold text-brand-700 underline">
                 {r.number}
               </Link>
-              <span className="rounded bg-stone-100 px-2 text-sm">{r.status}</span>
+              <span className="rounded bg-stone-100 px-2 text-sm">{CUT_RUN_STATUS_LABELS[r.status]}</span>
               <span className="text-stone-700">
                 {r.workOrderCount} work orders · {r.sticksUsed} sticks · {r.cutsDone}/{r.cutsTotal} pieces cut
               </span>

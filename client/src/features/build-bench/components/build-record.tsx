@@ -1,4 +1,5 @@
 import type { UnitRecord } from '@kitwright/shared/build'
+import { WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Button } from '../../../components/ui/button'
 import { Section } from '../../../components/ui/section'
 import './build-record.css'
@@ -7,17 +8,6 @@ import { LeakTestList } from './leak-test-list'
 import { PhotoStrip } from './photo-strip'
 import { RecordPieces } from './record-pieces'
 import { RecordSteps } from './record-steps'
-
-const STATUS: Record<UnitRecord['workOrder']['status'], string> = {
-  waiting_cut: 'waiting for the cut bench',
-  cut: 'cut, not built yet',
-  building: 'being built',
-  rework: 'in rework',
-  built: 'built and leak-tested, ready to pack',
-  packed: 'packed',
-  shipped: 'shipped',
-  cancelled: 'cancelled',
-}
 
 /** Everything about one serial, read-only and printable. */
 export function BuildRecord({ record }: { record: UnitRecord }) {
@@ -40,7 +30,7 @@ export function BuildRecord({ record }: { record: UnitRecord }) {
         <dt className="font-bold">Order</dt>
         <dd>{record.order.number}</dd>
         <dt className="font-bold">Status</dt>
-        <dd data-testid="unit-status">{STATUS[record.workOrder.status]}</dd>
+        <dd data-testid="unit-status">{WORK_ORDER_STATUS_LABELS[record.workOrder.status]}</dd>
         <dt className="font-bold">Leak test</dt>
         <dd>
           {firstTest

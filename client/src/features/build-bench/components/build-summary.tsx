@@ -1,19 +1,9 @@
 import { Link } from 'react-router-dom'
 import type { BuildPage } from '@kitwright/shared/build'
+import { WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { paths } from '../../../config/paths'
 import { cn } from '../../../lib/cn'
 import { formatWhen } from './format'
-
-const STATUS_WORDS: Record<BuildPage['workOrder']['status'], string> = {
-  waiting_cut: 'Waiting for the cut bench',
-  cut: 'Cut, ready to build',
-  building: 'Building',
-  rework: 'In rework',
-  built: 'Built — ready to pack',
-  packed: 'Packed',
-  shipped: 'Shipped',
-  cancelled: 'Cancelled',
-}
 
 /** Which unit this is, where it stands, and what is left before the pack bench. */
 export function BuildSummary({ page }: { page: BuildPage }) {
@@ -44,7 +34,8 @@ export function BuildSummary({ page }: { page: BuildPage }) {
           wo.status === 'built' ? 'bg-brand-700 text-white' : wo.status === 'rework' ? 'bg-red-700 text-white' : 'bg-stone-200 text-stone-900',
         )}
       >
-        {STATUS_WORDS[wo.status]}
+        {WORK_ORDER_STATUS_LABELS[wo.status]}
+        {wo.status === 'built' && <span className="font-normal"> · next: the pack bench</span>}
         {wo.status !== 'built' && left.length > 0 && <span className="font-normal"> · left: {left.join(', ')}</span>}
       </p>
       {openRework.map((x) => (

@@ -1,4 +1,5 @@
 import type { CutRunDetail } from '@kitwright/shared/cut-runs'
+import { CUT_STICK_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { StickDrawing } from '../../../components/cut/stick-drawing'
 import { StickLegend } from '../../../components/cut/stick-legend'
 import { Section } from '../../../components/ui/section'
@@ -42,7 +43,7 @@ export function PlanView({ run }: { run: CutRunDetail }) {
               <p className="text-sm">
                 <span className="font-bold">Stick {s.position}</span> · pattern {s.patternIndex + 1} · {s.partSku} ·{' '}
                 {s.source === 'offcut' ? `offcut ${s.sourceOffcutCode} (${format(s.length)})` : `${format(s.length)} stick`}
-                {s.status !== 'pending' ? ` · ${s.status.replace('_', ' ')}` : ''}
+                {s.status !== 'pending' ? ` · ${CUT_STICK_STATUS_LABELS[s.status]}` : ''}
               </p>
               <StickDrawing stick={s} kerf={run.kerf} scaleLength={scale} format={format} />
             </li>

@@ -3,6 +3,7 @@ import { FormProvider, useForm, type Path } from 'react-hook-form'
 import { useNavigate } from 'react-router-dom'
 import { toast } from 'sonner'
 import type { RevisionDetail } from '@kitwright/shared/kits'
+import { REVISION_STATUS_LABELS } from '@kitwright/shared/status-words'
 import type { Part } from '@kitwright/shared/parts'
 import { Button } from '../../../components/ui/button'
 import { Field } from '../../../components/ui/field'
@@ -67,7 +68,7 @@ export function RevisionEditor({ revision, parts, canEdit }: { revision: Revisio
             <p className="text-stone-600">{title}</p>
             <h1 className="text-3xl font-bold">
               Revision {revision.code}{' '}
-              <span className={`ml-2 rounded-md px-2 py-1 align-middle text-base ${STATUS_STYLE[revision.status]}`}>{revision.status}</span>
+              <span className={`ml-2 rounded-md px-2 py-1 align-middle text-base ${STATUS_STYLE[revision.status]}`}>{REVISION_STATUS_LABELS[revision.status]}</span>
             </h1>
           </div>
           {canEdit && revision.status === 'draft' && (
@@ -105,7 +106,7 @@ export function RevisionEditor({ revision, parts, canEdit }: { revision: Revisio
         </div>
         {revision.status !== 'draft' && (
           <p className="rounded-md bg-stone-200 p-3">
-            A {revision.status} revision never changes; work orders keep the revision they were released with.
+            A {REVISION_STATUS_LABELS[revision.status].toLowerCase()} revision never changes; work orders keep the revision they were released with.
             {canEdit && ' To change it, start a new revision from it.'}
           </p>
         )}
