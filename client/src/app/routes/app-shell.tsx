@@ -4,7 +4,6 @@ import { Toaster } from 'sonner'
 import type { Role } from '@kitwright/shared/roles'
 import { ROLE_LABELS } from '@kitwright/shared/roles'
 import { Button } from '../../components/ui/button'
-import { OfflineBanner } from '../../components/ui/offline-banner'
 import { paths } from '../../config/paths'
 import { meOptions, useSignOut } from '../../features/auth/api/auth-queries'
 import { cn } from '../../lib/cn'
@@ -16,7 +15,6 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Unit weights', href: paths.unitWeights.href(), roles: ['admin', 'planner'] },
-  { label: 'Lots & recalls', href: paths.lots.href(), roles: ['admin', 'planner'] },
   { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
   { label: 'Purchase orders', href: paths.purchaseOrders.href(), roles: ['admin', 'planner'] },
   { label: 'Suppliers', href: paths.suppliers.href(), roles: ['admin', 'planner'] },
@@ -26,7 +24,6 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
   { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },
-  { label: 'Returns', href: paths.returns.href(), roles: ['admin', 'planner', 'packer'] },
   { label: 'Scan', href: paths.scan.href(), roles: ['admin', 'planner', 'cutter', 'assembler', 'packer'] },
   { label: 'Users', href: paths.users.href(), roles: ['admin'] },
   { label: 'Audit', href: paths.audit.href(), roles: ['admin'] },
@@ -64,10 +61,8 @@ export function AppShell() {
               <span className="block font-bold">{me.name}</span>
               <span className="block text-sm text-brand-100">{ROLE_LABELS[me.role]}</span>
             </span>
-            {/* At least 48 px tall like every other bench target (gloved hands sign out too). */}
             <Button
               variant="secondary"
-              className="min-h-12"
               onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate(paths.signIn.href()) })}
             >
               Sign out
@@ -75,7 +70,6 @@ export function AppShell() {
           </div>
         </div>
       </header>
-      <OfflineBanner userId={me.id} />
       <main className="mx-auto max-w-7xl px-4 py-6">
         <Outlet />
       </main>
