@@ -104,6 +104,11 @@ export const MAIL_STATUS_LABELS: Record<(typeof MAIL_STATUSES)[number], string> 
   failed: 'Gave up',
 }
 
+/** A status as it reads inside a sentence: "Order 1001 is partly shipped". */
+export function statusInSentence<K extends string>(labels: Record<K, string>, code: string): string {
+  return wordFor(labels, code).toLowerCase()
+}
+
 /** The word for a code read from the database as plain text; an unknown code is shown as it is. */
 export function wordFor<K extends string>(labels: Record<K, string>, code: string): string {
   return Object.hasOwn(labels, code) ? labels[code as K] : code

@@ -104,14 +104,14 @@ describe('the build bench, in Chromium', () => {
     if (shots) await page.screenshot({ path: `${shots}/build-bench.png`, fullPage: true })
     await form.getByRole('button', { name: 'Record leak test' }).click()
 
-    await page.getByRole('status').filter({ hasText: 'Built — ready to pack' }).waitFor()
+    await page.getByRole('status').filter({ hasText: 'Built · next: the pack bench' }).waitFor()
     expect(await page.getByRole('list', { name: 'Leak tests' }).textContent()).toContain('Attempt 1: PASSED')
     const [row] = await conn.db.select({ status: workOrders.status }).from(workOrders).where(eq(workOrders.id, wo.id))
     expect(row!.status).toBe('built')
 
     await page.getByRole('link', { name: 'Build record' }).click()
     await page.getByRole('heading', { name: `Build record · Unit ${wo.serial}` }).waitFor()
-    expect(await page.getByTestId('unit-status').textContent()).toBe('built and leak-tested, ready to pack')
+    expect(await page.getByTestId('unit-status').textContent()).toBe('Built')
     expect(await page.getByText('Not cut through Kitwright').isVisible()).toBe(true)
     const stepRows = page.getByRole('table', { name: 'Build steps' }).getByRole('row')
     expect(await stepRows.count()).toBe(steps.length + 1)

@@ -18,7 +18,7 @@ describe('a planner revises the 12-site kit for a new tote', () => {
   it('starts a revision from B, enters the new tote, sees the cut list and its derivation update, saves and releases it', async () => {
     await page.getByRole('link', { name: 'Kits', exact: true }).click()
     const row = page.getByRole('row', { name: /MW-TOTE-12/ })
-    await row.getByRole('link', { name: /^B · released$/ }).click()
+    await row.getByRole('link', { name: /^B · Released$/ }).click()
     await page.getByRole('heading', { name: /Revision B/ }).waitFor()
     await page.getByRole('button', { name: 'Start a new revision from B' }).click()
     await page.getByRole('heading', { name: /Revision C/ }).waitFor()
@@ -51,7 +51,7 @@ describe('a planner revises the 12-site kit for a new tote', () => {
 
   it('asks for a reason when a cut length is changed by hand', async () => {
     await page.getByRole('link', { name: 'Kits', exact: true }).click()
-    await page.getByRole('row', { name: /MW-TOTE-6C/ }).getByRole('link', { name: /^A · released$/ }).click()
+    await page.getByRole('row', { name: /MW-TOTE-6C/ }).getByRole('link', { name: /^A · Released$/ }).click()
     await page.getByRole('button', { name: 'Start a new revision from A' }).click()
     await page.getByRole('heading', { name: /Revision B/ }).waitFor()
     const cutParts = page.getByRole('table', { name: 'Cut parts' })

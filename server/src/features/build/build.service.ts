@@ -25,6 +25,7 @@ import {
   stepsOfRevision,
   ticksOfWorkOrder,
 } from './build.queries'
+import { WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type BuildableStatus = (typeof BUILDABLE_STATUSES)[number]
 
@@ -42,7 +43,7 @@ function notBuildableMessage(wo: WorkOrderRow): string {
     case 'cancelled':
       return `Unit ${wo.serial} was cancelled; do not build it`
     default:
-      return `Unit ${wo.serial} is ${wo.status}`
+      return `Unit ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`
   }
 }
 

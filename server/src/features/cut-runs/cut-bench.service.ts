@@ -14,6 +14,7 @@ import { getCutRun, nestParts, reserveOffcuts } from './cut-runs.service'
 import { loadPipeStock } from './pipe-stock'
 import { insertPlanRows } from './plan-rows'
 import { startStick, stockRemnant, unstockRemnant } from './stick-ledger'
+import { CUT_RUN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type Actor = Pick<SessionUser, 'id' | 'name'>
 
@@ -106,7 +107,7 @@ export async function undoCut(db: Db, runId: string, cutId: string, actor: Actor
     if (cut.status !== 'cut') throw new Conflict('This piece is not ticked; there is nothing to undo')
     if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} was marked damaged; its ticks stay as they are`)
     const [wo] = await tx.select().from(workOrders).where(eq(workOrders.id, cut.workOrderId))
-    if (wo && !['waiting_cut', 'cut'].includes(wo.status)) throw new Conflict(`Work order ${wo.serial} is ${wo.status} already; its pieces left the cut bench`)
+    if (wo && !['waiting_cut', 'cut'].includes(wo.status)) throw new Conflict(`Work order ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)} already; its pieces left the cut bench`)
     if (stick.status === 'done') {
       if (!(await unstockRemnant(tx, run, stick, actor))) throw new Conflict(`The offcut from stick ${stick.position} is already planned or used elsewhere; the tick stays`)
       await tx.update(cutRunSticks).set({ status: 'in_progress', finishedAt: null }).where(eq(cutRunSticks.id, stick.id))
@@ -126,7 +127,7 @@ export async function undoCut(db: Db, runId: string, cutId: string, actor: Actor
  */
 export async function damageStick(db: Db, runId: string, stickId: string, input: DamageStick, actor: Actor): Promise<CutRunDetail> {
   const run = await publishedRun(db, runId)
-  if (run.status !== 'published') throw new Conflict(`Cut run ${run.number} is ${run.status}`)
+  if (run.status !== 'published') throw new Conflict(`Cut run ${run.number} is ${statusInSentence(CUT_RUN_STATUS_LABELS, run.status)}`)
   const [stick] = await db.select().from(cutRunSticks).where(and(eq(cutRunSticks.id, stickId), eq(cutRunSticks.cutRunId, runId)))
   if (!stick) throw new NotFound('No such stick in this run')
   if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} is already marked damaged`)

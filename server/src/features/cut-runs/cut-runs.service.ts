@@ -22,6 +22,7 @@ import {
 import { loadPipeStock } from './pipe-stock'
 import { insertPlanRows, sumPlans, type PartPlan } from './plan-rows'
 import { runNesting } from './run-nesting'
+import { CUT_RUN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type Actor = Pick<SessionUser, 'id' | 'name'>
 
@@ -93,7 +94,7 @@ async function piecesOf(db: Db | Tx, workOrderIds: readonly string[], exceptRunI
   workOrderIds.forEach((id, i) => {
     const w = byId.get(id)
     if (!w) fields[`workOrderIds.${i}`] = 'No such work order'
-    else if (w.status !== 'waiting_cut') fields[`workOrderIds.${i}`] = `Work order ${w.serial} is ${w.status.replace('_', ' ')}, not waiting to be cut`
+    else if (w.status !== 'waiting_cut') fields[`workOrderIds.${i}`] = `Work order ${w.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, w.status)}, not waiting to be cut`
     else if (busy.has(id)) fields[`workOrderIds.${i}`] = `Work order ${w.serial} is already in cut run ${busy.get(id)}`
     else if (!cps.some((c) => c.revisionId === w.revisionId)) fields[`workOrderIds.${i}`] = `Work order ${w.serial} (${w.kitSku}) has no pipe to cut`
   })
@@ -179,7 +180,7 @@ export async function planCutRun(db: Db, input: PlanCutRun, actor: Actor): Promi
 export async function replanCutRun(db: Db, id: string, input: ReplanCutRun): Promise<CutRunDetail> {
   const run = await selectRun(db, id)
   if (!run) throw new NotFound('No such cut run')
-  if (run.status !== 'draft') throw new Conflict(`Cut run ${run.number} is ${run.status}; only a draft can be planned again`)
+  if (run.status !== 'draft') throw new Conflict(`Cut run ${run.number} is ${statusInSentence(CUT_RUN_STATUS_LABELS, run.status)}; only a draft can be planned again`)
   const woIds = (await db.selectDistinct({ id: cutRunCuts.workOrderId }).from(cutRunCuts).where(eq(cutRunCuts.cutRunId, id))).map((r) => r.id)
   const inputs = await nestingInputs(db, woIds, { useOffcuts: true, kerf: run.kerf, endTrim: run.endTrim, minOffcut: run.minOffcut }, id)
   const plans = await nestParts(inputs, Math.round(input.timeLimitSeconds * 1000))
@@ -239,7 +240,7 @@ export async function publishCutRun(db: Db, id: string, actor: Actor): Promise<C
   await db.transaction(async (tx) => {
     const run = await selectRun(tx, id, true)
     if (!run) throw new NotFound('No such cut run')
-    if (run.status !== 'draft') throw new Conflict(`Cut run ${run.number} is ${run.status}; only a draft can be published`)
+    if (run.status !== 'draft') throw new Conflict(`Cut run ${run.number} is ${statusInSentence(CUT_RUN_STATUS_LABELS, run.status)}; only a draft can be published`)
     const woIds = (await tx.selectDistinct({ id: cutRunCuts.workOrderId }).from(cutRunCuts).where(eq(cutRunCuts.cutRunId, id))).map((r) => r.id)
     try {
       await piecesOf(tx, woIds, id)
@@ -270,7 +271,7 @@ export async function cancelCutRun(db: Db, id: string, actor: Actor): Promise<Cu
       if (lines.length > 0) await releaseReservation(tx, { workOrderId: null, lines, reason: `Cut run ${run.number} cancelled` }, actor)
       if (offcutIds.length > 0) await tx.update(offcuts).set({ status: 'in_stock' }).where(inArray(offcuts.id, offcutIds))
     } else if (run.status !== 'draft') {
-      throw new Conflict(`Cut run ${run.number} is ${run.status}; it cannot be cancelled`)
+      throw new Conflict(`Cut run ${run.number} is ${statusInSentence(CUT_RUN_STATUS_LABELS, run.status)}; it cannot be cancelled`)
     }
     await tx.update(cutRuns).set({ status: 'cancelled', cancelledAt: new Date() }).where(eq(cutRuns.id, id))
   })

@@ -9,6 +9,7 @@ import { toKit, toRevisionDetail } from './kits.mapper'
 import { findRevision, loadKits, loadRevisionTree, lockRevision, partsByIds } from './kits.queries'
 import { nextRevisionCode } from './revision-codes'
 import { checkRevisionContent, releaseProblems } from './revision-content'
+import { REVISION_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 export async function listKits(db: Db): Promise<Kit[]> {
   return (await loadKits(db)).map(toKit)
@@ -109,7 +110,7 @@ async function writeContent(tx: Tx, revisionId: string, content: RevisionContent
 function assertDraft(row: KitRevisionRow | undefined): asserts row is KitRevisionRow {
   if (!row) throw new NotFound('No such kit revision')
   if (row.status !== 'draft') {
-    throw new Conflict(`Revision ${row.code} is ${row.status} and can no longer change; start a new revision from it to make changes`)
+    throw new Conflict(`Revision ${row.code} is ${statusInSentence(REVISION_STATUS_LABELS, row.status)} and can no longer change; start a new revision from it to make changes`)
   }
 }
 
@@ -136,7 +137,7 @@ export async function retireRevision(db: Db, id: string): Promise<RevisionDetail
   await db.transaction(async (tx) => {
     const row = await lockRevision(tx, id)
     if (!row) throw new NotFound('No such kit revision')
-    if (row.status !== 'released') throw new Conflict(`Only a released revision can be retired; ${row.code} is ${row.status}`)
+    if (row.status !== 'released') throw new Conflict(`Only a released revision can be retired; ${row.code} is ${statusInSentence(REVISION_STATUS_LABELS, row.status)}`)
     await tx.update(kitRevisions).set({ status: 'retired', retiredAt: new Date(), updatedAt: new Date() }).where(eq(kitRevisions.id, id))
   })
   return getRevision(db, id)

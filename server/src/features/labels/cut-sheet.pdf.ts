@@ -4,6 +4,7 @@ import { formatLength, type LengthUnit } from '@kitwright/shared/domain/units'
 import { placeUnderLabels } from '@kitwright/shared/stick-labels'
 import { STICK_LEGEND, STICK_PALETTE as P } from '@kitwright/shared/stick-palette'
 import { createPdf, pdfBuffer, PAPER } from './pdf-document'
+import { CUT_RUN_STATUS_LABELS } from '@kitwright/shared/status-words'
 
 /** The cautions printed on every cut sheet; the saw maker's instructions and local practice come first. */
 export const CUT_SHEET_CAUTIONS = [
@@ -200,7 +201,7 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
   y += 26
   const t = run.totals
   for (const text of [
-    `${opts.shopName} · ${run.status} · planned ${run.createdAt.slice(0, 10)}${run.publishedBy ? ` · published by ${run.publishedBy}` : ''}`,
+    `${opts.shopName} · ${CUT_RUN_STATUS_LABELS[run.status]} · planned ${run.createdAt.slice(0, 10)}${run.publishedBy ? ` · published by ${run.publishedBy}` : ''}`,
     `Kerf ${len(run.kerf)} · end trim ${len(run.endTrim)} · keep offcuts of ${len(run.minOffcut)} or more`,
     `${t.sticksUsed} stick${t.sticksUsed === 1 ? '' : 's'} (${t.offcutsUsed} from offcuts) · pieces ${len(t.pieceLength)} · waste ${len(t.waste)} (${t.wastePercent.toFixed(1)} %) · ${t.offcutsMade} offcut${t.offcutsMade === 1 ? '' : 's'} to stock`,
   ]) {

@@ -13,6 +13,7 @@ import { refreshOrderReceivedMail } from '../mail/order-received-mail'
 import { insertMoves } from '../stock/stock.queries'
 import { releaseReservation } from '../stock/stock.service'
 import { addOrderEvent, getOrder, type OrderActor } from './orders.service'
+import { ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 /** The order row locked for a change; 404 when there is none. */
 async function lockOrder(tx: Tx, id: string): Promise<OrderRow> {
@@ -173,7 +174,7 @@ export async function cancelOrderByPlanner(deps: Pick<Deps, 'db' | 'jobs'>, id: 
 export async function holdOrder(db: Db, id: string, reason: string, actor: NonNullable<OrderActor>, audit: AuditContext): Promise<OrderDetail> {
   return db.transaction(async (tx) => {
     const order = await lockOrder(tx, id)
-    if (order.status === 'cancelled' || order.status === 'shipped') throw new Conflict(`Order ${order.number} is ${order.status}; there is nothing to hold`)
+    if (order.status === 'cancelled' || order.status === 'shipped') throw new Conflict(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; there is nothing to hold`)
     if (order.heldAt) throw new Conflict(`Order ${order.number} is already on hold (${order.holdReason ?? 'no reason given'}); take it off hold first to change the reason`)
     await tx.update(orders).set({ heldAt: new Date(), holdReason: reason, heldBy: actor.id, updatedAt: new Date() }).where(eq(orders.id, order.id))
     await addOrderEvent(tx, { orderId: order.id, kind: 'held', message: `Put on hold: ${reason}. It is not released or shipped until taken off hold.`, data: { reason }, actor })
@@ -203,7 +204,7 @@ export async function liftOrderHold(db: Db, id: string, actor: NonNullable<Order
 export async function updateOrderPlan(db: Db, id: string, change: UpdateOrderPlan, actor: NonNullable<OrderActor>, audit: AuditContext): Promise<OrderDetail> {
   return db.transaction(async (tx) => {
     const order = await lockOrder(tx, id)
-    if (order.status === 'cancelled' || order.status === 'shipped') throw new Conflict(`Order ${order.number} is ${order.status}; its plan no longer changes`)
+    if (order.status === 'cancelled' || order.status === 'shipped') throw new Conflict(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; its plan no longer changes`)
     const said: string[] = []
     if (change.priority !== undefined && change.priority !== order.priority) {
       await tx.update(orders).set({ priority: change.priority, updatedAt: new Date() }).where(eq(orders.id, order.id))

@@ -21,6 +21,7 @@ import {
   userName,
   voidedLabelsOf,
 } from './pack.queries'
+import { ORDER_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type Conn = Db | Tx
 type UnitRow = Awaited<ReturnType<typeof unitsOfOrder>>[number]
@@ -52,7 +53,7 @@ function unitProblem(u: UnitRow, latest: { passed: boolean } | undefined, built:
   if (wo.status === 'built') return `Unit ${wo.serial} has not passed its leak test (none is recorded): it goes back to the build bench`
   if (wo.status === 'waiting_cut' || wo.status === 'cut') return `Unit ${wo.serial} is not built yet (${wo.status === 'cut' ? 'cut, waiting for the build bench' : 'waiting for cutting'}) and has not passed its leak test`
   if (wo.status === 'building') return `Unit ${wo.serial} is still at the build bench and has not passed its leak test`
-  return `Unit ${wo.serial} is ${wo.status}`
+  return `Unit ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`
 }
 
 /** The order's pack data with its open shipment, or with `shipmentId` that shipment (shipped or not). */
@@ -97,7 +98,7 @@ export async function loadPackData(db: Conn, orderId: string, shipmentId?: strin
       }
     } else {
       const contents = revBom.filter((b) => b.kind !== 'packaging').map((b) => `${b.quantity} × ${b.name}`).join(', ')
-      items.push({ ...base, key: packKey(wo.serial), kind: 'pack', description: `${u.kitName} (${u.kitSku}), pack ${wo.serial}: ${contents}`, problem: wo.status === 'built' ? null : `Pack ${wo.serial} is ${wo.status}`, tickable: true, check: check(packKey(wo.serial)) })
+      items.push({ ...base, key: packKey(wo.serial), kind: 'pack', description: `${u.kitName} (${u.kitSku}), pack ${wo.serial}: ${contents}`, problem: wo.status === 'built' ? null : `Pack ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`, tickable: true, check: check(packKey(wo.serial)) })
     }
   }
   const partialApprovedByName = await userName(db, shipment?.partialApprovedBy ?? null)
@@ -162,7 +163,7 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
   const { shipping, backOrdered, byUnit } = shippingSplit(data)
   const serialOf = new Map(data.units.map((u) => [u.workOrder.id, u.workOrder.serial]))
   const blockers: string[] = []
-  if (order.status !== 'released' && order.status !== 'partially_shipped') blockers.push(`Order ${order.number} is ${order.status.replace('_', ' ')}; only released orders are packed`)
+  if (order.status !== 'released' && order.status !== 'partially_shipped') blockers.push(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
   if (order.heldAt) blockers.push(`Order ${order.number} is on hold (${order.holdReason ?? 'no reason given'}); a planner takes it off hold before it ships`)
   if (items.length === 0) blockers.push(`Order ${order.number} has nothing left to pack`)
   for (const id of shipping) {

@@ -12,6 +12,7 @@ import type { Carrier, ShipmentRequest } from '../shipping/carrier'
 import { weighParcel } from './parcel-weights'
 import { buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
 import { findBinByCode, findOrder, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, openShipmentOf } from './pack.queries'
+import { ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
 
@@ -47,7 +48,7 @@ export async function lookupForPacking(deps: PackDeps, code: string): Promise<Pa
 async function openShipment(tx: Tx, data: PackData, actor: SessionUser): Promise<ShipmentRow> {
   const order = await lockOrderRow(tx, data.order.id)
   if (!order) throw new NotFound('No such order')
-  if (order.status !== 'released' && order.status !== 'partially_shipped') throw new Conflict(`Order ${order.number} is ${order.status.replace('_', ' ')}; only released orders are packed`)
+  if (order.status !== 'released' && order.status !== 'partially_shipped') throw new Conflict(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
   const open = await openShipmentOf(tx, order.id)
   if (open) {
     const locked = (await lockShipment(tx, open.id))!

@@ -16,6 +16,7 @@ import { bomOfRevisions, lockOrderRow, lockShipment, parcelsOf } from './pack.qu
 import { packView } from './pack.service'
 import { unitRecordLink } from '../build/public-record'
 import { shippedMailContent } from './shipped-mail'
+import { WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 
 /**
@@ -41,7 +42,7 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     const units = data.units.filter((u) => ids.includes(u.workOrder.id))
     const locked = await tx.select().from(workOrders).where(inArray(workOrders.id, ids)).for('update')
     const notReady = locked.filter((w) => w.status !== 'built')
-    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${w.status}`).join('; ')}. Take it out of the box and void the label (with the reason) to open the box again`)
+    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, w.status)}`).join('; ')}. Take it out of the box and void the label (with the reason) to open the box again`)
 
     const now = new Date()
     await tx.update(workOrders).set({ status: 'shipped', updatedAt: now }).where(inArray(workOrders.id, ids))

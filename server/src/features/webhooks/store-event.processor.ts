@@ -8,6 +8,7 @@ import { queueOrderReceivedMail } from '../mail/order-received-mail'
 import { addOrderEvent, createOrder } from '../orders/orders.service'
 import { cancelOrder } from '../orders/order-lifecycle.service'
 import { autoReleasePaidOrder } from '../work-orders/auto-release'
+import { ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 export type StoreEventDeps = Pick<Deps, 'db' | 'jobs'>
 type Paid = Extract<StoreEvent, { type: 'order.paid' }>
@@ -107,7 +108,7 @@ async function applyAddressChange(tx: Tx, order: OrderRow, event: AddressChanged
     await addOrderEvent(tx, {
       orderId: order.id,
       kind: 'note',
-      message: `The web store changed the ship-to after the order was ${order.status}; nothing was changed here. New address: ${oneLine(event.shipTo)}`,
+      message: `The web store changed the ship-to after the order was ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; nothing was changed here. New address: ${oneLine(event.shipTo)}`,
       data: { eventId: event.eventId, to: event.shipTo },
     })
     return order
