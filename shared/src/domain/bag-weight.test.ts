@@ -139,7 +139,18 @@ describe('the verdict on a weighed bag', () => {
     expect(v.explanations[0]!.parts).toEqual([{ sku: 'COLLAR', name: '2 in foam collar', count: -1, mg: -4250 }])
     // −4.20 − (−4.25) = +0.05 g left over.
     expect(v.explanations[0]!.residualMg).toBe(50)
-    expect(v.words).toMatch(/^Refused: 123\.20 g is −4\.20 g from 127\.40 g, outside ±2\.13 g\. Likely 1 × 2 in foam collar missing/)
+    // Only the collar: a missing net cup (−6.10 g) leaves 1.90 g unexplained, more than the 1.66 g summed spread.
+    expect(v.words).toBe('Refused: 123.20 g is −4.20 g from 127.40 g, outside ±2.13 g. Likely 1 × 2 in foam collar missing (−4.25 g)')
+  })
+
+  it('names equally simple explanations side by side, and no more complicated ones', () => {
+    // Two parts of the same weight cannot be told apart on a scale: both are named, and nothing of 3 pieces.
+    const twins: BagLine[] = [
+      { partId: 'a', sku: 'A', name: 'part A', quantity: 4, unitMg: 5000, spreadMg: 20 },
+      { partId: 'b', sku: 'B', name: 'part B', quantity: 4, unitMg: 5000, spreadMg: 20 },
+    ]
+    const found = explainDifference(twins, -5000, 160)
+    expect(found.map((f) => f.words)).toEqual(['1 × part A missing (−5.00 g)', '1 × part B missing (−5.00 g)'])
   })
 
   it('accepts a bag within tolerance: 128.3 g is +0.90 g', () => {

@@ -229,13 +229,19 @@ export interface Explanation {
 const MAX_PER_PART = 3
 const MAX_PIECES = 4
 
+/** The finest step a bench scale for bags commonly reads (0.1 g): common practice, not a standard. */
+export const SCALE_STEP_MG = 100
+
 /**
- * The combinations of the bag's parts whose weights best explain a difference (measured − expected),
- * best first: the smallest residual, then the fewest pieces. Only combinations whose residual is
- * within the tolerance are returned; none means no count of the bag's own parts explains it (a
- * wrong part or something foreign in the bag). Missing counts never exceed what the bag should hold.
+ * The combinations of the bag's parts whose weights best explain a difference (measured − expected):
+ * those that leave no more than `windowMg` unexplained (the parts' own summed spread, or one scale
+ * step if that is larger). The simplest explanation is the likeliest — one collar missing, not two
+ * cups missing and two collars extra — so the fewest pieces come first, then the smallest residual,
+ * and only explanations as simple as the best are returned beside it. None means no count of the
+ * bag's own parts explains it (a wrong part or something foreign in the bag). Missing counts never
+ * exceed what the bag should hold.
  */
-export function explainDifference(lines: readonly BagLine[], differenceMg: number, toleranceMg: number, limit = 3): Explanation[] {
+export function explainDifference(lines: readonly BagLine[], differenceMg: number, windowMg: number, limit = 3): Explanation[] {
   const parts = lines.filter((l) => !l.isBag)
   const found: { counts: number[]; residual: number; pieces: number }[] = []
   const counts = parts.map(() => 0)
@@ -243,7 +249,7 @@ export function explainDifference(lines: readonly BagLine[], differenceMg: numbe
     if (i === parts.length) {
       if (pieces === 0) return
       const residual = differenceMg - explained
-      if (Math.abs(residual) <= toleranceMg) found.push({ counts: [...counts], residual, pieces })
+      if (Math.abs(residual) <= windowMg) found.push({ counts: [...counts], residual, pieces })
       return
     }
     const p = parts[i]!
@@ -256,8 +262,9 @@ export function explainDifference(lines: readonly BagLine[], differenceMg: numbe
     counts[i] = 0
   }
   walk(0, 0, 0)
-  found.sort((a, b) => Math.abs(a.residual) - Math.abs(b.residual) || a.pieces - b.pieces)
-  return found.slice(0, limit).map((f) => {
+  found.sort((a, b) => a.pieces - b.pieces || Math.abs(a.residual) - Math.abs(b.residual))
+  const simplest = found[0]?.pieces
+  return found.filter((f) => f.pieces === simplest).slice(0, limit).map((f) => {
     const named = f.counts.flatMap((c, i) => (c === 0 ? [] : [{ sku: parts[i]!.sku, name: parts[i]!.name, count: c, mg: c * parts[i]!.unitMg }]))
     const words = named.map((n) => `${Math.abs(n.count)} × ${n.name} ${n.count < 0 ? 'missing' : 'extra'} (${n.count < 0 ? '−' : '+'}${formatGrams(Math.abs(n.mg))})`).join(', ')
     return { parts: named, residualMg: f.residual, words }
@@ -282,7 +289,7 @@ export function judgeBag(lines: readonly BagLine[], expectation: BagExpectation,
   if (Math.abs(differenceMg) <= expectation.toleranceMg) {
     return { accepted: true, differenceMg, explanations: [], words: `Accepted: ${formatGrams(measuredMg)} is ${signed} from ${formatGrams(expectation.expectedMg)}, within ±${formatGrams(expectation.toleranceMg)}` }
   }
-  const explanations = explainDifference(lines, differenceMg, expectation.toleranceMg)
+  const explanations = explainDifference(lines, differenceMg, Math.max(expectation.summedSpreadMg, SCALE_STEP_MG))
   const head = `Refused: ${formatGrams(measuredMg)} is ${signed} from ${formatGrams(expectation.expectedMg)}, outside ±${formatGrams(expectation.toleranceMg)}`
   const why = explanations[0]
     ? `. Likely ${explanations[0].words}${explanations.length > 1 ? `; or ${explanations.slice(1).map((e) => e.words).join('; or ')}` : ''}`
