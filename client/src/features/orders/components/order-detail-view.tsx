@@ -1,5 +1,5 @@
 import type { OrderDetail } from '@kitwright/shared/orders'
-import { WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
+import { ORDER_SOURCE_LABELS, WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../../components/ui/section'
 import { formatDateTime, formatDay, formatMoney } from './format'
 import { OrderActionsPanel } from './order-actions-panel'
@@ -9,7 +9,6 @@ import { OrderTimeline } from './order-timeline'
 import { PaymentPanel } from './payment-panel'
 import { ReleasePanel } from './release-panel'
 
-const SOURCE_WORDS = { store: 'Web store', csv: 'CSV import', phone: 'Phone order' } as const
 const th = 'px-3 py-2 font-bold'
 const td = 'px-3 py-2'
 
@@ -110,7 +109,7 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
         </div>
         <div>
           <dt className="text-sm text-stone-500">Source</dt>
-          <dd>{SOURCE_WORDS[order.source]}</dd>
+          <dd>{ORDER_SOURCE_LABELS[order.source]}</dd>
         </div>
         <div>
           <dt className="text-sm text-stone-500">Payment</dt>

@@ -3,6 +3,7 @@ import { csvErrorsFromFields, csvRowText } from '@kitwright/shared/csv'
 import { ORDER_CSV_COLUMNS, type OrderImportPreview } from '@kitwright/shared/orders-csv'
 import { CsvRowErrors } from '../../../components/ui/csv-row-errors'
 import { CsvSource } from '../../../components/ui/csv-source'
+import { PreviewTable, type PreviewColumn } from '../../../components/ui/preview-table'
 import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportOrders, usePreviewOrdersImport } from '../api/order-queries'
@@ -10,35 +11,18 @@ import { formatMoney } from './format'
 
 const ACTION_WORDS = { create: 'Create', skip: 'Skip: already stored' } as const
 
-function PreviewTable({ preview }: { preview: OrderImportPreview }) {
-  return (
-    <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
-      <table className="w-full text-left" aria-label="Import preview">
-        <thead className="bg-stone-50 text-sm text-stone-600">
-          <tr>
-            {['Rows', 'Order', 'Customer', 'Lines', 'Units', 'Total', 'Will'].map((h) => (
-              <th key={h} className="px-3 py-2 font-bold">
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {preview.orders.map((o) => (
-            <tr key={o.number} className={o.action === null ? 'border-t border-stone-200 bg-red-50' : 'border-t border-stone-200'}>
-              <td className="px-3 py-2 tabular-nums">{o.rows.join(', ')}</td>
-              <td className="px-3 py-2 font-bold">{o.number}</td>
-              <td className="px-3 py-2">{o.customerName || '—'}</td>
-              <td className="px-3 py-2 tabular-nums">{o.lineCount}</td>
-              <td className="px-3 py-2 tabular-nums">{o.units}</td>
-              <td className="px-3 py-2 tabular-nums">{formatMoney(o.totalCents)}</td>
-              <td className="px-3 py-2">{o.action ? ACTION_WORDS[o.action] : 'Fix its rows first'}</td>
-            </tr>
-          ))}
-        </tbody>
-      </table>
-    </div>
-  )
+const PREVIEW_COLUMNS: PreviewColumn<OrderImportPreview['orders'][number]>[] = [
+  { header: 'Rows', cell: (o) => o.rows.join(', '), className: 'tabular-nums' },
+  { header: 'Order', cell: (o) => o.number, className: 'font-bold' },
+  { header: 'Customer', cell: (o) => o.customerName || '—' },
+  { header: 'Lines', cell: (o) => o.lineCount, className: 'tabular-nums' },
+  { header: 'Units', cell: (o) => o.units, className: 'tabular-nums' },
+  { header: 'Total', cell: (o) => formatMoney(o.totalCents), className: 'tabular-nums' },
+  { header: 'Will', cell: (o) => (o.action ? ACTION_WORDS[o.action] : 'Fix its rows first') },
+]
+
+function OrdersPreview({ preview }: { preview: OrderImportPreview }) {
+  return <PreviewTable rows={preview.orders} columns={PREVIEW_COLUMNS} rowKey={(o) => o.number} flagged={(o) => o.action === null} />
 }
 
 /** Choose or paste an orders CSV, see what it would do and what to fix, then import it all at once. */
@@ -84,7 +68,7 @@ export function OrdersImport({ onImported }: { onImported: () => void }) {
           ))}
         </ul>
       )}
-      {current && current.orders.length > 0 && <PreviewTable preview={current} />}
+      {current && current.orders.length > 0 && <OrdersPreview preview={current} />}
     </div>
   )
 }

@@ -4,45 +4,29 @@ import { csvErrorsFromFields } from '@kitwright/shared/csv'
 import { PART_CSV_COLUMNS, type PartCsvError, type PartImportPreview } from '@kitwright/shared/parts-csv'
 import { CsvRowErrors } from '../../../components/ui/csv-row-errors'
 import { CsvSource } from '../../../components/ui/csv-source'
+import { PreviewTable, type PreviewColumn } from '../../../components/ui/preview-table'
 import { useCsvImport } from '../../../lib/use-csv-import'
 import { ApiError } from '../../../lib/api-client'
 import { useImportParts, usePreviewPartsImport } from '../api/part-queries'
 import { formatDollars } from './money'
 
-function PreviewTable({ preview }: { preview: PartImportPreview }) {
+type PreviewRow = PartImportPreview['rows'][number] & { problems: PartCsvError[] }
+
+const PREVIEW_COLUMNS: PreviewColumn<PreviewRow>[] = [
+  { header: 'Row', cell: (r) => r.row, className: 'tabular-nums' },
+  { header: 'SKU', cell: (r) => r.sku || '—', className: 'font-bold' },
+  { header: 'Name', cell: (r) => r.part?.name ?? '—' },
+  { header: 'Kind', cell: (r) => (r.part ? PART_KIND_LABELS[r.part.kind] : '—') },
+  { header: 'Unit cost', cell: (r) => (r.part ? formatDollars(r.part.unitCostCents) : '—'), className: 'tabular-nums' },
+  { header: 'Will', cell: (r) => (r.action === 'create' ? 'Create' : r.action === 'update' ? 'Update' : '—') },
+  { header: 'Problems', cell: (r) => r.problems.map((p) => (p.column ? `${p.column}: ${p.message}` : p.message)).join(' · '), className: 'text-red-800' },
+]
+
+function PartsPreview({ preview }: { preview: PartImportPreview }) {
   const byRow = new Map<number, PartCsvError[]>()
   for (const e of preview.errors) byRow.set(e.row, [...(byRow.get(e.row) ?? []), e])
-  return (
-    <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
-      <table className="w-full text-left" aria-label="Import preview">
-        <thead className="bg-stone-50 text-sm text-stone-600">
-          <tr>
-            {['Row', 'SKU', 'Name', 'Kind', 'Unit cost', 'Will', 'Problems'].map((h) => (
-              <th key={h} className="px-3 py-2 font-bold">
-                {h}
-              </th>
-            ))}
-          </tr>
-        </thead>
-        <tbody>
-          {preview.rows.map((r) => {
-            const problems = byRow.get(r.row) ?? []
-            return (
-              <tr key={r.row} className={problems.length ? 'border-t border-stone-200 bg-red-50' : 'border-t border-stone-200'}>
-                <td className="px-3 py-2 tabular-nums">{r.row}</td>
-                <td className="px-3 py-2 font-bold">{r.sku || '—'}</td>
-                <td className="px-3 py-2">{r.part?.name ?? '—'}</td>
-                <td className="px-3 py-2">{r.part ? PART_KIND_LABELS[r.part.kind] : '—'}</td>
-                <td className="px-3 py-2 tabular-nums">{r.part ? formatDollars(r.part.unitCostCents) : '—'}</td>
-                <td className="px-3 py-2">{r.action === 'create' ? 'Create' : r.action === 'update' ? 'Update' : '—'}</td>
-                <td className="px-3 py-2 text-red-800">{problems.map((p) => (p.column ? `${p.column}: ${p.message}` : p.message)).join(' · ')}</td>
-              </tr>
-            )
-          })}
-        </tbody>
-      </table>
-    </div>
-  )
+  const rows = preview.rows.map((r) => ({ ...r, problems: byRow.get(r.row) ?? [] }))
+  return <PreviewTable rows={rows} columns={PREVIEW_COLUMNS} rowKey={(r) => r.row} flagged={(r) => r.problems.length > 0} />
 }
 
 /** Choose or paste a parts CSV, see what it would do and what to fix, then import it all at once. */
@@ -80,7 +64,7 @@ export function PartsImport({ onImported }: { onImported: () => void }) {
         )}
       </div>
       <CsvRowErrors errors={errors} />
-      {current && current.rows.length > 0 && <PreviewTable preview={current} />}
+      {current && current.rows.length > 0 && <PartsPreview preview={current} />}
     </div>
   )
 }

@@ -1,6 +1,7 @@
 import { formatDateTime } from '@kitwright/shared/dates'
 import { PART_KIND_LABELS } from '@kitwright/shared/parts'
 import { formatStickLength, type StockLedger, type StockMoveKind } from '@kitwright/shared/stock'
+import { EmptyRow, PlainTable, rowClass, type PlainHeader } from '../../../components/ui/plain-table'
 import { cn } from '../../../lib/cn'
 import { useLengthUnit } from '../../../lib/shop-settings'
 import { LowBadge } from './low-badge'
@@ -16,6 +17,17 @@ const KIND_LABELS: Record<StockMoveKind, string> = {
   ship: 'Shipped',
 }
 
+
+const LEDGER_HEADERS: PlainHeader[] = [
+  'When',
+  'Move',
+  { label: 'Change', numeric: true },
+  'Stick',
+  'Why / reference',
+  'By',
+  { label: 'On hand after', numeric: true },
+  { label: 'Reserved after', numeric: true },
+]
 
 function Figure({ label, value, strong }: { label: string; value: number; strong?: boolean }) {
   return (
@@ -50,43 +62,21 @@ export function StockLedgerView({ ledger }: { ledger: StockLedger }) {
           {b.offcuts.count > 0 && ` · offcuts: ${b.offcuts.count} (${format(b.offcuts.totalLength)} in all)`}
         </p>
       )}
-      <div className="overflow-x-auto rounded-lg border border-stone-300 bg-white">
-        <table className="w-full text-left" aria-label="Ledger">
-          <thead className="bg-stone-50 text-sm text-stone-600">
-            <tr>
-              <th className="px-3 py-2">When</th>
-              <th className="px-3 py-2">Move</th>
-              <th className="px-3 py-2 text-right">Change</th>
-              <th className="px-3 py-2">Stick</th>
-              <th className="px-3 py-2">Why / reference</th>
-              <th className="px-3 py-2">By</th>
-              <th className="px-3 py-2 text-right">On hand after</th>
-              <th className="px-3 py-2 text-right">Reserved after</th>
-            </tr>
-          </thead>
-          <tbody>
-            {ledger.moves.map((m) => (
-              <tr key={m.id} className="border-t border-stone-200">
-                <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(m.createdAt)}</td>
-                <td className="px-3 py-2">{KIND_LABELS[m.kind]}</td>
-                <td className="px-3 py-2 text-right font-bold">{m.quantity > 0 ? `+${m.quantity}` : m.quantity}</td>
-                <td className="px-3 py-2">{m.stickLength === null ? '—' : formatStickLength(m.stickLength, unit)}</td>
-                <td className="px-3 py-2">{[m.reason, m.reference].filter(Boolean).join(' · ') || '—'}</td>
-                <td className="px-3 py-2">{m.createdBy?.name ?? '—'}</td>
-                <td className="px-3 py-2 text-right">{m.onHandAfter}</td>
-                <td className="px-3 py-2 text-right">{m.reservedAfter}</td>
-              </tr>
-            ))}
-            {ledger.moves.length === 0 && (
-              <tr>
-                <td colSpan={8} className="px-3 py-6 text-center text-stone-500">
-                  No moves yet: receive stock to start this part's ledger
-                </td>
-              </tr>
-            )}
-          </tbody>
-        </table>
-      </div>
+      <PlainTable label="Ledger" headers={LEDGER_HEADERS}>
+        {ledger.moves.map((m) => (
+          <tr key={m.id} className={rowClass()}>
+            <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(m.createdAt)}</td>
+            <td className="px-3 py-2">{KIND_LABELS[m.kind]}</td>
+            <td className="px-3 py-2 text-right font-bold">{m.quantity > 0 ? `+${m.quantity}` : m.quantity}</td>
+            <td className="px-3 py-2">{m.stickLength === null ? '—' : formatStickLength(m.stickLength, unit)}</td>
+            <td className="px-3 py-2">{[m.reason, m.reference].filter(Boolean).join(' · ') || '—'}</td>
+            <td className="px-3 py-2">{m.createdBy?.name ?? '—'}</td>
+            <td className="px-3 py-2 text-right">{m.onHandAfter}</td>
+            <td className="px-3 py-2 text-right">{m.reservedAfter}</td>
+          </tr>
+        ))}
+        {ledger.moves.length === 0 && <EmptyRow columns={LEDGER_HEADERS.length}>No moves yet: receive stock to start this part's ledger</EmptyRow>}
+      </PlainTable>
       {ledger.totalMoves > ledger.moves.length && (
         <p className="text-sm text-stone-600">
           Showing the newest {ledger.moves.length} of {ledger.totalMoves} moves.
