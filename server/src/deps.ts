@@ -33,4 +33,6 @@ export interface Deps {
   payments?: PaymentService | null
   /** Folder of the built client to serve, when the API also serves the app. */
   clientDist?: string
+  /** The clock the reports read "today" (UTC) and "as of" from; the system clock unless a test fixes the instant. */
+  now?: () => Date
 }

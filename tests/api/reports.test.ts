@@ -28,12 +28,17 @@ import {
 import { createTestDb, type TestDb } from '../support/test-db'
 
 // A small hand-made history. Range reports look at two fixed weeks, Monday 2 March to Sunday
-// 15 March 2026 (UTC); the late list and the benches look at today, so their dates count back from now.
+// 15 March 2026 (UTC). The late list reads "today" from the app's clock, fixed here two seconds
+// before a UTC midnight, so the promised dates count back from that day and no run can straddle a
+// change of day. The benches' ages are durations the database measures from its own now(), so the
+// units' times count back from the real now.
 const RANGE = '?from=2026-03-02&to=2026-03-15'
 const DAY = 86_400_000
+const REPORT_NOW = new Date('2026-09-30T23:59:58Z')
+const REPORT_TODAY = '2026-09-30'
+const daysBefore = (n: number) => new Date(REPORT_NOW.getTime() - n * DAY).toISOString().slice(0, 10)
 const now = Date.now()
 const daysAgo = (n: number) => new Date(now - n * DAY)
-const dayOf = (d: Date) => d.toISOString().slice(0, 10)
 
 let t: TestDb
 let app: ReturnType<typeof buildApp>['app']
@@ -43,7 +48,7 @@ const numbers: Record<string, string> = {}
 
 beforeAll(async () => {
   t = await createTestDb()
-  app = buildApp(t).app
+  app = buildApp(t, { now: () => REPORT_NOW }).app
   planner = (await signedInAs(app, t, 'planner')).agent
   const db = t.db
   const hand = await insertUser(db, { role: 'assembler' })
@@ -53,14 +58,14 @@ beforeAll(async () => {
   const step = (i: number) => revA.steps[i]!.id
 
   // Orders: two shipped, one released, one partly shipped, two open, one cancelled (7 in all).
-  const o1 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-02T00:00:00Z'), shippedAt: new Date('2026-03-08T12:00:00Z'), promisedShipDate: dayOf(daysAgo(3)), quantity: 3 })
+  const o1 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-02T00:00:00Z'), shippedAt: new Date('2026-03-08T12:00:00Z'), promisedShipDate: daysBefore(3), quantity: 3 })
   const o2 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-01T12:00:00Z'), shippedAt: new Date('2026-03-11T12:00:00Z') })
   await insertPaymentEvent(db, o2.order.id, '2026-03-03T12:00:00Z') // came in unpaid; paid two days later
-  const o3 = await insertReportOrder(db, kit.id, { status: 'released', promisedShipDate: dayOf(daysAgo(5)), quantity: 2, customerName: '=HYPERLINK("http://bad.example")' })
-  const o4 = await insertReportOrder(db, kit.id, { status: 'partially_shipped', promisedShipDate: dayOf(daysAgo(1)), quantity: 2 })
-  const o5 = await insertReportOrder(db, kit.id, { status: 'open', promisedShipDate: dayOf(daysAgo(0)) }) // due today: not late yet
+  const o3 = await insertReportOrder(db, kit.id, { status: 'released', promisedShipDate: daysBefore(5), quantity: 2, customerName: '=HYPERLINK("http://bad.example")' })
+  const o4 = await insertReportOrder(db, kit.id, { status: 'partially_shipped', promisedShipDate: daysBefore(1), quantity: 2 })
+  const o5 = await insertReportOrder(db, kit.id, { status: 'open', promisedShipDate: daysBefore(0) }) // due today: not late yet
   await insertReportOrder(db, kit.id, { status: 'open', promisedShipDate: null })
-  const o6 = await insertReportOrder(db, kit.id, { status: 'cancelled', promisedShipDate: dayOf(daysAgo(20)) })
+  const o6 = await insertReportOrder(db, kit.id, { status: 'cancelled', promisedShipDate: daysBefore(20) })
   Object.assign(numbers, { o3: o3.order.number, o4: o4.order.number })
   // Shipped after the range: its lead time must not count.
   const o9 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-10T00:00:00Z'), shippedAt: new Date('2026-03-20T00:00:00Z') })
@@ -174,7 +179,8 @@ describe('reports on a hand-made history', () => {
       [numbers.o3, 5, 2, 0], // promised 5 days ago, 2 units, none shipped
       [numbers.o4, 1, 2, 1], // promised yesterday, 1 of its 2 units shipped
     ])
-    expect(body.today).toBe(dayOf(new Date()))
+    expect(body.today).toBe(REPORT_TODAY)
+    expect(body.asOf).toBe(REPORT_NOW.toISOString())
     const limited = LateOrdersReportSchema.parse((await planner.get('/api/reports/late-orders?limit=1')).body)
     expect(limited.rows).toHaveLength(1)
     expect(limited.total).toBe(2)
@@ -281,7 +287,7 @@ describe('report exports', () => {
     const res = await planner.get('/api/reports/late-orders/export.csv?limit=1')
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toMatch(/^text\/csv/)
-    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?kitwright-late-orders-\d{4}-\d{2}-\d{2}\.csv"?$/)
+    expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?kitwright-late-orders-2026-09-30\.csv"?$/)
     const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
     expect(lines[0]).toBe('Order,Customer,State,Placed (UTC),Promised ship date,Days late,Units,Units shipped,State code')
     expect(lines).toHaveLength(3) // the header and both late orders, whatever the screen's limit

@@ -23,7 +23,7 @@ export const TEST_STORE_SECRET = 'kitwright-test-store-secret-0123456789abcdef'
  * (most files never enqueue anything); `t.drop()` stops it. Workers run only where a test starts
  * them (`startWorkers(built.deps)`).
  */
-export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig; payments?: Deps['payments'] } = {}) {
+export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig; payments?: Deps['payments']; now?: Deps['now'] } = {}) {
   const logger = options.logger ?? createLogger('silent')
   const jobs = createJobs({ pool: t.pool, logger, maintenance: false, retryDelaySeconds: 1, pollingIntervalSeconds: 0.5, stopTimeoutMs: 1000 })
   t.onDrop?.(() => jobs.stop())
@@ -39,6 +39,7 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
     carrier: carrierFromEnv(process.env),
     publicUrl: 'http://localhost:3000',
     payments: options.payments ?? null,
+    now: options.now,
     storage: createStorage(options.storage ?? testStorageConfig()),
   }
   return { ...createApp(deps), deps }

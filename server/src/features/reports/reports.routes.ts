@@ -13,12 +13,12 @@ export function reportsRouter(deps: Deps, routes: RouteTable) {
   for (const report of REPORTS) {
     if (report.json) {
       r.get(`/${report.path}`, office, async (req, res) => {
-        const { result } = await report.answer(deps.db, req.query, reportContext(false))
+        const { result } = await report.answer(deps.db, req.query, reportContext(false, deps.now?.()))
         res.json(result)
       })
     }
     r.get(`/${report.path}/export.csv`, office, async (req, res) => {
-      const ctx = reportContext(true)
+      const ctx = reportContext(true, deps.now?.())
       const [{ table }, unit] = await Promise.all([report.answer(deps.db, req.query, ctx), exportUnit(deps.db)])
       res.type('text/csv; charset=utf-8')
       res.attachment(`kitwright-${report.path}-${ctx.today}.csv`)
