@@ -36,6 +36,8 @@ export const parts = pgTable(
     stickLengths: integer().array().notNull().default(sql`'{}'::integer[]`),
     /** Runs on mains power (a pump, a timer): a box holding one gets the electrical cautions on its care sheet. */
     electrical: boolean().notNull().default(false),
+    /** Received and fitted by the supplier's lot (a pump, sprayers): receiving asks for the lot, the build bench records it, recalls find it. */
+    lotTracked: boolean().notNull().default(false),
     /**
      * Customs: the Harmonized System tariff number (6-digit subheading, up to 10 digits with a
      * country's own extension, digits only), the ISO 3166-1 alpha-2 country of origin, and the plain

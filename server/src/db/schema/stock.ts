@@ -2,6 +2,7 @@ import { sql } from 'drizzle-orm'
 import { check, index, integer, pgEnum, pgSequence, pgTable, text, uuid } from 'drizzle-orm/pg-core'
 import { OFFCUT_STATUSES, STOCK_MOVE_KINDS } from '@kitwright/shared/stock'
 import { createdAt, id } from './columns'
+import { stockLots } from './lots'
 import { parts } from './parts'
 import { users } from './users'
 
@@ -49,6 +50,8 @@ export const stockMoves = pgTable(
     quantity: integer().notNull(),
     stickLength: integer(),
     offcutId: uuid().references(() => offcuts.id),
+    /** The supplier's lot that moved, for a lot-tracked part (stock per lot is the sum of its moves). */
+    lotId: uuid().references(() => stockLots.id),
     /** Work order the move is for (reservations, consumption); the FK arrives with work orders. */
     workOrderId: uuid(),
     /** Why: required for adjustments; the supplier's packing-list number for receipts. */
@@ -61,6 +64,7 @@ export const stockMoves = pgTable(
     index().on(t.partId, t.kind),
     index().on(t.workOrderId),
     index().on(t.createdAt),
+    index().on(t.lotId),
     check('stock_moves_quantity_not_zero', sql`${t.quantity} <> 0`),
     check(
       'stock_moves_sign_by_kind',
