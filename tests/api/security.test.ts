@@ -114,12 +114,14 @@ describe('security headers', () => {
     const scripts = [...html.matchAll(/<script\b([^>]*)>([\s\S]*?)<\/script>/g)]
     expect(scripts.length).toBeGreaterThan(0)
     for (const [, attrs, body] of scripts) {
-      expect(attrs).toMatch(/\ssrc="\/assets\/[^"]+\.js"/)
+      // The built scripts, and the service worker's registration (vite-plugin-pwa, client/vite.config.ts).
+      expect(attrs).toMatch(/\ssrc="\/(assets\/[^"]+|registerSW)\.js"/)
       expect(body!.trim()).toBe('')
     }
     expect(html).not.toMatch(/\son[a-z]+=/i)
     // Links and CSS url()s stay on the app's own origin (fonts are bundled, not fetched from a CDN).
-    for (const [, href] of html.matchAll(/<link\b[^>]*\bhref="([^"]+)"/g)) expect(href).toMatch(/^\/assets\//)
+    // (The app's icons and its manifest sit at the top of the build, on the same origin.)
+    for (const [, href] of html.matchAll(/<link\b[^>]*\bhref="([^"]+)"/g)) expect(href).toMatch(/^\/(assets\/|icon[\w.-]*\.(svg|png)$|manifest\.webmanifest$)/)
     const css = bundleFiles().filter((f) => f.endsWith('.css'))
     expect(css.length).toBeGreaterThan(0)
     const urls = css.flatMap((f) => [...readFileSync(f, 'utf8').matchAll(/url\(\s*["']?([^"')]+)/g)].map((m) => m[1]!))

@@ -49,7 +49,9 @@ export function clientFiles(dist: string) {
   })
   // Other files at the top of the build (icons and the like) have no hash in their names.
   router.use(express.static(dist, { index: false, maxAge: '1h', setHeaders: (res, file) => {
-    if (file.endsWith('index.html')) noCache(res)
+    // The service worker and what it is built from name no hash: checked on every load, so a new
+    // build's worker (and with it the new app) reaches every tablet.
+    if (/(index\.html|sw\.js|registerSW\.js|manifest\.webmanifest)$/.test(file)) noCache(res)
   } }))
   // Client-side routes: every other GET gets the app's page; React Router takes it from there.
   router.get(/.*/, (_req, res) => {
