@@ -26,6 +26,7 @@ import { releaseRouter, shortagesRouter } from './features/work-orders/work-orde
 import { reportsRouter } from './features/reports/reports.routes'
 import { tabletsRouter } from './features/tablets/tablets.routes'
 import { authenticate } from './lib/auth'
+import { benchActions } from './lib/client-actions'
 import { clientFiles, compressAnswers } from './lib/client-files'
 import { errorHandler } from './lib/error-handler'
 import { NotFound } from './lib/http-errors'
@@ -58,6 +59,8 @@ export function createApp(deps: Deps) {
   app.use(express.json({ limit: '1mb', verify: keepRawBody }))
   app.use(cookieParser())
   app.use('/api', authenticate(deps.db, deps.tokens))
+  // A bench action sent with the tablet's id for it is applied once (lib/client-actions.ts).
+  app.use('/api', benchActions(deps.db))
 
   // One line per feature router; each route inside declares who may call it.
   const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter]

@@ -2,6 +2,7 @@ import type { Request } from 'express'
 import { BENCHES, type Bench } from '@kitwright/shared/audit'
 import type { Db, Tx } from '../db/client'
 import { auditEvents } from '../db/schema/index'
+import { benchActionOf } from './client-actions'
 
 /** Who made a change and from where, read once from the request. */
 export interface AuditContext {
@@ -9,6 +10,9 @@ export interface AuditContext {
   actorEmail: string | null
   bench: Bench | null
   address: string | null
+  /** For an action sent from a bench's queue: when it was taken on the bench (`at` is when it reached the server). */
+  takenAt?: Date | null
+  clientActionId?: string | null
 }
 
 export function auditContext(req: Request, actor?: { id: string; email: string } | null): AuditContext {
@@ -19,6 +23,8 @@ export function auditContext(req: Request, actor?: { id: string; email: string }
     actorEmail: who?.email ?? null,
     bench: (BENCHES as readonly string[]).includes(header ?? '') ? (header as Bench) : null,
     address: req.ip ?? null,
+    takenAt: benchActionOf(req)?.takenAt ?? null,
+    clientActionId: benchActionOf(req)?.id ?? null,
   }
 }
 

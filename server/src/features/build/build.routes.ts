@@ -19,6 +19,8 @@ import { buildWorklist } from './build-worklist'
 import { listMeasurementFlags } from './measurement-flags'
 import { confirmPhoto, presignPhoto } from './photos.service'
 import { getUnitRecord } from './unit-record.service'
+import { benchActionOf } from '../../lib/client-actions'
+import { pageIfTickedAlike } from './tick-replay'
 
 const BENCH = ['admin', 'planner', 'assembler'] as const
 
@@ -41,7 +43,16 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:workOrderId/steps/:stepId/tick', BENCH, async (req, res) => {
     const { workOrderId, stepId } = StepParamsSchema.parse(req.params)
-    const { page, outOfLimits } = await tickStep(deps.db, deps.storage, workOrderId, stepId, TickStepSchema.parse(req.body ?? {}), currentUser(req))
+    const input = TickStepSchema.parse(req.body ?? {})
+    // From a bench's queue, a step someone else ticked alike meanwhile is recorded once, not refused.
+    const alike = benchActionOf(req) ? await pageIfTickedAlike(deps.db, deps.storage, workOrderId, stepId, input) : null
+    if (alike) {
+      const step = alike.steps.find((s) => s.id === stepId)
+      await audit(req, 'build.tick_again', workOrderId, `Step ${step?.position ?? ''} of ${alike.workOrder.serial} was ticked already by ${step?.tick?.by.name ?? 'someone'}; this tick changed nothing`)
+      res.json(alike)
+      return
+    }
+    const { page, outOfLimits } = await tickStep(deps.db, deps.storage, workOrderId, stepId, input, currentUser(req))
     const step = page.steps.find((s) => s.id === stepId)
     const flagged = outOfLimits && step?.tick ? ` (out of limits: ${step.tick.measurement} ${step.measurementUnit ?? ''}, ${step.tick.outOfLimitsReason ?? ''})` : ''
     await audit(req, 'build.tick', workOrderId, `Ticked step ${step?.position ?? ''} of ${page.workOrder.serial}${flagged}`)

@@ -70,10 +70,15 @@ async function settleRun(tx: Tx, run: CutRunRow) {
  * changes nothing, so two cutters tapping the same piece record it once.
  */
 export async function tickCut(db: Db, runId: string, cutId: string, actor: Actor): Promise<CutRunDetail> {
-  await db.transaction(async (tx) => {
+  return (await tickCutOnce(db, runId, cutId, actor)).run
+}
+
+/** As `tickCut`, saying whether the piece was cut already (another cutter, or the same tap sent twice). */
+export async function tickCutOnce(db: Db, runId: string, cutId: string, actor: Actor): Promise<{ run: CutRunDetail; alreadyCut: boolean }> {
+  const alreadyCut = await db.transaction(async (tx) => {
     const run = await publishedRun(tx, runId)
     const { cut, stick } = await lockCut(tx, runId, cutId)
-    if (cut.status === 'cut') return
+    if (cut.status === 'cut') return true
     if (cut.status === 'replanned') throw new Conflict('This piece was moved to another stick by a re-plan; cut it there')
     if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} was marked damaged; its pieces are on other sticks now`)
     await startStick(tx, run, stick, actor)
@@ -95,8 +100,9 @@ export async function tickCut(db: Db, runId: string, cutId: string, actor: Actor
     }
     await settleWorkOrder(tx, cut.workOrderId)
     await settleRun(tx, run)
+    return false
   })
-  return getCutRun(db, runId)
+  return { run: await getCutRun(db, runId), alreadyCut }
 }
 
 /** Takes back a tick made by mistake (the stick stays taken from the rack: it is on the saw). */

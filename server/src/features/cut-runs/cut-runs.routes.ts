@@ -17,7 +17,7 @@ import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
 import { getShopSettings } from '../settings/settings.service'
-import { assignRunBin, damageStick, tickCut, undoCut } from './cut-bench.service'
+import { assignRunBin, damageStick, tickCutOnce, undoCut } from './cut-bench.service'
 import { cancelCutRun, getCutRun, listCandidates, listCutRuns, planCutRun, publishCutRun, replanCutRun } from './cut-runs.service'
 import { cutSheetPdf } from '../labels/cut-sheet.pdf'
 import { sendPdfInline } from '../labels/pdf-document'
@@ -93,8 +93,10 @@ export function cutRunsRouter(deps: Deps, routes: RouteTable) {
   })
   r.post('/:id/cuts/:cutId/tick', bench, async (req, res) => {
     const { id, cutId } = RunCutParamsSchema.parse(req.params)
-    const run = await tickCut(deps.db, id, cutId, currentUser(req))
-    await audit(req, 'cut.tick', id, `Ticked cut ${cutId}`)
+    const { run, alreadyCut } = await tickCutOnce(deps.db, id, cutId, currentUser(req))
+    // Two tablets tapping the same piece (one of them offline) record it once.
+    if (alreadyCut) await audit(req, 'cut.tick_again', id, `Cut ${cutId} was ticked already; this tick changed nothing`)
+    else await audit(req, 'cut.tick', id, `Ticked cut ${cutId}`)
     res.json(run)
   })
   r.post('/:id/cuts/:cutId/undo', bench, async (req, res) => {
