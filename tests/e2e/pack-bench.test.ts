@@ -65,11 +65,17 @@ describe('the pack bench in Chromium', () => {
     expect(await page.getByRole('alert').count()).toBe(0) // the problem is cleared once an action goes through
     await list.getByRole('listitem', { name: `Pack ${pack!.wo.serial}` }).getByRole('button', { name: 'In the box' }).click()
     await list.getByRole('listitem', { name: `Pack ${pack!.wo.serial}` }).getByText(/^Ticked by/).waitFor()
-    // Every bench button is a big target (48 px or more).
+    // Every bench button is a big target (48 px or more), Sign out included.
+    const measured: string[] = []
     for (const button of await page.getByRole('button').all()) {
+      if (!(await button.isVisible())) continue
       const box = await button.boundingBox()
-      if (box && (await button.isVisible()) && (await button.textContent())?.trim() !== 'Sign out') expect(box.height).toBeGreaterThanOrEqual(48)
+      const name = (await button.textContent())?.trim() ?? ''
+      expect(box, name).not.toBeNull()
+      expect(box!.height, `${name}: ${box!.height} px tall`).toBeGreaterThanOrEqual(48)
+      measured.push(name)
     }
+    expect(measured).toEqual(expect.arrayContaining(['Sign out', 'Undo', 'Get prices']))
     await page.screenshot({ path: path.join(shots, 'pack-bench-confirmed.png'), fullPage: true })
 
     // Print the packing slip, Letter and A4.

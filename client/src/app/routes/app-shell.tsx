@@ -61,8 +61,10 @@ export function AppShell() {
               <span className="block font-bold">{me.name}</span>
               <span className="block text-sm text-brand-100">{ROLE_LABELS[me.role]}</span>
             </span>
+            {/* At least 48 px tall like every other bench target (gloved hands sign out too). */}
             <Button
               variant="secondary"
+              className="min-h-12"
               onClick={() => signOut.mutate(undefined, { onSuccess: () => void navigate(paths.signIn.href()) })}
             >
               Sign out
