@@ -98,7 +98,40 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
   const blocker = releaseBlocker(order)
   if (blocker) throw blocker
 
-  // A line that mapped to no kit when it came in may map now, if the planner has since set the store product on a kit.
+  const lines = await mapLinesToKits(tx, order, actor)
+  const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(lines.map((l) => l.kitId!))])).map((r) => [r.kitId, r]))
+  for (const line of lines) if (!revisions.has(line.kitId!)) throw noReleasedRevision(order, line)
+  const revisionIds = [...new Set([...revisions.values()].map((r) => r.id))]
+  const bom = await selectBomLines(tx, revisionIds)
+  const withCuts = await selectRevisionsWithCutParts(tx, revisionIds)
+
+  // What the whole order needs, against what is free once the parts are locked.
+  const needed = orderNeeds(lines, revisions, bom)
+  const free = await freeStock(tx, [...needed.keys()], { lock: true })
+  if (!options.allowShort) refuseIfShort(order, needed, free)
+
+  const { units, serials, created } = await createWorkOrders(tx, order, lines, revisions, withCuts)
+  const reservedByPart = await reserveUnitBoms(tx, order, created, bom, needed, free, actor)
+  await markReleased(tx, order.id)
+  const shortages: ReleaseShortage[] = [...needed.entries()]
+    .map(([partId, n]) => ({ partId, sku: n.sku, name: n.name, needed: n.quantity, reserved: reservedByPart.get(partId) ?? 0, short: n.quantity - (reservedByPart.get(partId) ?? 0) }))
+    .filter((s) => s.short > 0)
+  await recordRelease(tx, order, units, created, shortages, options, actor)
+  const bySerial = new Map(units.map((u, i) => [formatSerial(serials[i]!), u.rev]))
+  return {
+    orderId: order.id,
+    number: order.number,
+    workOrders: created.map((w) => ({ id: w.id, serial: w.serial, status: w.status, kitSku: bySerial.get(w.serial)!.kitSku, revisionCode: bySerial.get(w.serial)!.code })),
+    shortages,
+  }
+}
+
+/**
+ * The order's lines, each mapped to a kit: a line that mapped to no kit when it came in may map now,
+ * if the planner has since set the store product on a kit (noted on the timeline); one that still
+ * maps to none refuses the release.
+ */
+async function mapLinesToKits(tx: Tx, order: OrderRow, actor: Actor | null): Promise<LineRow[]> {
   const lines = await selectLines(tx, order.id)
   const unmapped = lines.filter((l) => l.kitId === null)
   const byProduct = new Map((await selectKitsByStoreProduct(tx, unmapped.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k]))
@@ -109,24 +142,22 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
     Object.assign(line, { kitId: kit.id, sku: kit.sku, description: kit.name })
     await addOrderEvent(tx, { orderId: order.id, kind: 'note', message: `Line ${line.lineNo} now maps to kit ${kit.sku} (${kit.name})`, actor })
   }
+  return lines
+}
 
-  const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(lines.map((l) => l.kitId!))])).map((r) => [r.kitId, r]))
-  for (const line of lines) if (!revisions.has(line.kitId!)) throw noReleasedRevision(order, line)
-  const revisionIds = [...new Set([...revisions.values()].map((r) => r.id))]
-  const bom = await selectBomLines(tx, revisionIds)
-  const withCuts = await selectRevisionsWithCutParts(tx, revisionIds)
+type Needs = ReturnType<typeof orderNeeds>
 
-  // What the whole order needs, against what is free once the parts are locked.
-  const needed = orderNeeds(lines, revisions, bom)
-  const free = await freeStock(tx, [...needed.keys()], { lock: true })
+/** Refuses the release (409, naming each short part) when free stock does not cover what the order needs. */
+function refuseIfShort(order: OrderRow, needed: Needs, free: ReadonlyMap<string, number>) {
   const short = [...needed.entries()].filter(([partId, n]) => n.quantity > Math.max(0, free.get(partId) ?? 0))
-  if (short.length > 0 && !options.allowShort) {
-    const words = short.map(([partId, n]) => `${n.sku} ${n.name}: needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`)
-    const fields = Object.fromEntries(short.map(([partId, n]) => [shortageFieldKey(n.sku), `Needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`]))
-    throw new Conflict(`Not enough stock to release order ${order.number}: ${words.join('; ')}. Receive stock, or release anyway with the shortage recorded.`, fields)
-  }
+  if (short.length === 0) return
+  const words = short.map(([partId, n]) => `${n.sku} ${n.name}: needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`)
+  const fields = Object.fromEntries(short.map(([partId, n]) => [shortageFieldKey(n.sku), `Needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`]))
+  throw new Conflict(`Not enough stock to release order ${order.number}: ${words.join('; ')}. Receive stock, or release anyway with the shortage recorded.`, fields)
+}
 
-  // One work order per unit, serials in line order.
+/** One work order per unit, serials in line order; a revision with no cut parts goes straight to packing. */
+async function createWorkOrders(tx: Tx, order: OrderRow, lines: LineRow[], revisions: ReadonlyMap<string, Revision>, withCuts: ReadonlySet<string>) {
   const units = lines.flatMap((line) => Array.from({ length: line.quantity }, () => ({ line, rev: revisions.get(line.kitId!)! })))
   const serials = (await nextSerials(tx, units.length)).sort((a, b) => a - b)
   const created = await insertWorkOrders(
@@ -140,8 +171,13 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
       dueDate: order.promisedShipDate,
     })),
   )
+  return { units, serials, created }
+}
 
-  // Reserve each unit's BOM for its work order; with allowShort, what is free goes to the lowest serials first.
+type CreatedWorkOrder = Awaited<ReturnType<typeof insertWorkOrders>>[number]
+
+/** Reserves each unit's BOM for its work order; what is free goes to the lowest serials first. Returns what each part got. */
+async function reserveUnitBoms(tx: Tx, order: OrderRow, created: CreatedWorkOrder[], bom: readonly BomRow[], needed: Needs, free: ReadonlyMap<string, number>, actor: Actor | null) {
   const remaining = new Map([...needed.keys()].map((partId) => [partId, Math.max(0, free.get(partId) ?? 0)]))
   const reservedByPart = new Map<string, number>()
   for (const wo of created) {
@@ -156,11 +192,19 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
       .filter((l) => l.quantity > 0)
     if (lines.length > 0) await reserveStock(tx, { workOrderId: wo.id, lines, reason: `Order ${order.number}, unit ${wo.serial}` }, actor)
   }
+  return reservedByPart
+}
 
-  await markReleased(tx, order.id)
-  const shortages: ReleaseShortage[] = [...needed.entries()]
-    .map(([partId, n]) => ({ partId, sku: n.sku, name: n.name, needed: n.quantity, reserved: reservedByPart.get(partId) ?? 0, short: n.quantity - (reservedByPart.get(partId) ?? 0) }))
-    .filter((s) => s.short > 0)
+/** The timeline's record of the release, and of the parts still short when released anyway. */
+async function recordRelease(
+  tx: Tx,
+  order: OrderRow,
+  units: { rev: Revision }[],
+  created: CreatedWorkOrder[],
+  shortages: ReleaseShortage[],
+  options: { automatic?: boolean },
+  actor: Actor | null,
+) {
   const codes = [...new Set(units.map((u) => `${u.rev.kitSku} rev ${u.rev.code}`))].join(', ')
   const range = created.length === 1 ? created[0]!.serial : `${created[0]!.serial} to ${created.at(-1)!.serial}`
   const packs = created.filter((w) => w.status === 'built').length
@@ -181,13 +225,6 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
       data: { shortages },
       actor,
     })
-  }
-  const bySerial = new Map(units.map((u, i) => [formatSerial(serials[i]!), u.rev]))
-  return {
-    orderId: order.id,
-    number: order.number,
-    workOrders: created.map((w) => ({ id: w.id, serial: w.serial, status: w.status, kitSku: bySerial.get(w.serial)!.kitSku, revisionCode: bySerial.get(w.serial)!.code })),
-    shortages,
   }
 }
 
