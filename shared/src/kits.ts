@@ -135,7 +135,7 @@ const KitPriceSchema = z
   .max(100_000_000, 'That price is too large; check it')
   .nullable()
 
-/** Create a kit; it starts with an empty draft revision A. */
+/** Create a kit; it starts with draft revision A, holding only the default build steps and their cautions (safety-cautions.ts). */
 export const CreateKitSchema = z
   .object({
     sku: z.string().trim().min(1, 'Enter a SKU').max(40).regex(/^[A-Za-z0-9._-]+$/, 'Use letters, digits, dot, dash or underscore'),
@@ -247,7 +247,7 @@ export const RevisionDetailSchema = z.object({
 /** A revision with everything it holds. */
 export type RevisionDetail = z.infer<typeof RevisionDetailSchema>
 
-/** Start a new draft revision, copied from an existing one of the same kit (or empty). */
+/** Start a new draft revision, copied from an existing one of the same kit (or new, holding only the default build steps and their cautions). */
 export const NewRevisionSchema = z.object({ copyFrom: z.string().uuid().nullish() }).strict()
 
 /** Pressure units the leak test accepts. 1 psi = 6894.757 Pa (NIST SP 811, Appendix B.8). */

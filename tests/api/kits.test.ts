@@ -159,8 +159,46 @@ describe('revisions', () => {
     const created = KitSchema.parse((await planner.post('/api/kits').send({ sku: 'MW-TEST-1', name: 'Test kit' })).body)
     const res = await planner.post(`/api/revisions/${created.revisions[0]!.id}/release`).send({})
     expect(res.status).toBe(400)
-    expect(res.body.error.message).toMatch(/bill of materials.*build steps/)
-    expect((await revision(created.revisions[0]!.id)).status).toBe('draft')
+    // A new kit's revision A already holds the default steps: only the bill of materials is missing.
+    expect(res.body.error.message).toBe('This revision cannot be released yet: Add the bill of materials and the cut parts')
+    const draft = await revision(created.revisions[0]!.id)
+    expect(draft.status).toBe('draft')
+    // With the steps removed, the message names them too.
+    expect((await planner.put(`/api/revisions/${draft.id}`).send({ ...contentOf(draft), buildSteps: [] })).status).toBe(200)
+    const again = await planner.post(`/api/revisions/${draft.id}/release`).send({})
+    expect(again.body.error.message).toMatch(/bill of materials.*build steps/)
+  })
+
+  // The usual cautions for the work (common practice): solvent cement fumes, cutting, drilling, mains
+  // power near water, and the leak test with water only — never compressed air or gas, the warning
+  // PVC pipe and fitting makers print (and the scope of ASTM D2466, 1.2, for its fittings).
+  it('starts every new kit, and every new revision not copied from another, with the default steps and their cautions', async () => {
+    const created = KitSchema.parse((await planner.post('/api/kits').send({ sku: 'MW-TEST-CAUTIONS', name: 'Caution kit' })).body)
+    const a = await revision(created.revisions[0]!.id)
+    const cautions = a.buildSteps.map((s) => s.caution ?? '')
+    expect(a.buildSteps.map((s) => s.position)).toEqual([1, 2, 3, 4, 5])
+    expect(cautions.find((c) => /solvent cement/.test(c))).toMatch(/well-ventilated area, with no flames.*gloves and eye protection as the cement maker’s label directs/)
+    expect(cautions.find((c) => /^Cutting/.test(c))).toMatch(/eye protection.*Clamp the work/)
+    expect(cautions.find((c) => /^Drilling/.test(c))).toMatch(/eye protection and clamp/)
+    expect(cautions.find((c) => /^Mains power near water/.test(c))).toMatch(/GFCI\/RCD.*drip loop.*Local electrical codes and a licensed electrician come first/)
+    expect(cautions.find((c) => /leak|pressure/i.test(c) && /water only/.test(c))).toMatch(/^Test with water only — never compressed air or gas/)
+    expect(a.buildSteps.at(-1)!.text).toMatch(/^Fill the tote with clean water and fit the test gauge, ready for the leak test/)
+
+    // They are the kit's own steps: the planner may reword one and keep the rest.
+    const content = contentOf(a)
+    content.buildSteps[0] = { ...content.buildSteps[0]!, caution: 'Eye protection and a clamped pipe at the saw.' }
+    expect((await planner.put(`/api/revisions/${a.id}`).send(content)).status).toBe(200)
+    expect((await revision(a.id)).buildSteps[0]!.caution).toBe('Eye protection and a clamped pipe at the saw.')
+
+    // Revision B started empty gets the defaults again; one copied from A keeps A's (edited) steps.
+    await t.db.update(kitRevisions).set({ status: 'released', releasedAt: new Date() }).where(eq(kitRevisions.id, a.id))
+    const fresh = await planner.post(`/api/kits/${created.id}/revisions`).send({})
+    expect(fresh.status).toBe(201)
+    const b = RevisionDetailSchema.parse(fresh.body)
+    expect(b.buildSteps.map((s) => s.caution)).toEqual(cautions)
+    await t.db.update(kitRevisions).set({ status: 'released', releasedAt: new Date() }).where(eq(kitRevisions.id, b.id))
+    const copied = RevisionDetailSchema.parse((await planner.post(`/api/kits/${created.id}/revisions`).send({ copyFrom: a.id })).body)
+    expect(copied.buildSteps[0]!.caution).toBe('Eye protection and a clamped pipe at the saw.')
   })
 
   it('lets a cutter read kits and revisions but not change them', async () => {

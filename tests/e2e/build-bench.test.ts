@@ -98,6 +98,8 @@ describe('the build bench, in Chromium', () => {
     const cautions = page.getByRole('group', { name: 'Water, mains power and pressure cautions' })
     expect(await cautions.textContent()).toMatch(/ground-fault protected outlet.*dry.*drip loop.*Unplug the pump before you reach into the water/s)
     expect(await cautions.textContent()).toContain('Local electrical codes and licensed practice come first')
+    // Pressure tests with water only, never compressed air or gas (common practice; PVC makers print this warning).
+    expect(await cautions.textContent()).toContain('Test with water only — never compressed air or gas')
     const form = page.getByRole('form', { name: 'Leak test' })
     await form.getByLabel('Start pressure (psi)').fill('15')
     await form.getByLabel('Pressure after the hold (psi)').fill('14.8')

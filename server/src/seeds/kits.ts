@@ -10,6 +10,7 @@ import {
   type FrameInputs,
 } from '@kitwright/shared/domain/frame'
 import type { EnclosureShape } from '@kitwright/shared/domain/reservoir'
+import { DRILLING_CAUTION, MAINS_NEAR_WATER_CAUTION, SOLVENT_CEMENT_CAUTION } from '@kitwright/shared/domain/safety-cautions'
 import { inches } from '@kitwright/shared/domain/units'
 import { PASCALS_PER_PSI, type RevisionContent } from '@kitwright/shared/kits'
 import { createKit, newRevision, releaseRevision, saveRevision, tables, type Db, type SessionUser } from './services'
@@ -31,9 +32,9 @@ const step = (text: string, extra: Partial<Step> = {}): Step => ({
   ...extra,
 })
 
-const EYES = 'Wear eye protection. Clamp the manifold; never hold it by hand near the bit.'
-const MAINS =
-  'The pump runs on mains power next to water: ground-fault protected (GFCI/RCD) outlet only, dry hands, a drip loop in the cord, and unplug before reaching into the water. Local electrical codes and licensed practice come first.'
+// The shop-wide caution words (shared/src/domain/safety-cautions.ts), so the demo kits say what every new kit's default steps say.
+const EYES = DRILLING_CAUTION
+const MAINS = MAINS_NEAR_WATER_CAUTION
 
 /** Build steps of a manifold kit; `insideWidth` is the tote's inside width at the manifold height. */
 function manifoldSteps(insideWidth: number): Step[] {
@@ -52,7 +53,7 @@ function manifoldSteps(insideWidth: number): Step[] {
     step('Drill the sprayer holes at the marked positions, 11/32 in bit.', { caution: EYES }),
     step('Tap each hole 1/8 in NPT, then flush the swarf out of the pipe.', { caution: `${EYES} Swarf left in the pipe blocks the sprayers.` }),
     step('Prime and cement every joint; let it cure as the cement maker directs.', {
-      caution: 'Primer and cement: good ventilation, gloves, no flames nearby.',
+      caution: SOLVENT_CEMENT_CAUTION,
     }),
     step('Thread in the sprayers, hand tight plus a quarter turn.'),
     step('Drill the drain hole low on the short side, fit the grommet and the drain fitting.', { caution: EYES }),

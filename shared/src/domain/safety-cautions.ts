@@ -65,6 +65,6 @@ export function defaultBuildSteps(): BuildStep[] {
     plainStep('Drill (and tap) the sprayer holes at the marked positions, then flush the swarf out of the pipe.', DRILLING_CAUTION),
     plainStep('Prime and cement every joint; let it cure as the cement maker directs.', SOLVENT_CEMENT_CAUTION),
     plainStep('Fit the pump and route its cord out of the tote with a drip loop.', MAINS_NEAR_WATER_CAUTION),
-    plainStep('Leak test the manifold with water to the revision’s protocol.', WATER_ONLY_PRESSURE_TEST_CAUTION),
+    plainStep('Fill the tote with clean water and fit the test gauge, ready for the leak test (the revision’s protocol).', WATER_ONLY_PRESSURE_TEST_CAUTION),
   ]
 }

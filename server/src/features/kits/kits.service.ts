@@ -1,4 +1,5 @@
 import { eq } from 'drizzle-orm'
+import { defaultBuildSteps } from '@kitwright/shared/domain/safety-cautions'
 import type { CreateKit, Kit, RevisionContent, RevisionDetail } from '@kitwright/shared/kits'
 import type { Db, Tx } from '../../db/client'
 import { bomLines, buildSteps, cutParts, kitRevisions, kits, type KitRevisionRow } from '../../db/schema/index'
@@ -30,7 +31,8 @@ export async function createKit(db: Db, input: CreateKit): Promise<Kit> {
       if (mapped) throw new Conflict(`Store product ${input.storeProductId} already maps to kit ${mapped.sku}`, { storeProductId: 'Already mapped' })
     }
     const [kit] = await tx.insert(kits).values(input).returning()
-    await tx.insert(kitRevisions).values({ kitId: kit!.id, code: 'A' })
+    const [revision] = await tx.insert(kitRevisions).values({ kitId: kit!.id, code: 'A' }).returning({ id: kitRevisions.id })
+    await insertDefaultSteps(tx, revision!.id)
     return kit!.id
   })
   return getKit(db, id)
@@ -107,6 +109,16 @@ async function writeContent(tx: Tx, revisionId: string, content: RevisionContent
   }
 }
 
+/**
+ * A new, empty revision starts with the usual build steps and their cautions (cutting, drilling,
+ * solvent cement, mains power near water, leak test with water only), so no shop's kit goes without
+ * them; the planner edits or removes them like any other step. A revision copied from another keeps
+ * the steps it was copied from.
+ */
+async function insertDefaultSteps(tx: Tx, revisionId: string) {
+  await tx.insert(buildSteps).values(defaultBuildSteps().map((s, i) => ({ ...s, revisionId, position: i + 1, measurementMin: null, measurementMax: null })))
+}
+
 function assertDraft(row: KitRevisionRow | undefined): asserts row is KitRevisionRow {
   if (!row) throw new NotFound('No such kit revision')
   if (row.status !== 'draft') {
@@ -143,7 +155,7 @@ export async function retireRevision(db: Db, id: string): Promise<RevisionDetail
   return getRevision(db, id)
 }
 
-/** Starts the kit's next revision as a draft, copied from `copyFrom` (a revision of the same kit) or empty. */
+/** Starts the kit's next revision as a draft, copied from `copyFrom` (a revision of the same kit) or new with the default steps. */
 export async function newRevision(db: Db, kitId: string, copyFrom: string | null | undefined): Promise<RevisionDetail> {
   const id = await db.transaction(async (tx) => {
     const [kit] = await tx.select().from(kits).where(eq(kits.id, kitId)).for('update')
@@ -159,6 +171,7 @@ export async function newRevision(db: Db, kitId: string, copyFrom: string | null
     }
     const [row] = await tx.insert(kitRevisions).values({ kitId, code: nextRevisionCode(existing.map((r) => r.code)) }).returning()
     if (content) await writeContent(tx, row!.id, content)
+    else await insertDefaultSteps(tx, row!.id)
     return row!.id
   })
   return getRevision(db, id)

@@ -1,3 +1,4 @@
+import { WATER_ONLY_PRESSURE_TEST_CAUTION } from '@kitwright/shared/domain/safety-cautions'
 import { Caution } from '../../../components/ui/section'
 
 /** The cautions for running a mains-powered pump in water and holding the manifold under pressure. */
@@ -9,8 +10,7 @@ export function WaterPowerCautions() {
         you touch the plug. Leave a drip loop in the pump cord so water runs off below the outlet. Unplug the pump before you reach into the water.
       </Caution>
       <Caution>
-        <strong>Pressure.</strong> Stay within the protocol&apos;s test pressure and wear eye protection while the manifold is under pressure; let the
-        pressure off before you loosen any fitting.
+        <strong>Pressure.</strong> {WATER_ONLY_PRESSURE_TEST_CAUTION}
       </Caution>
       <p className="text-base text-stone-700">Local electrical codes and licensed practice come first; where they ask for more, do what they ask.</p>
     </div>

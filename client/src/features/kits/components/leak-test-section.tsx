@@ -1,4 +1,5 @@
 import { useFormContext, useWatch } from 'react-hook-form'
+import { WATER_ONLY_PRESSURE_TEST_CAUTION } from '@kitwright/shared/domain/safety-cautions'
 import { Button } from '../../../components/ui/button'
 import { Field, Input, Select } from '../../../components/ui/field'
 import { Caution, Section } from '../../../components/ui/section'
@@ -53,6 +54,7 @@ export function LeakTestSection({ readOnly }: { readOnly: boolean }) {
         and unplug before reaching into the water. Never pressurise above the fittings' rating. Local codes and licensed practice
         come first.
       </Caution>
+      <Caution>{WATER_ONLY_PRESSURE_TEST_CAUTION}</Caution>
     </Section>
   )
 }
