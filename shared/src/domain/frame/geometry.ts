@@ -23,6 +23,8 @@
  *   shoulder the pipe end stops against.
  * - **centre-to-socket-bottom** (e, the fitting's "take-off" for cutting): from the fitting's centre to
  *   that shoulder. The fitting's centre-to-face is e + s.
+ *   (The fitting tables of ASTM D2749 / D2466 letter these C for the socket depth s and G for e; the
+ *   letters here are the calculator's own, see fittings.ts.)
  *
  * A pipe between fittings a and b is cut to **C − e(a) − e(b)**: the pipe reaches from one socket
  * bottom to the other. Said the other way round, it is the pipe you can see between the two socket
