@@ -4,6 +4,7 @@ import helmet from 'helmet'
 import type { Deps } from './deps'
 import { auditRouter } from './features/audit/audit.routes'
 import { authRouter } from './features/auth/auth.routes'
+import { bagsRouter, unitWeightsRouter } from './features/bag-weights/bag-weights.routes'
 import { binsRouter } from './features/bins/bins.routes'
 import { cutRunsRouter } from './features/cut-runs/cut-runs.routes'
 import { healthRouter } from './features/health/health.routes'
@@ -63,7 +64,7 @@ export function createApp(deps: Deps) {
   app.use('/api', benchActions(deps.db))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter, unitWeightsRouter, bagsRouter]
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -11,11 +11,11 @@ import { ROLES, type Role } from '@kitwright/shared/roles'
  * - admin (the owner): everything a planner does, plus users, shop settings, the audit trail and
  *   connecting tablets.
  * - planner (the office): catalog, orders, release, shortages, cut-run planning, purchasing,
- *   outbox, reports; covers any bench when someone is out.
+ *   outbox, reports, small parts' unit weights (weighing counted samples); covers any bench when someone is out.
  * - cutter: the cut bench (published runs, ticks, damaged sticks, offcut labels, dropping pieces
  *   into bins and printing bin labels); reads the catalog, stock and settings.
  * - assembler: the build bench (steps, photos, leak test) and a unit's build record; reads as above.
- * - packer: the pack bench (verify, quote, label, ship, void its own label, papers, customs) and a
+ * - packer: the pack bench (verify, weigh hardware bags, quote, label, ship, void its own label, papers, customs) and a
  *   unit's build record; shipping an order short is the office's call, not the packer's.
  *
  * Every route Express has needs a line here; a new route without one fails tests/api/access.test.ts
@@ -158,6 +158,13 @@ post   /api/shipments/tracking-events                          y          y     
 get    /api/shipments/:shipmentId/label.pdf                    -          y     y       -      -         y
 get    /api/shipments/:shipmentId/customs                      -          y     y       -      -         y
 get    /api/shipments/:shipmentId/customs-declaration.pdf      -          y     y       -      -         y
+
+get    /api/unit-weights                                       -          y     y       -      -         y
+get    /api/unit-weights/:partId                               -          y     y       -      -         -
+post   /api/unit-weights/:partId                               -          y     y       -      -         -
+get    /api/bags/orders/:orderId                               -          y     y       -      -         y
+post   /api/bags/orders/:orderId/weigh                         -          y     y       -      -         y
+get    /api/bags/orders/:orderId/label.pdf                     -          y     y       -      -         y
 
 get    /api/reports/order-states                               -          y     y       -      -         -
 get    /api/reports/order-states/export.csv                    -          y     y       -      -         -

@@ -12,6 +12,7 @@ import type { Carrier, ShipmentRequest } from '../shipping/carrier'
 import { weighParcel } from './parcel-weights'
 import { buildPackView, divisorOf, loadPackData, packKey, unitKey, type PackData } from './pack-view'
 import { findBinByCode, findOrder, findWorkOrder, findWorkOrderBySerial, lockOrderRow, lockShipment, openShipmentOf } from './pack.queries'
+import { latestWeighingOf } from '../bag-weights/bag-weights.queries'
 import { ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
@@ -96,6 +97,9 @@ export async function tickItem(deps: PackDeps, orderId: string, itemKey: string,
     if (!item) throw new NotFound(`No item "${itemKey}" on order ${data.order.number}'s packing list`)
     if (!item.tickable) throw new BadRequest(`Scan unit ${item.serial}'s bin or serial to confirm it; a unit cannot be ticked by hand`)
     if (item.problem) throw new Conflict(item.problem)
+    // A bag the scale refused stays out of the box until it is put right and weighed again.
+    const weighed = await latestWeighingOf(tx, item.workOrderId, item.key)
+    if (weighed && !weighed.accepted) throw new Conflict(`${item.kind === 'pack' ? 'Pack' : 'Bag'} ${item.serial}: ${weighed.words}. Put right what is named and weigh it again before it goes in the box`)
     const shipment = await openShipment(tx, data, actor)
     await confirm(tx, shipment, item, 'tick', null, actor)
   })
