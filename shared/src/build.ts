@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { LEAK_PLACES, PRESSURE_UNITS } from './domain/leak-test'
 import { LeakTestProtocolSchema } from './kits'
+import { UnitLotNeedSchema } from './lots'
 import { WorkOrderStatusSchema } from './orders'
 
 const uuid = z.string().uuid('Not a valid id')
@@ -191,6 +192,8 @@ export const BuildReadinessSchema = z.object({
   leakTest: z.enum(['not_required', 'none', 'passed', 'failed']),
   /** Rework entries not yet resolved (a failed leak test, an out-of-limits measurement). */
   openRework: z.number().int(),
+  /** Lot-tracked parts still without their lot recorded (counted in parts, not pieces). */
+  lotsMissing: z.number().int(),
   ready: z.boolean(),
 })
 /** What still stands between the unit and the pack bench. */
@@ -206,6 +209,8 @@ export const BuildPageSchema = z.object({
   photos: z.array(UnitPhotoSchema),
   leakTests: z.array(LeakTestSchema),
   rework: z.array(ReworkEntrySchema),
+  /** Lot-tracked parts of the unit's bill of materials: the bench asks for the lot of each. */
+  lots: z.array(UnitLotNeedSchema),
   readiness: BuildReadinessSchema,
 })
 /** Everything the build bench shows for one unit. */

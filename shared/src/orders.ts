@@ -53,6 +53,7 @@ export const ORDER_EVENT_KINDS = [
   'mail_queued',
   'mail_sent',
   'note',
+  'recall',
 ] as const
 /** A kind of timeline event (known kinds in {@link ORDER_EVENT_KINDS}; others may appear). */
 export type OrderEventKind = (typeof ORDER_EVENT_KINDS)[number]

@@ -74,7 +74,7 @@ describe('writing a parts CSV record', () => {
   it('round-trips a whole part', () => {
     const part: Part = {
       id: '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11', sku: 'PVC-050-S40', name: 'Pipe', kind: 'stock_length', unitOfMeasure: 'stick',
-      unitCostCents: 348, weightGrams: 730, electrical: false, supplier: 'Yard', leadTimeDays: 3, reorderPoint: 20, reorderQuantity: 50,
+      unitCostCents: 348, weightGrams: 730, electrical: false, lotTracked: false, supplier: 'Yard', leadTimeDays: 3, reorderPoint: 20, reorderQuantity: 50,
       shelfLocation: 'P1', nominalSize: '1/2', outsideDiameter: inches(0.84), stickLengths: [inches(120), inches(240)],
       hsCode: '3917230000', originCountry: 'US', customsDescription: 'Rigid PVC pipe, cut to length',
       active: false, createdAt: '', updatedAt: '',

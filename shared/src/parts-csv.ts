@@ -16,6 +16,7 @@ export const PART_CSV_COLUMNS = [
   'unit_cost',
   'weight_g',
   'electrical',
+  'lot_tracked',
   'supplier',
   'lead_time_days',
   'reorder_point',
@@ -44,6 +45,7 @@ export const PART_FIELD_COLUMNS: Record<keyof PartInput, PartCsvColumn> = {
   unitCostCents: 'unit_cost',
   weightGrams: 'weight_g',
   electrical: 'electrical',
+  lotTracked: 'lot_tracked',
   supplier: 'supplier',
   leadTimeDays: 'lead_time_days',
   reorderPoint: 'reorder_point',
@@ -102,6 +104,7 @@ export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvCol
     unit_cost: (part.unitCostCents / 100).toFixed(2),
     weight_g: String(part.weightGrams),
     electrical: part.electrical ? 'yes' : 'no',
+    lot_tracked: part.lotTracked ? 'yes' : 'no',
     supplier: part.supplier ?? '',
     lead_time_days: part.leadTimeDays === null ? '' : String(part.leadTimeDays),
     reorder_point: String(part.reorderPoint),
@@ -172,6 +175,9 @@ export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): Part
   const electricalText = cell('electrical').toLowerCase()
   const electrical = electricalText === '' ? undefined : ['yes', 'y', 'true', '1'].includes(electricalText) ? true : ['no', 'n', 'false', '0'].includes(electricalText) ? false : null
   if (electrical === null) errors.push({ column: 'electrical', message: `Write yes or no for electrical, whether it runs on mains power (found "${cell('electrical')}")` })
+  const lotText = cell('lot_tracked').toLowerCase()
+  const lotTracked = lotText === '' ? undefined : ['yes', 'y', 'true', '1'].includes(lotText) ? true : ['no', 'n', 'false', '0'].includes(lotText) ? false : null
+  if (lotTracked === null) errors.push({ column: 'lot_tracked', message: `Write yes or no for lot_tracked, whether it is received and fitted by the supplier's lot (found "${cell('lot_tracked')}")` })
   const od = cell('outside_diameter')
   const sticks = cell('stick_lengths')
 
@@ -183,6 +189,7 @@ export function partFromCsvRecord(record: PartCsvRecord, unit: LengthUnit): Part
     unitCostCents: cost ?? 0,
     weightGrams: weight ?? 0,
     ...(typeof electrical === 'boolean' ? { electrical } : {}),
+    ...(typeof lotTracked === 'boolean' ? { lotTracked } : {}),
     supplier: cell('supplier'),
     leadTimeDays: whole('lead_time_days', 'the lead time in days', null),
     reorderPoint: whole('reorder_point', 'the reorder point', 0) ?? 0,

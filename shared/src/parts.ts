@@ -52,6 +52,8 @@ export const PartInputSchema = z
     weightGrams: z.number().int('Whole grams').min(0, 'Cannot be negative').max(1_000_000),
     /** Runs on mains power (a pump, a timer): a box holding it gets the electrical cautions. Left out: unchanged (no, for a new part). */
     electrical: z.boolean({ error: 'Say yes or no: does it run on mains power?' }).optional(),
+    /** Received and fitted by the supplier's lot, so a recall finds every unit built with a lot. Left out: unchanged (no, for a new part). */
+    lotTracked: z.boolean({ error: "Say yes or no: is it tracked by the supplier's lot?" }).optional(),
     supplier: optionalText,
     leadTimeDays: z.number().int('Whole days').min(0, 'Cannot be negative').max(365).nullish().transform((v) => v ?? null),
     reorderPoint: z.number().int().min(0, 'Cannot be negative'),
@@ -91,6 +93,8 @@ export const PartSchema = z.object({
   weightGrams: z.number().int(),
   /** Runs on mains power: the care sheet of a box holding it carries the electrical cautions. */
   electrical: z.boolean(),
+  /** Received and fitted by the supplier's lot (receiving asks for it, the build bench records it). */
+  lotTracked: z.boolean(),
   supplier: z.string().nullable(),
   leadTimeDays: z.number().int().nullable(),
   reorderPoint: z.number().int(),

@@ -10,6 +10,8 @@ export const PublicUnitRecordSchema = z.object({
   kit: z.object({ name: z.string() }),
   revisionCode: z.string(),
   steps: z.array(z.object({ position: z.number().int(), text: z.string(), doneAt: z.string().nullable() })),
+  /** The supplier's lot of each lot-tracked part fitted (the pump, the sprayers), so a recall notice can be matched to the unit. */
+  lots: z.array(z.object({ sku: z.string(), name: z.string(), lotCode: z.string(), quantity: z.number().int() })).default([]),
   photos: z.array(z.object({ url: z.string().url().nullable(), at: z.string() })),
   leakTests: z.array(
     z.object({

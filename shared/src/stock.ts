@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { LENGTH_BASE_PER_FOOT, formatLength, type Length, type LengthUnit } from './domain/units'
 import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
+import { OptionalLotCodeSchema } from './lots'
 import { LengthSchema, PartKindSchema } from './parts'
 
 /** The kinds of move in the stock ledger. */
@@ -88,6 +89,8 @@ export const StockPartOptionSchema = z.object({
   kind: PartKindSchema,
   unitOfMeasure: z.string(),
   stickLengths: z.array(z.number().int()),
+  /** Received by the supplier's lot: the receiving form asks for it. */
+  lotTracked: z.boolean().default(false),
 })
 /** A part as the stock forms pick it. */
 export type StockPartOption = z.infer<typeof StockPartOptionSchema>
@@ -100,6 +103,8 @@ export const StockMoveSchema = z.object({
   quantity: z.number().int(),
   stickLength: z.number().int().nullable(),
   offcutId: z.string().nullable(),
+  /** The supplier's lot that moved (lot-tracked parts). */
+  lotId: z.string().nullable().default(null),
   workOrderId: z.string().nullable(),
   reason: z.string().nullable(),
   reference: z.string().nullable(),
@@ -111,6 +116,8 @@ export type StockMove = z.infer<typeof StockMoveSchema>
 
 /** A ledger line with the part's running balances after it, so each balance is explained by its moves. */
 export const LedgerEntrySchema = StockMoveSchema.extend({
+  /** The supplier's lot code of a lot-tracked move. */
+  lotCode: z.string().nullable().default(null),
   onHandAfter: z.number().int(),
   reservedAfter: z.number().int(),
 })
@@ -154,6 +161,8 @@ export const ReceiveLineSchema = z
     quantity: StockQuantitySchema,
     stickLength: StickLengthSchema,
     reference: StockReferenceSchema,
+    /** The supplier's lot on the bag or box: required for a lot-tracked part, left out for others. */
+    lot: OptionalLotCodeSchema,
     /** Against a purchase order: why more than is still due came in, or why the line is closed short. */
     reason: z.string().trim().max(200, 'Use at most 200 characters').nullish().transform((v) => (v ? v : null)),
     /** Against a purchase order: the supplier sends no more of this line (needs a reason). */
@@ -254,7 +263,7 @@ export const PackingListSchema = z
 export type PackingList = z.infer<typeof PackingListSchema>
 
 /** The packing-list columns Kitwright reads, in the order its template lists them. */
-export const PACKING_LIST_COLUMNS = ['sku', 'quantity', 'stick_length', 'reference', 'supplier', 'purchase_order', 'reason'] as const
+export const PACKING_LIST_COLUMNS = ['sku', 'quantity', 'stick_length', 'reference', 'supplier', 'purchase_order', 'reason', 'lot'] as const
 
 /** One data row of a packing list as Kitwright read it; `row` is the line number in the file (header = 1). */
 export const PackingListRowSchema = z.object({
@@ -269,6 +278,8 @@ export const PackingListRowSchema = z.object({
   purchaseOrderNumber: z.string().nullable().default(null),
   /** Why more than is still due came in. */
   reason: z.string().nullable().default(null),
+  /** The supplier's lot (lot-tracked parts). */
+  lot: z.string().nullable().default(null),
   errors: z.array(z.string()),
 })
 /** One data row of a packing list as Kitwright read it. */

@@ -77,7 +77,7 @@ describe('scanning a unit at the build bench', () => {
     expect(p.steps[1]!.caution).toBe('Wear eye protection. Clamp the manifold.')
     expect(p.steps[0]).toMatchObject({ measurementRequired: true, measurementUnit: 'in', measurementMin: 17.75, measurementMax: 18.25, freeOrder: false, outOfLimitsRework: false, tick: null })
     expect(p.leakTestProtocol).toEqual({ minPressurePa: 68_948, maxPressurePa: 137_895, holdMinutes: 10, maxDropPa: 3447, waterVolumeMl: 30_000 })
-    expect(p.readiness).toEqual({ stepsLeft: 4, photosMissing: 1, leakTest: 'none', openRework: 0, ready: false })
+    expect(p.readiness).toEqual({ stepsLeft: 4, photosMissing: 1, leakTest: 'none', openRework: 0, lotsMissing: 0, ready: false })
   })
 
   it('finds the unit by the code of its bin, as the scanner types it', async () => {
@@ -427,14 +427,14 @@ describe('the ready-to-pack gate', () => {
   it('makes the unit built only when every step is ticked, the photo is there and the latest leak test passed', async () => {
     const s = await setUp()
     const almost = await doAllSteps(s)
-    expect(almost.readiness).toEqual({ stepsLeft: 1, photosMissing: 0, leakTest: 'none', openRework: 0, ready: false })
+    expect(almost.readiness).toEqual({ stepsLeft: 1, photosMissing: 0, leakTest: 'none', openRework: 0, lotsMissing: 0, ready: false })
     page(await tick(s.assembler, s.wo.id, s.step(4)))
     expect(await statusOf(s.wo.id)).toBe('building') // every step, but no leak test yet
     page(await leakTest(s.assembler, s.wo.id, { ...PASSING, endPressure: 13 }), 201)
     expect(await statusOf(s.wo.id)).toBe('rework') // the latest test failed
     const done = page(await leakTest(s.assembler, s.wo.id, PASSING), 201)
     expect(done.workOrder.status).toBe('built')
-    expect(done.readiness).toEqual({ stepsLeft: 0, photosMissing: 0, leakTest: 'passed', openRework: 0, ready: true })
+    expect(done.readiness).toEqual({ stepsLeft: 0, photosMissing: 0, leakTest: 'passed', openRework: 0, lotsMissing: 0, ready: true })
     expect(await statusOf(s.wo.id)).toBe('built')
     // Built units are done at this bench.
     expect(error(await s.assembler.get('/api/build/lookup').query({ code: s.wo.serial }), 409).message).toMatch(/already built/)
@@ -446,7 +446,7 @@ describe('the ready-to-pack gate', () => {
     const s = await setUp('cut', { leakTest: false })
     await doAllSteps(s)
     const p = page(await tick(s.assembler, s.wo.id, s.step(4)))
-    expect(p.readiness).toEqual({ stepsLeft: 0, photosMissing: 0, leakTest: 'not_required', openRework: 0, ready: true })
+    expect(p.readiness).toEqual({ stepsLeft: 0, photosMissing: 0, leakTest: 'not_required', openRework: 0, lotsMissing: 0, ready: true })
     expect(p.workOrder.status).toBe('built')
   })
 })

@@ -35,6 +35,8 @@ export const paths = {
   purchaseOrders: { pattern: '/purchasing/orders', href: (poId?: string) => (poId ? `/purchasing/orders?po=${poId}` : '/purchasing/orders') },
   suppliers: { pattern: '/purchasing/suppliers', href: () => '/purchasing/suppliers' },
   outbox: { pattern: '/outbox', href: () => '/outbox' },
+  lots: { pattern: '/catalog/lots', href: () => '/catalog/lots' },
+  lot: { pattern: '/catalog/lots/:lotId', href: (lotId: string) => `/catalog/lots/${lotId}` },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

@@ -3,7 +3,7 @@ import { inches } from '@kitwright/shared/domain/units'
 import { tables, type Db, type NewStockMoveRow } from './services'
 import { DEMO_PART_SKUS } from './catalog'
 
-const { parts, stockMoves, users } = tables
+const { parts, stockLots, stockMoves, users } = tables
 
 const S = DEMO_PART_SKUS
 
@@ -12,10 +12,13 @@ interface OpeningLine {
   quantity: number
   stickLength?: number
   reference: string
+  /** The supplier's lot (the pump and the sprayers are lot-tracked), and how many days ago it came in. */
+  lot?: { code: string; daysAgo: number }
 }
 
 /**
- * The demo shop's opening stock, received from its (invented) suppliers' packing lists. Most parts
+ * The demo shop's opening stock, received from its (invented) suppliers' packing lists; the
+ * lot-tracked pump and sprayers by lot. Most parts
  * sit well above their reorder point; the pump (7 against 10) and the PVC primer (2 against 2) are
  * left at or below it so the stock page shows low stock.
  */
@@ -27,13 +30,17 @@ const OPENING_STOCK: OpeningLine[] = [
   { sku: S.pumpAdapter, quantity: 50, reference: 'RPF-24117' },
   { sku: S.primer, quantity: 2, reference: 'RPF-24117' },
   { sku: S.cement, quantity: 6, reference: 'RPF-24117' },
-  { sku: S.sprayer, quantity: 600, reference: 'FHI-3391' },
+  // Sprayers and pumps came in two lots each (invented codes as printed on the bags and boxes): the
+  // build bench offers the older lot first.
+  { sku: S.sprayer, quantity: 200, reference: 'FHI-3284', lot: { code: 'NZ-2608-31', daysAgo: 49 } },
+  { sku: S.sprayer, quantity: 400, reference: 'FHI-3391', lot: { code: 'NZ-2610-12', daysAgo: 21 } },
   { sku: S.netCup, quantity: 1000, reference: 'FHI-3391' },
   { sku: S.collar, quantity: 1000, reference: 'FHI-3391' },
   { sku: S.drainFitting, quantity: 60, reference: 'FHI-3391' },
   { sku: S.grommet, quantity: 60, reference: 'FHI-3391' },
   { sku: S.tubing, quantity: 200, reference: 'FHI-3391' },
-  { sku: S.pump, quantity: 7, reference: 'BWP-0815' },
+  { sku: S.pump, quantity: 3, reference: 'BWP-0790', lot: { code: 'BW-2609-114', daysAgo: 35 } },
+  { sku: S.pump, quantity: 4, reference: 'BWP-0815', lot: { code: 'BW-2610-027', daysAgo: 21 } },
   { sku: S.tote27A, quantity: 20, reference: 'CBT-552' },
   { sku: S.tote27B, quantity: 12, reference: 'CBT-552' },
   { sku: S.tote10, quantity: 20, reference: 'CBT-552' },
@@ -63,7 +70,13 @@ export async function seedDemoStock(db: Db) {
   for (const line of OPENING_STOCK) {
     const partId = idOf.get(line.sku)
     if (!partId) continue
-    moves.push({ partId, kind: 'receive', quantity: line.quantity, stickLength: line.stickLength ?? null, reference: line.reference, createdBy: receiver?.id ?? null, createdAt: received })
+    const at = line.lot ? new Date(Date.now() - line.lot.daysAgo * DAY) : received
+    let lotId: string | null = null
+    if (line.lot) {
+      const [lot] = await db.insert(stockLots).values({ partId, code: line.lot.code, firstReceivedAt: at, createdAt: at }).returning({ id: stockLots.id })
+      lotId = lot!.id
+    }
+    moves.push({ partId, kind: 'receive', quantity: line.quantity, stickLength: line.stickLength ?? null, lotId, reference: line.reference, createdBy: receiver?.id ?? null, createdAt: at })
   }
   const collar = idOf.get(S.collar)
   if (collar) {

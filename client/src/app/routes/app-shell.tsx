@@ -15,6 +15,7 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Kits', href: paths.kits.href(), roles: ['admin', 'planner'] },
   { label: 'Stock', href: paths.stock.href(), roles: ['admin', 'planner'] },
   { label: 'Unit weights', href: paths.unitWeights.href(), roles: ['admin', 'planner'] },
+  { label: 'Lots & recalls', href: paths.lots.href(), roles: ['admin', 'planner'] },
   { label: 'Shortages', href: paths.shortages.href(), roles: ['admin', 'planner'] },
   { label: 'Purchase orders', href: paths.purchaseOrders.href(), roles: ['admin', 'planner'] },
   { label: 'Suppliers', href: paths.suppliers.href(), roles: ['admin', 'planner'] },

@@ -48,6 +48,18 @@ export function Component() {
           </div>
         </section>
       )}
+      {r.lots.length > 0 && (
+        <section className="space-y-2">
+          <h2 className="text-2xl font-bold">Parts by supplier's lot</h2>
+          <ul className="space-y-1">
+            {r.lots.map((l) => (
+              <li key={`${l.sku}-${l.lotCode}`}>
+                {l.quantity} × {l.name} ({l.sku}) from lot <strong className="font-mono">{l.lotCode}</strong>
+              </li>
+            ))}
+          </ul>
+        </section>
+      )}
       <section className="space-y-2">
         <h2 className="text-2xl font-bold">How it was built</h2>
         <ol className="list-decimal space-y-1 pl-6">

@@ -4,6 +4,7 @@ import type { Db, Tx } from '../../db/client'
 import type { BuildStepRow, BuildStepTickRow, KitRevisionRow, LeakTestRow, ReworkEntryRow, UnitPhotoRow, WorkOrderRow } from '../../db/schema/index'
 import type { Storage } from '../../lib/storage'
 import { NotFound } from '../../lib/http-errors'
+import { lotNeedsOf } from '../lots/lots.queries'
 import {
   confirmedPhotos,
   findBinOfWorkOrder,
@@ -27,7 +28,7 @@ export function protocolOf(r: KitRevisionRow): LeakTestProtocol | null {
 
 /**
  * What stands between the unit and the pack bench: every step ticked, a photo for every step that
- * needs one, no rework left open, and the latest leak test passed (when the revision has a protocol).
+ * needs one, no rework left open, the lot of every lot-tracked part recorded, and the latest leak test passed (when the revision has a protocol).
  */
 export function readinessOf(
   steps: readonly Pick<BuildStepRow, 'id' | 'photoRequired'>[],
@@ -36,6 +37,7 @@ export function readinessOf(
   tests: readonly Pick<LeakTestRow, 'attempt' | 'passed'>[],
   hasProtocol: boolean,
   rework: readonly Pick<ReworkEntryRow, 'resolvedAt'>[],
+  lotsMissing = 0,
 ): BuildReadiness {
   const ticked = new Set(ticks.filter((t) => t.undoneAt === null).map((t) => t.buildStepId))
   const photographed = new Set(photos.map((p) => p.buildStepId))
@@ -44,21 +46,22 @@ export function readinessOf(
   const latest = [...tests].sort((a, b) => a.attempt - b.attempt).at(-1)
   const leakTest = !hasProtocol ? 'not_required' : !latest ? 'none' : latest.passed ? 'passed' : 'failed'
   const openRework = rework.filter((r) => r.resolvedAt === null).length
-  const ready = stepsLeft === 0 && photosMissing === 0 && openRework === 0 && (leakTest === 'passed' || leakTest === 'not_required')
-  return { stepsLeft, photosMissing, leakTest, openRework, ready }
+  const ready = stepsLeft === 0 && photosMissing === 0 && openRework === 0 && lotsMissing === 0 && (leakTest === 'passed' || leakTest === 'not_required')
+  return { stepsLeft, photosMissing, leakTest, openRework, lotsMissing, ready }
 }
 
 /** Everything recorded for one unit, as the build bench and the build record show it. */
 export async function loadBuildPage(db: Db | Tx, storage: Storage, wo: WorkOrderRow): Promise<BuildPage> {
   const found = await findRevisionWithKit(db, wo.kitRevisionId)
   if (!found) throw new NotFound(`Unit ${wo.serial} has no kit revision`)
-  const [steps, ticks, photos, tests, rework, bin] = await Promise.all([
+  const [steps, ticks, photos, tests, rework, bin, lots] = await Promise.all([
     stepsOfRevision(db, wo.kitRevisionId),
     ticksOfWorkOrder(db, wo.id),
     confirmedPhotos(db, wo.id),
     leakTestsOfWorkOrder(db, wo.id),
     reworkOfWorkOrder(db, wo.id),
     findBinOfWorkOrder(db, wo.id),
+    lotNeedsOf(db, wo),
   ])
   const names = await namesOf(db, [
     ...ticks.flatMap((t) => [t.tickedBy, t.undoneBy]),
@@ -139,6 +142,7 @@ export async function loadBuildPage(db: Db | Tx, storage: Storage, wo: WorkOrder
       resolvedAt: r.resolvedAt?.toISOString() ?? null,
       resolvedBy: maybePerson(r.resolvedBy),
     })),
-    readiness: readinessOf(steps, ticks, photos, tests, protocol !== null, rework),
+    lots,
+    readiness: readinessOf(steps, ticks, photos, tests, protocol !== null, rework, lots.filter((l) => l.left > 0).length),
   }
 }

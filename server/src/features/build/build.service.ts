@@ -8,6 +8,7 @@ import { buildStepTicks, leakTests, reworkEntries, workOrders, type BuildStepRow
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, Forbidden, NotFound } from '../../lib/http-errors'
 import type { Storage } from '../../lib/storage'
+import { hasLotFits, lotsMissingOf } from '../lots/lots.queries'
 import { loadBuildPage, protocolOf, readinessOf } from './build-page'
 import {
   confirmedPhotos,
@@ -56,7 +57,8 @@ export function assertBuildable(wo: WorkOrderRow): void {
   if (!isBuildable(wo.status)) throw new Conflict(notBuildableMessage(wo), { serial: wo.serial })
 }
 
-async function lockBuildable(tx: Tx, workOrderId: string): Promise<WorkOrderRow> {
+/** Locks the unit and refuses it unless it may be worked on at the build bench. */
+export async function lockBuildable(tx: Tx, workOrderId: string): Promise<WorkOrderRow> {
   const wo = await lockWorkOrder(tx, workOrderId)
   if (!wo) throw new NotFound('No such work order')
   assertBuildable(wo)
@@ -84,7 +86,7 @@ export async function lookupForBuild(db: Db, storage: Storage, code: string): Pr
  * the latest leak test passed (or none required) → built; a failed test or open rework → rework.
  * Called after every change, inside its transaction.
  */
-async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
+export async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
   const found = await findRevisionWithKit(tx, wo.kitRevisionId)
   // One after another: a transaction is one connection, which runs one query at a time.
   const steps = await stepsOfRevision(tx, wo.kitRevisionId)
@@ -92,11 +94,12 @@ async function settle(tx: Tx, wo: WorkOrderRow): Promise<void> {
   const photos = await confirmedPhotos(tx, wo.id)
   const tests = await leakTestsOfWorkOrder(tx, wo.id)
   const rework = await reworkOfWorkOrder(tx, wo.id)
-  const readiness = readinessOf(steps, ticks, photos, tests, found ? protocolOf(found.revision) !== null : false, rework)
+  const lotsMissing = await lotsMissingOf(tx, wo)
+  const readiness = readinessOf(steps, ticks, photos, tests, found ? protocolOf(found.revision) !== null : false, rework, lotsMissing)
   let status: WorkOrderRow['status'] = wo.status
   if (readiness.ready) status = 'built'
   else if (readiness.leakTest === 'failed' || readiness.openRework > 0) status = 'rework'
-  else if (ticks.length > 0 || tests.length > 0) status = 'building'
+  else if (ticks.length > 0 || tests.length > 0 || (await hasLotFits(tx, wo.id))) status = 'building'
   if (status !== wo.status) await tx.update(workOrders).set({ status, updatedAt: new Date() }).where(eq(workOrders.id, wo.id))
 }
 

@@ -37,6 +37,7 @@ export async function readPublicRecord(db: Db, storage: Storage, tokens: TokenCo
     kit: { name: record.kit.name },
     revisionCode: record.revision.code,
     steps: record.steps.map((s) => ({ position: s.position, text: s.text, doneAt: s.tick?.at ?? null })),
+    lots: record.lots.flatMap((l) => l.fitted.map((f) => ({ sku: l.sku, name: l.name, lotCode: f.lotCode, quantity: f.quantity }))),
     photos: record.photos.map((p) => ({ url: p.url, at: p.at })),
     leakTests: record.leakTests.map((t) => ({ attempt: t.attempt, passed: t.passed, startPressurePa: t.startPressurePa, endPressurePa: t.endPressurePa, holdMinutes: t.holdMinutes, at: t.at })),
   }

@@ -9,6 +9,7 @@ import { freeBin } from '../bins/bins.service'
 import { queueMail } from '../mail/mail.service'
 import { onHoldConflict } from '../orders/order-lifecycle.service'
 import { addOrderEvent } from '../orders/orders.service'
+import { splitShipMovesByLot } from '../lots/lots.queries'
 import { insertMoves, lockParts } from '../stock/stock.queries'
 import { releaseReservation } from '../stock/stock.service'
 import { loadPackData } from './pack-view'
@@ -54,10 +55,9 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     for (const u of units) {
       const why = `Order ${order.number}, unit ${u.workOrder.serial} shipped`
       await releaseReservation(tx, { workOrderId: u.workOrder.id, lines: [], reason: why }, actor)
-      await insertMoves(
-        tx,
-        bom.filter((b) => b.revisionId === u.revision.id).map((b) => ({ partId: b.partId, kind: 'ship' as const, quantity: -b.quantity, workOrderId: u.workOrder.id, reason: why, reference: shipment.trackingNumber, createdBy: actor.id })),
-      )
+      // Lot-tracked parts leave the shelf from the lots the build bench fitted into the unit.
+      const moves = bom.filter((b) => b.revisionId === u.revision.id).map((b) => ({ partId: b.partId, kind: 'ship' as const, quantity: -b.quantity, workOrderId: u.workOrder.id, reason: why, reference: shipment.trackingNumber, createdBy: actor.id }))
+      await insertMoves(tx, await splitShipMovesByLot(tx, u.workOrder.id, moves))
     }
 
     const remaining = await tx

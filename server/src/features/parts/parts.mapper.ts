@@ -11,6 +11,7 @@ export function toPart(row: PartRow): Part {
     unitCostCents: row.unitCostCents,
     weightGrams: row.weightGrams,
     electrical: row.electrical,
+    lotTracked: row.lotTracked,
     supplier: row.supplier,
     leadTimeDays: row.leadTimeDays,
     reorderPoint: row.reorderPoint,

@@ -13,6 +13,8 @@ export interface PackingListLine {
   supplier: string | null
   purchaseOrder: string | null
   reason: string | null
+  /** The supplier's lot (lot-tracked parts). */
+  lot: string | null
   /** The stick length cell held something that is not a length (already among the errors). */
   stickLengthUnreadable: boolean
   errors: string[]
@@ -32,6 +34,7 @@ const COLUMN_ALIASES = {
   supplier: ['supplier', 'vendor'],
   purchase_order: ['purchase_order', 'po', 'po_number', 'purchase_order_no'],
   reason: ['reason', 'note'],
+  lot: ['lot', 'lot_no', 'lot_number', 'lot_code', 'batch', 'batch_no'],
 } as const
 type Column = keyof typeof COLUMN_ALIASES
 
@@ -93,6 +96,9 @@ export function readPackingList(csv: string, defaultReference: string | null, un
     if (reference && reference.length > 80) errors.push('The reference is longer than 80 characters')
     const reason = cell('reason')
     if (reason.length > 200) errors.push('The reason is longer than 200 characters')
+    const lot = cell('lot')
+    if (lot.length > 40) errors.push('The lot is longer than 40 characters')
+    else if (/[\u0000-\u001f\u007f]/.test(lot)) errors.push('The lot holds control characters: type it again')
     lines.push({
       row: i + 1,
       sku,
@@ -102,6 +108,7 @@ export function readPackingList(csv: string, defaultReference: string | null, un
       supplier: cell('supplier') || null,
       purchaseOrder: cell('purchase_order') || null,
       reason: reason || null,
+      lot: lot || null,
       stickLengthUnreadable: length?.ok === false, errors })
   })
   if (lines.length === 0) fileErrors.push('The packing list has no rows under its header')

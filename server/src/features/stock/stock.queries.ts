@@ -128,6 +128,8 @@ export interface LedgerRecord extends Record<string, unknown> {
   quantity: number
   stickLength: number | null
   offcutId: string | null
+  lotId: string | null
+  lotCode: string | null
   workOrderId: string | null
   reason: string | null
   reference: string | null
@@ -147,7 +149,7 @@ export async function selectLedger(db: Conn, partId: string, limit: number): Pro
   const result = await db.execute<LedgerRecord>(sql`
     select m.id, m.part_id as "partId", m.kind, m.quantity, m.stick_length as "stickLength",
       m.offcut_id as "offcutId", m.work_order_id as "workOrderId", m.reason, m.reference, m.created_at as "createdAt",
-      u.id as "createdById", u.name as "createdByName",
+      u.id as "createdById", u.name as "createdByName", m.lot_id as "lotId", lot.code as "lotCode",
       (sum(case when m.kind in (${ON_HAND_KINDS}) and m.offcut_id is null then m.quantity else 0 end)
         over (order by m.created_at, m.id rows unbounded preceding))::int as "onHandAfter",
       (sum(case when m.kind in (${RESERVE_KINDS}) then m.quantity else 0 end)
@@ -155,6 +157,7 @@ export async function selectLedger(db: Conn, partId: string, limit: number): Pro
       (count(*) over ())::int as "totalMoves"
     from stock_moves m
     left join users u on u.id = m.created_by
+    left join stock_lots lot on lot.id = m.lot_id
     where m.part_id = ${partId}
     order by m.created_at desc, m.id desc
     limit ${limit}
@@ -218,7 +221,7 @@ export async function selectPartsBySku(db: Conn, skus: readonly string[]) {
 /** Active parts for the pickers of the stock forms, by SKU. */
 export async function selectPartOptions(db: Conn) {
   return db
-    .select({ id: parts.id, sku: parts.sku, name: parts.name, kind: parts.kind, unitOfMeasure: parts.unitOfMeasure, stickLengths: parts.stickLengths })
+    .select({ id: parts.id, sku: parts.sku, name: parts.name, kind: parts.kind, unitOfMeasure: parts.unitOfMeasure, stickLengths: parts.stickLengths, lotTracked: parts.lotTracked })
     .from(parts)
     .where(eq(parts.active, true))
     .orderBy(asc(parts.sku))

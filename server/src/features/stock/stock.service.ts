@@ -21,6 +21,7 @@ import { parts, purchaseOrders, shopSettings, suppliers, type NewStockMoveRow, t
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { findPurchaseOrderByNumber, receiveOnPurchaseOrder, type PurchaseReceiptLine } from '../purchasing/purchase-orders.service'
+import { lotIdsFor } from '../lots/lots.queries'
 import { readPackingList } from './packing-list'
 import { stockCsv } from './stock-export'
 import { toLedgerEntry, toStockMove, toStockRow } from './stock.mapper'
@@ -122,6 +123,15 @@ interface ResolvedReceiveLine {
   quantity: number
   stickLength: number | null
   reference: string | null
+  /** The supplier's lot, for a lot-tracked part. */
+  lot: string | null
+}
+
+/** What is wrong with the lot of a receipt line, or null: a lot-tracked part needs one, any other part takes none. */
+export function lotProblem(part: PartRow, lot: string | null): string | null {
+  if (part.lotTracked && !lot) return `${partLabel(part)} is tracked by lot: give the supplier's lot printed on the bag or box`
+  if (!part.lotTracked && lot) return `${partLabel(part)} is not tracked by lot: leave the lot empty, or mark the part lot-tracked on its page first`
+  return null
 }
 
 /** Appends one receive move per line, in one transaction, after checking each line against its locked part. */
@@ -131,12 +141,15 @@ async function receiveLines(tx: Tx, lines: ResolvedReceiveLine[], actor: Actor, 
   lines.forEach((line, i) => {
     const problem = stickLengthProblem(byId.get(line.partId)!, line.stickLength, unit, true)
     if (problem) fields[`lines.${i}.stickLength`] = problem
+    const lot = lotProblem(byId.get(line.partId)!, line.lot)
+    if (lot) fields[`lines.${i}.lot`] = lot
   })
   const first = Object.entries(fields)[0]
   if (first) throw new BadRequest(`Line ${Number(first[0].split('.')[1]) + 1}: ${first[1]}`, fields)
+  const lotIds = await lotIdsFor(tx, lines)
   const rows = await insertMoves(
     tx,
-    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'receive', quantity: l.quantity, stickLength: l.stickLength, reference: l.reference, createdBy: actor.id })),
+    lines.map((l, i): NewStockMoveRow => ({ partId: l.partId, kind: 'receive', quantity: l.quantity, stickLength: l.stickLength, lotId: lotIds[i] ?? null, reference: l.reference, createdBy: actor.id })),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }
@@ -153,7 +166,7 @@ export async function receiveStock(db: Db, input: ReceiveStock, actor: Actor): P
   const resolved = input.lines.map((l, i): ResolvedReceiveLine => {
     const partId = l.partId ?? bySku.get(l.sku!.toLowerCase())
     if (!partId) fields[`lines.${i}.sku`] = `No part with SKU ${l.sku}`
-    return { partId: partId ?? '', quantity: l.quantity, stickLength: l.stickLength, reference: l.reference }
+    return { partId: partId ?? '', quantity: l.quantity, stickLength: l.stickLength, reference: l.reference, lot: l.lot }
   })
   const first = Object.values(fields)[0]
   if (first) throw new BadRequest(first, fields)
@@ -207,6 +220,10 @@ export async function previewPackingList(db: Db | Tx, input: PackingList): Promi
       const problem = stickLengthProblem(part, line.stickLength, unit, true)
       if (problem) errors.push(problem)
     }
+    if (part?.active) {
+      const problem = lotProblem(part, line.lot)
+      if (problem) errors.push(problem.replace('leave the lot empty', 'leave its lot cell empty').replace("give the supplier's lot", "fill its lot cell with the supplier's lot"))
+    }
     return {
       row: line.row,
       sku: part?.sku ?? line.sku,
@@ -218,6 +235,7 @@ export async function previewPackingList(db: Db | Tx, input: PackingList): Promi
       purchaseOrderNumber: po?.number ?? null,
       purchaseOrderId: po?.id ?? null,
       reason: line.reason,
+      lot: line.lot,
       errors,
     }
   })
@@ -237,7 +255,7 @@ export async function receivePackingList(db: Db, input: PackingList, actor: Acto
     }
     const unit = await displayUnit(tx)
     const { rowPurchaseOrders, ...shown } = preview
-    const lines = preview.rows.map((r) => ({ partId: r.partId!, quantity: r.quantity!, stickLength: r.stickLength, reference: r.reference }))
+    const lines = preview.rows.map((r) => ({ partId: r.partId!, quantity: r.quantity!, stickLength: r.stickLength, reference: r.reference, lot: r.lot }))
     // Rows on no purchase order are received as before; the others per order, each checked and counted against it.
     const plain = lines.filter((_, i) => !rowPurchaseOrders[i])
     const moves = plain.length ? (await receiveLines(tx, plain, actor, unit)).moves : []

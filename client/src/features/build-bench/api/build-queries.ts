@@ -9,6 +9,7 @@ import {
   type RecordLeakTestInput,
   type TickStepInput,
 } from '@kitwright/shared/build'
+import type { FitLotInput } from '@kitwright/shared/lots'
 import { z } from 'zod'
 import { BuildWorklistItemSchema } from '@kitwright/shared/worklists'
 import { apiFetch } from '../../../lib/api-client'
@@ -102,6 +103,24 @@ export function useRecordLeakTest(code: string) {
   return useMutation({
     mutationFn: ({ workOrderId, ...input }: RecordLeakTestInput & { workOrderId: string }) =>
       apiFetch(`/build/${workOrderId}/leak-tests`, BuildPageSchema, { method: 'POST', body: input }),
+    onSuccess: setPage,
+  })
+}
+
+/** Records which lot of a lot-tracked part went into the unit: `{ partId, lotCode, quantity? }`, one plain call. */
+export function useFitLot(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: ({ workOrderId, ...body }: FitLotInput & { workOrderId: string }) => apiFetch(`/build/${workOrderId}/lots`, BuildPageSchema, { method: 'POST', body }),
+    onSuccess: setPage,
+  })
+}
+
+/** Undoes a lot recorded by mistake (it stays on the build record as undone). */
+export function useUndoLotFit(code: string) {
+  const setPage = useSetPage(code)
+  return useMutation({
+    mutationFn: ({ workOrderId, fitId }: { workOrderId: string; fitId: string }) => apiFetch(`/build/${workOrderId}/lots/${fitId}/undo`, BuildPageSchema, { method: 'POST', body: {} }),
     onSuccess: setPage,
   })
 }

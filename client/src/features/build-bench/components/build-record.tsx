@@ -43,6 +43,26 @@ export function BuildRecord({ record }: { record: UnitRecord }) {
       <Section title="Pipe pieces and their sticks" id="record-pieces">
         <RecordPieces record={record} />
       </Section>
+      {record.lots.length > 0 && (
+        <Section title="Parts by supplier's lot" id="record-lots">
+          <ul className="space-y-2 text-lg" aria-label="Lots fitted">
+            {record.lots.map((l) => (
+              <li key={l.partId}>
+                <strong>{l.name}</strong> ({l.sku}):{' '}
+                {l.fitted.length === 0
+                  ? 'no lot recorded'
+                  : l.fitted.map((f, i) => (
+                      <span key={f.id}>
+                        {i > 0 && '; '}
+                        {f.quantity} × lot <span className="font-mono font-bold">{f.lotCode}</span> — {f.by.name}, {formatWhen(f.at)}
+                      </span>
+                    ))}
+                {l.left > 0 && l.fitted.length > 0 && `; ${l.left} without a lot yet`}
+              </li>
+            ))}
+          </ul>
+        </Section>
+      )}
       <Section title="Build steps" id="record-steps">
         <RecordSteps record={record} />
       </Section>

@@ -14,6 +14,7 @@ export function BuildSummary({ page }: { page: BuildPage }) {
   if (r.leakTest === 'none') left.push('the leak test to run')
   if (r.leakTest === 'failed') left.push('a passing leak test after the fix')
   if (r.openRework > 0 && r.leakTest !== 'failed') left.push('the rework below')
+  if (r.lotsMissing > 0) left.push(`the lot of ${r.lotsMissing} part${r.lotsMissing === 1 ? '' : 's'} to record`)
   const openRework = page.rework.filter((x) => x.resolvedAt === null)
   return (
     <div className="space-y-3">

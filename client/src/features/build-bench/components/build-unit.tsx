@@ -3,6 +3,7 @@ import { Section } from '../../../components/ui/section'
 import { BuildSummary } from './build-summary'
 import { LeakTestForm } from './leak-test-form'
 import { LeakTestList } from './leak-test-list'
+import { LotPrompt } from './lot-prompt'
 import { PhotoButton } from './photo-button'
 import { PhotoStrip } from './photo-strip'
 import { StepCard } from './step-card'
@@ -15,6 +16,11 @@ export function BuildUnit({ code, page }: { code: string; page: BuildPage }) {
   return (
     <div className="space-y-6">
       <BuildSummary page={page} />
+      {page.lots.length > 0 && (
+        <Section title="Lots of the parts fitted" id="build-lots">
+          <LotPrompt code={code} page={page} />
+        </Section>
+      )}
       <Section title="Steps" id="build-steps">
         <ol className="space-y-4">
           {page.steps.map((step) => (

@@ -16,7 +16,7 @@ import { ParsedTextField, type TextParse } from './parsed-text-field'
 type Values = z.input<typeof PartInputSchema>
 
 const EMPTY: Values = {
-  sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, electrical: false, supplier: '', leadTimeDays: null,
+  sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, electrical: false, lotTracked: false, supplier: '', leadTimeDays: null,
   reorderPoint: 0, reorderQuantity: 0, shelfLocation: '', nominalSize: '', outsideDiameter: null, stickLengths: [],
   hsCode: '', originCountry: '', customsDescription: '',
 }
@@ -115,6 +115,13 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
         <span>
           <span className="block font-bold">Runs on mains power</span>
           <span className="block text-sm text-stone-600">A pump, a timer, a light: the care sheet of every box holding it carries the electricity-and-water cautions.</span>
+        </span>
+      </label>
+      <label className="flex items-start gap-3 md:col-span-2">
+        <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('lotTracked')} />
+        <span>
+          <span className="block font-bold">Tracked by the supplier's lot</span>
+          <span className="block text-sm text-stone-600">Receiving asks for the lot on the bag or box, the build bench records which lot went into each unit, and a recall finds every unit built with a lot.</span>
         </span>
       </label>
       <Field label="Supplier" error={errors.supplier?.message}>

@@ -8,7 +8,7 @@ import { cn } from '../../../lib/cn'
 import { useLengthUnit } from '../../../lib/shop-settings'
 import { usePreviewPackingList, useReceivePackingList } from '../api/stock-queries'
 
-const EXAMPLE = 'sku,quantity,stick_length,reference\nPVC-050-S40,20,10 ft,RPF-24201\nSPR-360-THR,200,,RPF-24201'
+const EXAMPLE = 'sku,quantity,stick_length,reference,lot\nPVC-050-S40,20,10 ft,RPF-24201,\nSPR-360-THR,200,,RPF-24201,NZ-2611-07'
 
 function showError(err: unknown) {
   toast.error(err instanceof ApiError ? err.message : 'Could not reach Kitwright; check the connection and try again')
@@ -57,7 +57,8 @@ export function PackingListUpload() {
       <div className="space-y-1 text-stone-700">
         <p>
           Columns (header row first, any order, other columns ignored): <code>{PACKING_LIST_COLUMNS.join(', ')}</code>. Stick length only for pipe, e.g.{' '}
-          <code>10 ft</code> or <code>3048 mm</code>; a bare number is read in {unit === 'in' ? 'inches' : 'millimetres'}.
+          <code>10 ft</code> or <code>3048 mm</code>; a bare number is read in {unit === 'in' ? 'inches' : 'millimetres'}. Lot: the supplier's lot of a
+          lot-tracked part (required for those, empty for the others).
         </p>
         <pre className="overflow-x-auto rounded bg-stone-100 p-2 text-sm">{EXAMPLE}</pre>
       </div>
@@ -94,6 +95,7 @@ export function PackingListUpload() {
                     <th className="px-3 py-2">Quantity</th>
                     <th className="px-3 py-2">Stick length</th>
                     <th className="px-3 py-2">Reference</th>
+                    <th className="px-3 py-2">Lot</th>
                     <th className="px-3 py-2">Problems</th>
                   </tr>
                 </thead>
@@ -106,6 +108,7 @@ export function PackingListUpload() {
                       <td className="px-3 py-2">{r.quantity ?? '—'}</td>
                       <td className="px-3 py-2">{r.stickLength === null ? '—' : formatStickLength(r.stickLength, unit)}</td>
                       <td className="px-3 py-2">{r.reference ?? '—'}</td>
+                      <td className="px-3 py-2 font-mono">{r.lot ?? '—'}</td>
                       <td className="px-3 py-2 text-red-800">{r.errors.join('; ') || <span className="text-brand-700">OK</span>}</td>
                     </tr>
                   ))}

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import type { ParseLengthResult } from '@kitwright/shared/domain/units'
+import { LotCodeSchema } from '@kitwright/shared/lots'
 import { StockQuantitySchema, StockReferenceSchema, type ReceiveStock, type StockPartOption } from '@kitwright/shared/stock'
 
 /**
@@ -18,6 +19,7 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
             partId: z.string().min(1, 'Choose a part'),
             quantity: StockQuantitySchema,
             stickLength: z.string().trim(),
+            lot: LotCodeSchema,
             reason: z.string().trim().max(200, 'Use at most 200 characters'),
             closeShort: z.boolean(),
           }),
@@ -36,7 +38,9 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
             else ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: parsed.message })
           }
         }
-        return { partId: line.partId, quantity: line.quantity, stickLength, reference: form.reference, reason: line.reason || null, closeShort: line.closeShort }
+        if (part?.lotTracked && line.lot === '') ctx.addIssue({ code: 'custom', path: ['lines', i, 'lot'], message: `${part.sku} is tracked by lot: type or scan the supplier's lot on the bag or box` })
+        const lot = part?.lotTracked ? line.lot : null
+        return { partId: line.partId, quantity: line.quantity, stickLength, lot, reference: form.reference, reason: line.reason || null, closeShort: line.closeShort }
       })
       return { lines, purchaseOrderId: form.purchaseOrderId || null }
     })

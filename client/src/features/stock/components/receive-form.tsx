@@ -12,7 +12,7 @@ import { useLengthUnit } from '../../../lib/shop-settings'
 import { stockPartOptions, useReceiveStock } from '../api/stock-queries'
 import { makeReceiveFormSchema, type ReceiveFormValues } from './receive-form-schema'
 
-const EMPTY_LINE = { partId: '', quantity: Number.NaN, stickLength: '', reason: '', closeShort: false }
+const EMPTY_LINE = { partId: '', quantity: Number.NaN, stickLength: '', lot: '', reason: '', closeShort: false }
 
 /**
  * The receiving form: one or more lines of one delivery, saved together or not at all. Against a
@@ -38,7 +38,7 @@ export function ReceiveForm({ openOrders = [], initialPurchaseOrderId = '' }: { 
       reference: form.getValues('reference'),
       purchaseOrderId: id,
       lines: due.length
-        ? due.map((l) => ({ partId: l.partId, quantity: l.outstanding, stickLength: l.stickLength === null ? '' : formatStickLength(l.stickLength, unit), reason: '', closeShort: false }))
+        ? due.map((l) => ({ partId: l.partId, quantity: l.outstanding, stickLength: l.stickLength === null ? '' : formatStickLength(l.stickLength, unit), lot: '', reason: '', closeShort: false }))
         : [EMPTY_LINE],
     })
   }
@@ -130,8 +130,19 @@ export function ReceiveForm({ openOrders = [], initialPurchaseOrderId = '' }: { 
                   ))}
                 </datalist>
               </Field>
+            ) : part?.lotTracked ? (
+              <Field label={`Supplier's lot (line ${i + 1})`} hint="As printed on the bag or box; scan it or type it" error={e?.lot?.message}>
+                <Input className="font-mono" aria-invalid={!!e?.lot} {...form.register(`lines.${i}.lot`)} />
+              </Field>
             ) : (
               <div aria-hidden className="hidden md:block" />
+            )}
+            {isPipe && part.lotTracked && (
+              <div className="md:col-span-4">
+                <Field label={`Supplier's lot (line ${i + 1})`} hint="As printed on the bundle; scan it or type it" error={e?.lot?.message}>
+                  <Input className="max-w-xs font-mono" aria-invalid={!!e?.lot} {...form.register(`lines.${i}.lot`)} />
+                </Field>
+              </div>
             )}
             {chosen && (
               <div className="md:col-span-3">
