@@ -10,6 +10,7 @@ import { seedDemoParts } from './catalog'
 import { seedDemoStock } from './stock'
 import { seedDemoSuppliers } from './suppliers'
 import { seedDemoShipping } from './shipping'
+import { seedDemoUnitWeights } from './unit-weights'
 
 const { bins, shopSettings, users } = tables
 
@@ -49,6 +50,7 @@ export async function seedDemo(db: Db) {
   await seedDemoStock(db)
   const [owner] = await db.select().from(users).where(eq(users.email, DEMO_USERS[0]!.email))
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
+  await seedDemoUnitWeights(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
   await seedDemoOrders(db, { id: owner!.id, name: owner!.name })
   // A rack of labelled bins, so the cut bench can start at once (a batch of nine units needs nine).
   const [anyBin] = await db.select({ id: bins.id }).from(bins).limit(1)
