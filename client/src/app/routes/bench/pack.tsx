@@ -8,6 +8,7 @@ import { ScanField } from '../../../components/ui/scan-field'
 import { Caution } from '../../../components/ui/section'
 import { meOptions } from '../../../features/auth/api/auth-queries'
 import { packOrderOptions, useLookup, useScanItem } from '../../../features/pack-bench/api/pack-queries'
+import { BagWeighing } from '../../../features/pack-bench/bag-weighing/bag-weighing'
 import { BuyingPanel } from '../../../features/pack-bench/components/buying-panel'
 import { LabelledPanel } from '../../../features/pack-bench/components/labelled-panel'
 import { OrderHeader } from '../../../features/pack-bench/components/order-header'
@@ -131,6 +132,7 @@ export function Component() {
             </div>
           )}
           <PackingList view={view} onError={setProblem} />
+          <BagWeighing orderId={view.order.id} open={Boolean(packing)} />
           {office && packing && view.shipment && !view.canLabel && <PartialApproval view={view} onError={setProblem} />}
           {!office && view.shipment?.partialApproval && <p className="text-lg">Partial shipment approved by {view.shipment.partialApproval.by.name}: {view.shipment.partialApproval.note}</p>}
           <PrintLinks view={view} />
