@@ -34,6 +34,8 @@ const ParcelSchema = z.object({
 const OrderRequestSchema = z.object({
   order: z.object({
     reference: z.string().nullish(),
+    /** A return label: the addresses are the outbound ones and the carrier swaps them. */
+    is_return: z.boolean().nullish(),
     from_address: AddressSchema,
     to_address: AddressSchema,
     shipments: z.array(z.object({ parcel: ParcelSchema, reference: z.string().nullish() })).min(1),
@@ -59,6 +61,7 @@ interface StoredOrder {
   reference: string | null
   international: boolean
   to_zip: string
+  is_return?: boolean
   shipments: StoredShipment[]
   idempotencyKey: string | null
   buyKey: string | null
@@ -98,6 +101,7 @@ function orderJson(order: StoredOrder) {
     object: 'Order',
     mode: 'test',
     reference: order.reference,
+    is_return: order.is_return === true,
     shipments: order.shipments.map((s) => ({
       id: s.id,
       object: 'Shipment',
@@ -202,7 +206,9 @@ export async function startCarrierFake(opts: { port: number; directory: string }
           id: newId('order'),
           reference: o.reference ?? null,
           international: o.from_address.country !== o.to_address.country,
-          to_zip: o.to_address.zip,
+          // A return goes to the outbound label's sender (the shop).
+          to_zip: o.is_return ? o.from_address.zip : o.to_address.zip,
+          is_return: o.is_return === true,
           shipments: o.shipments.map((s) => ({ id: newId('shp'), reference: s.reference ?? null, parcel: s.parcel, tracking_code: null, selected: null, refund_status: null })),
           idempotencyKey: key,
           buyKey: null,

@@ -25,6 +25,7 @@ import { customsRouter } from './features/pack/customs.routes'
 import { webhooksRouter } from './features/webhooks/webhooks.routes'
 import { releaseRouter, shortagesRouter } from './features/work-orders/work-orders.routes'
 import { reportsRouter } from './features/reports/reports.routes'
+import { returnsRouter } from './features/returns/returns.routes'
 import { tabletsRouter } from './features/tablets/tablets.routes'
 import { authenticate } from './lib/auth'
 import { benchActions } from './lib/client-actions'
@@ -65,6 +66,7 @@ export function createApp(deps: Deps) {
 
   // One line per feature router; each route inside declares who may call it.
   const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter, unitWeightsRouter, bagsRouter]
+  features.push(returnsRouter)
   for (const feature of features) {
     const { base, router } = feature(deps, routes)
     app.use(base, router)

@@ -3,6 +3,7 @@ import type { BIN_STATUSES, CUT_RUN_STATUSES, CUT_STICK_STATUSES } from './cut-r
 import type { REVISION_STATUSES } from './kits'
 import type { MAIL_STATUSES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
 import type { OFFCUT_STATUSES } from './stock'
+import type { RETURN_DECISIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
 
 /**
  * The one word for each state, on every screen, CSV file and e-mail. A state that an order's stage
@@ -58,6 +59,7 @@ export const ORDER_SOURCE_LABELS: Record<(typeof ORDER_SOURCES)[number], string>
   store: 'Web store',
   csv: 'CSV import',
   phone: 'Phone or counter',
+  replacement: 'Replacement for a return',
 }
 
 /** What each cut run status is called. */
@@ -102,6 +104,32 @@ export const MAIL_STATUS_LABELS: Record<(typeof MAIL_STATUSES)[number], string> 
   queued: 'Waiting to send',
   sent: 'Sent',
   failed: 'Gave up',
+}
+
+/**
+ * What each return status is called: waiting for the customer's parcel, back in the shop and to be
+ * decided, or the decision taken.
+ */
+export const RETURN_STATUS_LABELS: Record<(typeof RETURN_STATUSES)[number], string> = {
+  awaiting_parcel: 'Waiting for the parcel',
+  received: 'Back in the shop',
+  repair: 'Sent for repair',
+  replace: 'Replacement made',
+  refund: 'Refund noted',
+}
+
+/** What each decision on a return is called, as the buttons and the record say it. */
+export const RETURN_DECISION_LABELS: Record<(typeof RETURN_DECISIONS)[number], string> = {
+  repair: 'Repair',
+  replace: 'Replace',
+  refund: 'Refund noted',
+}
+
+/** Where a return label is, in words. */
+export const RETURN_LABEL_STATUS_LABELS: Record<(typeof RETURN_LABEL_STATUSES)[number], string> = {
+  none: 'No label yet',
+  buying: 'Buying the label',
+  bought: 'Label bought',
 }
 
 /** A status as it reads inside a sentence: "Order 1001 is partly shipped". */

@@ -33,6 +33,7 @@ const SOURCE_WORDS: Record<OrderSource, string> = {
   store: 'Received from the web store',
   csv: 'Imported from a CSV file',
   phone: 'Entered as a phone order',
+  replacement: 'Made as the replacement for a returned unit',
 }
 
 /** Appends one event to an order's timeline inside the caller's transaction. */

@@ -30,6 +30,11 @@ export interface ShipmentRequest {
   parcels: CarrierParcel[]
   /** Our reference (the order number), printed by the carrier where it has room. */
   reference: string
+  /**
+   * A return label: `from` and `to` stay as on the outbound label (the shop and the customer) and the
+   * carrier swaps them, so the customer sends the parcel back to the shop.
+   */
+  isReturn?: boolean
 }
 
 /** One of the carrier's services with its price for these parcels. */

@@ -106,6 +106,8 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
   function orderParams(request: ShipmentRequest, reference: string) {
     return {
       reference,
+      // The API's return flag: it swaps the two addresses on the label (its docs, "Return").
+      ...(request.isReturn ? { is_return: true } : {}),
       from_address: address(request.from),
       to_address: address(request.to),
       shipments: request.parcels.map((p, i) => ({ parcel: parcel(p), reference: `${request.reference}/${i + 1}` })),

@@ -13,7 +13,7 @@ import { lockShipment, nextSsccSerials } from '../pack/pack.queries'
 import { checkShipTo, packView, weighRequest } from '../pack/pack.service'
 import type { Carrier, CarrierLabel, TrackingUpdate } from './carrier'
 
-type LabelDeps = Pick<Deps, 'db' | 'pool' | 'carrier' | 'logger'>
+export type LabelDeps = Pick<Deps, 'db' | 'pool' | 'carrier' | 'logger'>
 
 const AddressJson = z.object({ name: z.string(), line1: z.string(), line2: z.string().nullable(), city: z.string(), region: z.string().nullable(), postalCode: z.string(), country: z.string(), phone: z.string().nullish() })
 
@@ -54,7 +54,7 @@ const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms))
  * tries (ten waiting buys cannot starve the pool the holder needs); a crashed holder's lock goes with
  * its connection.
  */
-async function withLabelLock<T>(deps: LabelDeps, name: string, fn: () => Promise<T>): Promise<T> {
+export async function withLabelLock<T>(deps: LabelDeps, name: string, fn: () => Promise<T>): Promise<T> {
   const deadline = Date.now() + 45_000
   for (;;) {
     const client = await deps.pool.connect()
