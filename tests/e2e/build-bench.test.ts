@@ -73,7 +73,7 @@ describe('the build bench, in Chromium', () => {
     expect(await page.getByRole('status').textContent()).toContain('Cut, ready to build')
     // Steps carry their cautions where the work happens.
     const drill = page.getByRole('listitem', { name: 'Step 3', exact: true })
-    expect(await drill.getByText(/Wear eye protection/).isVisible()).toBe(true)
+    expect(await drill.getByText(/wear eye protection/i).isVisible()).toBe(true)
 
     for (const step of steps) {
       const card = page.getByRole('listitem', { name: `Step ${step.position}`, exact: true })
