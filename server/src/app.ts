@@ -27,6 +27,7 @@ import { releaseRouter, shortagesRouter } from './features/work-orders/work-orde
 import { reportsRouter } from './features/reports/reports.routes'
 import { returnsRouter } from './features/returns/returns.routes'
 import { tabletsRouter } from './features/tablets/tablets.routes'
+import { buildLotsRouter, lotsRouter } from './features/lots/lots.routes'
 import { authenticate } from './lib/auth'
 import { benchActions } from './lib/client-actions'
 import { clientFiles, compressAnswers } from './lib/client-files'
@@ -65,7 +66,7 @@ export function createApp(deps: Deps) {
   app.use('/api', benchActions(deps.db))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter, unitWeightsRouter, bagsRouter]
+  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, buildLotsRouter, lotsRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter, unitWeightsRouter, bagsRouter]
   features.push(returnsRouter)
   for (const feature of features) {
     const { base, router } = feature(deps, routes)

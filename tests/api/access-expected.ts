@@ -14,7 +14,7 @@ import { ROLES, type Role } from '@kitwright/shared/roles'
  *   outbox, reports, small parts' unit weights (weighing counted samples); covers any bench when someone is out.
  * - cutter: the cut bench (published runs, ticks, damaged sticks, offcut labels, dropping pieces
  *   into bins and printing bin labels); reads the catalog, stock and settings.
- * - assembler: the build bench (steps, photos, leak test) and a unit's build record; reads as above.
+ * - assembler: the build bench (steps, photos, leak test, the lot of each lot-tracked part) and a unit's build record; reads as above.
  * - packer: the pack bench (verify, weigh hardware bags, quote, label, ship, void its own label, papers, customs) and a
  *   unit's build record; shipping an order short is the office's call, not the packer's.
  *
@@ -139,6 +139,12 @@ post   /api/build/:workOrderId/steps/:stepId/undo              -          y     
 post   /api/build/:workOrderId/photos/presign                  -          y     y       -      y         -
 post   /api/build/:workOrderId/photos/confirm                  -          y     y       -      y         -
 post   /api/build/:workOrderId/leak-tests                      -          y     y       -      y         -
+post   /api/build/:workOrderId/lots                            -          y     y       -      y         -
+post   /api/build/:workOrderId/lots/:fitId/undo                -          y     y       -      y         -
+get    /api/lots                                               -          y     y       -      -         -
+get    /api/lots/:lotId                                        -          y     y       -      -         -
+get    /api/lots/:lotId/recall.csv                             -          y     y       -      -         -
+post   /api/lots/:lotId/notify                                 -          y     y       -      -         -
 get    /api/units/:serial                                      -          y     y       -      y         y
 get    /api/public/unit-records/:token                         y          y     y       y      y         y
 
