@@ -83,4 +83,4 @@ CREATE INDEX "return_photos_return_id_index" ON "return_photos" USING btree ("re
 CREATE INDEX "returns_work_order_id_index" ON "returns" USING btree ("work_order_id");--> statement-breakpoint
 CREATE INDEX "returns_order_id_index" ON "returns" USING btree ("order_id");--> statement-breakpoint
 CREATE INDEX "returns_status_opened_at_index" ON "returns" USING btree ("status","opened_at");--> statement-breakpoint
-CREATE UNIQUE INDEX "returns_one_undecided_per_unit" ON "returns" USING btree ("work_order_id") WHERE "returns"."status"::text in ('awaiting_parcel', 'received');
+CREATE UNIQUE INDEX "returns_one_undecided_per_unit" ON "returns" USING btree ("work_order_id") WHERE "returns"."status" in ('awaiting_parcel', 'received');

@@ -79,7 +79,7 @@ export const returns = pgTable(
     index().on(t.orderId),
     index().on(t.status, t.openedAt),
     // One undecided return per unit at a time.
-    uniqueIndex('returns_one_undecided_per_unit').on(t.workOrderId).where(sql`${t.status}::text in ('awaiting_parcel', 'received')`),
+    uniqueIndex('returns_one_undecided_per_unit').on(t.workOrderId).where(sql`${t.status} in ('awaiting_parcel', 'received')`),
     check('returns_buying_has_key', sql`${t.labelStatus}::text = 'none' or ${t.labelKey} is not null`),
     check('returns_bought_has_tracking', sql`${t.labelStatus}::text <> 'bought' or ${t.trackingNumber} is not null`),
     check('returns_decided_has_decision', sql`${t.status}::text in ('awaiting_parcel', 'received') = (${t.decision} is null)`),
