@@ -167,7 +167,10 @@ try {
   console.log(`API process ${api.pid} on ${base}; ${connections} connections, ${duration} s per route after a 1 s warm-up\n`)
 
   const planner = DEMO_USERS.find((u) => u.role === 'planner')!
-  const signIn = await fetch(`${base}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: planner.email, password: planner.password }) })
+  const signIn = await fetch(
+    `${base}/api/auth/sign-in`,
+    { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: planner.email, password: planner.password }) },
+  )
   if (signIn.status !== 200) throw new Error(`signing in as ${planner.email} answered ${signIn.status}: ${await signIn.text()}`)
   const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
   const sku = DEMO_PART_SKUS.elbowHalfInch
@@ -196,7 +199,13 @@ try {
       },
     })
     const ts = Math.floor(now.getTime() / 1000)
-    return { ...req, method: 'POST', path: '/api/webhooks/store', body, headers: { ...req.headers, 'content-type': 'application/json', 'x-store-timestamp': String(ts), 'x-store-signature': signStoreDelivery(webhookSecret, ts, body) } }
+    return {
+      ...req,
+      method: 'POST',
+      path: '/api/webhooks/store',
+      body,
+      headers: { ...req.headers, 'content-type': 'application/json', 'x-store-timestamp': String(ts), 'x-store-signature': signStoreDelivery(webhookSecret, ts, body) },
+    }
   }
 
   const rows: Figures[] = []

@@ -44,14 +44,38 @@ try {
   await db.insert(stockMoves).values(made.map((p, i) => ({ partId: p.id, kind: 'receive' as const, quantity: i % 3 === 0 ? 50 : 5000 })))
   const kit = await createKit(db, { sku: 'BENCH-PACK', name: 'Bench pack', storeProductId: null, description: null })
   const rev = kit.revisions[0]!.id
-  const step = { text: 'Bag it.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null, freeOrder: false, outOfLimitsRework: false }
+  const step = {
+    text: 'Bag it.',
+    caution: null,
+    photoRequired: false,
+    measurementRequired: false,
+    measurementUnit: null,
+    measurementMin: null,
+    measurementMax: null,
+    freeOrder: false,
+    outOfLimitsRework: false,
+  }
   await saveRevision(db, rev, { notes: null, frame: null, leakTest: null, bomLines: made.map((p) => ({ partId: p.id, quantity: 1, note: null })), cutParts: [], buildSteps: [step] })
   const [owner] = await db.select().from(users).where(eq(users.role, 'admin')).limit(1)
   await releaseRevision(db, rev, owner!)
   const placed = new Date()
   const inserted = await db
     .insert(orders)
-    .values(Array.from({ length: ORDERS }, (_, i) => ({ number: `B-${i}`, source: 'phone' as const, customerName: 'Bench', customerEmail: 'bench@orders.example', shipName: 'Bench', shipLine1: '1 Bench Row', shipCity: 'Benchton', shipPostalCode: '00000', shipCountry: 'US', placedAt: placed })))
+    .values(Array.from(
+      { length: ORDERS },
+      (_, i) => ({
+        number: `B-${i}`,
+        source: 'phone' as const,
+        customerName: 'Bench',
+        customerEmail: 'bench@orders.example',
+        shipName: 'Bench',
+        shipLine1: '1 Bench Row',
+        shipCity: 'Benchton',
+        shipPostalCode: '00000',
+        shipCountry: 'US',
+        placedAt: placed,
+      }),
+    ))
     .returning({ id: orders.id })
   await db.insert(orderLines).values(inserted.map((o) => ({ orderId: o.id, lineNo: 1, kitId: kit.id, sku: 'BENCH-PACK', description: 'Bench pack', quantity: 1, unitPriceCents: 100 })))
   for (const o of inserted.slice(0, ORDERS / 2)) await db.transaction((tx) => releaseOrder(tx, o.id, { allowShort: true }, null))

@@ -98,7 +98,13 @@ deliveries.push({
   shipTo: { ...shipTo(99, moved.type === 'order.paid' ? moved.order.customer.name : 'Customer'), line2: 'Back door, by the greenhouse' },
 })
 const cancelled = orders[2]!
-const cancel: StoreEventInput = { eventId: `evt_${randomUUID()}`, type: 'order.cancelled', occurredAt: new Date().toISOString(), orderNumber: cancelled.orderNumber, reason: 'customer asked to cancel' }
+const cancel: StoreEventInput = {
+  eventId: `evt_${randomUUID()}`,
+  type: 'order.cancelled',
+  occurredAt: new Date().toISOString(),
+  orderNumber: cancelled.orderNumber,
+  reason: 'customer asked to cancel',
+}
 deliveries.push(cancel, cancel)
 
 async function post(event: StoreEventInput) {

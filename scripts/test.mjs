@@ -30,7 +30,14 @@ onCleanup(() => rmSync(testData, { recursive: true, force: true }))
 
 step('starting the test S3, SMTP, carrier and payment stand-ins')
 await startChild('storage-fake', tsxBin, ['storage-fake/index.ts'], {
-  env: { FAKE_DATA_DIR: testData, FAKE_S3_PORT: String(testPorts.s3), FAKE_SMTP_PORT: String(testPorts.smtp), FAKE_CARRIER_PORT: String(testPorts.carrier), FAKE_PAYMENTS_PORT: String(testPorts.payments), S3_BUCKET: bucket },
+  env: {
+    FAKE_DATA_DIR: testData,
+    FAKE_S3_PORT: String(testPorts.s3),
+    FAKE_SMTP_PORT: String(testPorts.smtp),
+    FAKE_CARRIER_PORT: String(testPorts.carrier),
+    FAKE_PAYMENTS_PORT: String(testPorts.payments),
+    S3_BUCKET: bucket,
+  },
   readyWhen: /^ready$/,
   quiet: true,
 })

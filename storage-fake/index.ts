@@ -16,7 +16,10 @@ const bucket = process.env.S3_BUCKET ?? 'kitwright'
 // origins, and speaks HTTPS when the app does.
 const s3Host = process.env.FAKE_S3_HOST ?? '127.0.0.1'
 const allowedOrigins = (process.env.FAKE_S3_ALLOWED_ORIGINS ?? '').split(',').filter(Boolean)
-const tlsFiles = process.env.FAKE_S3_TLS_CERT_FILE && process.env.FAKE_S3_TLS_KEY_FILE ? { cert: readFileSync(process.env.FAKE_S3_TLS_CERT_FILE), key: readFileSync(process.env.FAKE_S3_TLS_KEY_FILE) } : undefined
+const tlsFiles = process.env.FAKE_S3_TLS_CERT_FILE && process.env.FAKE_S3_TLS_KEY_FILE ? {
+  cert: readFileSync(process.env.FAKE_S3_TLS_CERT_FILE),
+  key: readFileSync(process.env.FAKE_S3_TLS_KEY_FILE),
+} : undefined
 
 const s3 = await startS3Fake({ port: s3Port, directory: path.join(dir, 's3'), bucket, address: s3Host, allowedOrigins, tls: tlsFiles })
 const smtp = await startSmtpCatcher({ port: smtpPort, directory: path.join(dir, 'mail') })

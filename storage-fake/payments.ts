@@ -133,7 +133,17 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions) {
         if (session.payment_status !== 'paid') {
           Object.assign(session, { payment_status: 'paid', status: 'complete', payment_intent: token('pi') })
           const eventId = token('evt')
-          const payload = JSON.stringify({ id: eventId, object: 'event', type: 'checkout.session.completed', created: Math.floor(Date.now() / 1000), data: { object: session }, livemode: false, api_version: null, pending_webhooks: store.endpoints.length, request: null })
+          const payload = JSON.stringify({
+            id: eventId,
+            object: 'event',
+            type: 'checkout.session.completed',
+            created: Math.floor(Date.now() / 1000),
+            data: { object: session },
+            livemode: false,
+            api_version: null,
+            pending_webhooks: store.endpoints.length,
+            request: null,
+          })
           store.events[eventId] = { id: eventId, payload }
           save()
           void deliver(eventId)

@@ -32,14 +32,20 @@ const EnvSchema = z.object({
   MAIL_FROM: z.string().email('MAIL_FROM must be an e-mail address, e.g. orders@your-shop.example').default('orders@kitwright.example'),
   // The carrier (CARRIER_API_KEY, CARRIER_API_URL, CARRIER_WEBHOOK_SECRET) is read by features/shipping/easypost-carrier.ts.
   /** The address people reach the app by: every e-mail link, signed record link and QR code starts with it. */
-  PUBLIC_URL: origin('PUBLIC_URL must be the address people open Kitwright by (http:// or https://, host and port, no path), e.g. https://kitwright.your-shop.example or http://192.168.1.20:3000').optional(),
+  PUBLIC_URL: origin(
+    'PUBLIC_URL must be the address people open Kitwright by (http:// or https://, host and port, no path), ' +
+      'e.g. https://kitwright.your-shop.example or http://192.168.1.20:3000',
+  ).optional(),
   /** The photo store's address as browsers and tablets reach it (presigned URLs); S3_ENDPOINT is where the server reaches it. */
   S3_PUBLIC_URL: origin('S3_PUBLIC_URL must be the photo store\'s address as tablets reach it (http:// or https://, host and port, no path), e.g. http://192.168.1.20:54330').optional(),
   /** Which proxies in front of the app to believe about the client's address and X-Forwarded-Proto (Express's `trust proxy`). */
   TRUST_PROXY: z.string().default('loopback').transform((v, ctx) => {
     const trust = parseTrustProxy(v)
     if (trust === null) {
-      ctx.addIssue({ code: 'custom', message: 'TRUST_PROXY must be false, true, a number of proxy hops (e.g. 1), or a comma-separated list of proxy addresses or subnets (e.g. 10.0.0.5 or loopback,10.0.0.0/8)' })
+      ctx.addIssue({
+        code: 'custom',
+        message: 'TRUST_PROXY must be false, true, a number of proxy hops (e.g. 1), or a comma-separated list of proxy addresses or subnets (e.g. 10.0.0.5 or loopback,10.0.0.0/8)',
+      })
       return z.NEVER
     }
     return trust
@@ -54,9 +60,21 @@ const EnvSchema = z.object({
   /** `false` when the job workers run as their own process (server/src/worker.ts). */
   RUN_WORKERS: z.enum(['true', 'false']).default('true'),
 }).superRefine((env, ctx) => {
-  if (!!env.TLS_CERT_FILE !== !!env.TLS_KEY_FILE) ctx.addIssue({ code: 'custom', path: [env.TLS_CERT_FILE ? 'TLS_KEY_FILE' : 'TLS_CERT_FILE'], message: 'TLS_CERT_FILE and TLS_KEY_FILE go together: set both (the certificate and its private key, PEM) or neither for plain HTTP' })
-  if (env.TLS_CA_FILE && !env.TLS_CERT_FILE) ctx.addIssue({ code: 'custom', path: ['TLS_CA_FILE'], message: 'TLS_CA_FILE is only used with TLS_CERT_FILE and TLS_KEY_FILE: set those too, or unset TLS_CA_FILE' })
-  if ((env.KITWRIGHT_HTTPS === '1' || env.KITWRIGHT_HTTPS === 'true') && !env.TLS_CERT_FILE) ctx.addIssue({ code: 'custom', path: ['KITWRIGHT_HTTPS'], message: 'KITWRIGHT_HTTPS is set but TLS_CERT_FILE and TLS_KEY_FILE are not: start with `npm start -- --https` (it makes them in .data/tls/) or give your own certificate and key' })
+  if (!!env.TLS_CERT_FILE !== !!env.TLS_KEY_FILE) ctx.addIssue({
+    code: 'custom',
+    path: [env.TLS_CERT_FILE ? 'TLS_KEY_FILE' : 'TLS_CERT_FILE'],
+    message: 'TLS_CERT_FILE and TLS_KEY_FILE go together: set both (the certificate and its private key, PEM) or neither for plain HTTP',
+  })
+  if (env.TLS_CA_FILE && !env.TLS_CERT_FILE) ctx.addIssue({
+    code: 'custom',
+    path: ['TLS_CA_FILE'],
+    message: 'TLS_CA_FILE is only used with TLS_CERT_FILE and TLS_KEY_FILE: set those too, or unset TLS_CA_FILE',
+  })
+  if ((env.KITWRIGHT_HTTPS === '1' || env.KITWRIGHT_HTTPS === 'true') && !env.TLS_CERT_FILE) ctx.addIssue({
+    code: 'custom',
+    path: ['KITWRIGHT_HTTPS'],
+    message: 'KITWRIGHT_HTTPS is set but TLS_CERT_FILE and TLS_KEY_FILE are not: start with `npm start -- --https` (it makes them in .data/tls/) or give your own certificate and key',
+  })
   if (env.NODE_ENV !== 'production') return
   if (!env.STORE_WEBHOOK_SECRET) ctx.addIssue({ code: 'custom', path: ['STORE_WEBHOOK_SECRET'], message: 'STORE_WEBHOOK_SECRET is required in production (the secret the web store signs with)' })
   if (!env.SMTP_URL) ctx.addIssue({ code: 'custom', path: ['SMTP_URL'], message: 'SMTP_URL is required in production (the relay customer e-mail goes through)' })

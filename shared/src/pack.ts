@@ -13,7 +13,12 @@ export type ShipmentStatus = z.infer<typeof ShipmentStatusSchema>
 
 /** A scanned bin code or serial at the pack bench, e.g. `BIN-0004` or `U-1001`. */
 export const PackCodeSchema = z.object({
-  code: z.string({ error: 'Scan a bin or type a serial' }).trim().min(1, 'Scan a bin or type a serial').max(60, 'That code is too long to be a bin or serial').regex(PRINTABLE, 'That code has characters no label carries; scan again'),
+  code: z
+    .string({ error: 'Scan a bin or type a serial' })
+    .trim()
+    .min(1, 'Scan a bin or type a serial')
+    .max(60, 'That code is too long to be a bin or serial')
+    .regex(PRINTABLE, 'That code has characters no label carries; scan again'),
 })
 /** A scanned code. */
 export type PackCode = z.infer<typeof PackCodeSchema>
@@ -23,7 +28,14 @@ export const PackItemKeySchema = z.object({ itemKey: z.string().trim().min(1, 'S
 
 /** A planner's approval to ship what is confirmed and back-order the rest, with why. */
 export const ApprovePartialSchema = z
-  .object({ note: z.string({ error: 'Say why the rest may follow later' }).trim().min(3, 'Say why the rest may follow later').max(500, 'Use at most 500 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only') })
+  .object({
+    note: z
+      .string({ error: 'Say why the rest may follow later' })
+      .trim()
+      .min(3, 'Say why the rest may follow later')
+      .max(500, 'Use at most 500 characters')
+      .regex(PRINTABLE, 'Use letters, digits and punctuation only'),
+  })
   .strict()
 /** A planner's approval of a partial shipment. */
 export type ApprovePartial = z.infer<typeof ApprovePartialSchema>
@@ -57,7 +69,14 @@ export type BuyLabel = z.infer<typeof BuyLabelSchema>
 
 /** Void the label, with why (kept in the audit and on the order's timeline). */
 export const VoidLabelSchema = z
-  .object({ reason: z.string({ error: 'Say why the label is voided' }).trim().min(3, 'Say why the label is voided').max(500, 'Use at most 500 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only') })
+  .object({
+    reason: z
+      .string({ error: 'Say why the label is voided' })
+      .trim()
+      .min(3, 'Say why the label is voided')
+      .max(500, 'Use at most 500 characters')
+      .regex(PRINTABLE, 'Use letters, digits and punctuation only'),
+  })
   .strict()
 /** Void the label, with why. */
 export type VoidLabel = z.infer<typeof VoidLabelSchema>

@@ -19,7 +19,11 @@ export const PAYMENT_LINK_STATUSES = ['creating', 'open', 'paid', 'failed'] as c
 export const RecordPaymentSchema = z
   .object({
     method: z.enum(['card_by_phone', 'cash', 'bank_transfer'], { error: 'Choose how the customer paid: card by phone, cash or bank transfer' }),
-    amountCents: z.number({ error: 'Enter the amount paid' }).int('Enter the amount in whole cents').positive('The amount must be more than zero').max(100_000_000, 'That amount is too large; check it'),
+    amountCents: z
+      .number({ error: 'Enter the amount paid' })
+      .int('Enter the amount in whole cents')
+      .positive('The amount must be more than zero')
+      .max(100_000_000, 'That amount is too large; check it'),
     reference: z.string().trim().max(200, 'Keep the reference under 200 characters').nullish().transform((v) => v || null),
   })
   .strict()

@@ -59,7 +59,17 @@ async function starvedStoreKit(productId: string, stock: number, perUnit: number
     leakTest: null,
     bomLines: [{ partId: part.id, quantity: perUnit, note: null }],
     cutParts: [],
-    buildSteps: [{ text: 'Bag the switches.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null, freeOrder: false, outOfLimitsRework: false }],
+    buildSteps: [{
+      text: 'Bag the switches.',
+      caution: null,
+      photoRequired: false,
+      measurementRequired: false,
+      measurementUnit: null,
+      measurementMin: null,
+      measurementMax: null,
+      freeOrder: false,
+      outOfLimitsRework: false,
+    }],
   })
   const [owner] = await t.db.select().from(users).where(eq(users.role, 'admin')).limit(1)
   await releaseRevision(t.db, rev, owner!)

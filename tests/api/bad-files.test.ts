@@ -53,7 +53,14 @@ function malformedFiles(): Record<string, string> {
 describe('CSV imports refuse malformed files', () => {
   it('answers every import and preview in the route table without a 5xx, in the error shape, writing nothing', async () => {
     const imports = built.routes.records.filter((r) => r.method === 'post' && /\/(import|import\/preview|receive\/csv|receive\/preview)$/.test(r.path))
-    expect(imports.map((r) => r.path).sort()).toEqual(['/api/orders/import', '/api/orders/import/preview', '/api/parts/import', '/api/parts/import/preview', '/api/stock/receive/csv', '/api/stock/receive/preview'])
+    expect(imports.map((r) => r.path).sort()).toEqual([
+      '/api/orders/import',
+      '/api/orders/import/preview',
+      '/api/parts/import',
+      '/api/parts/import/preview',
+      '/api/stock/receive/csv',
+      '/api/stock/receive/preview',
+    ])
     const wrong: string[] = []
     let calls = 0
     for (const route of imports) {

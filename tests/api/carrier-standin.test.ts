@@ -81,7 +81,11 @@ describe('the carrier stand-in, through the shipping API SDK and the carrier ada
     const carrier = carrierAt(fake.url)
     const key = randomUUID()
     const ref = await carrier.prepareLabel(request, key)
-    await expect(carrier.buyLabel(ref, { carrier: STANDIN_CARRIER, service: 'overnight' }, key)).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/The carrier refused the label: No service "overnight"/) })
+    await expect(carrier.buyLabel(
+      ref,
+      { carrier: STANDIN_CARRIER, service: 'overnight' },
+      key,
+    )).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/The carrier refused the label: No service "overnight"/) })
     await expect(carrier.quote({ ...request, parcels: [{ ...request.parcels[0]!, weightGrams: 80_000 }] })).rejects.toMatchObject({ status: 409, message: expect.stringMatching(/70 kg/) })
     await expect(carrierAt('http://127.0.0.1:9/v2/').quote(request)).rejects.toMatchObject({ status: 503, message: expect.stringMatching(/could not be reached/) })
   })

@@ -167,7 +167,10 @@ describe('the shop identity in the settings', () => {
     expect(ShopIdentitySchema.parse(res.body)).toMatchObject({ mailFromName: 'Ada at Mistwell', mailFromAddress: 'hello@mistwell.example', replyToAddress: 'ada.workbench@mistwell.example' })
     const [audit] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity')).orderBy(desc(auditEvents.at)).limit(1)
     expect(audit?.summary).toBe("Changed the shop's identity: sender name, sender e-mail, reply-to e-mail, ship-from address")
-    expect(audit?.data).toMatchObject({ mailFromName: { from: 'Mistwell Tote Works', to: 'Ada at Mistwell' }, replyToAddress: { from: DEMO_MAIL_IDENTITY.replyToAddress, to: 'ada.workbench@mistwell.example' } })
+    expect(audit?.data).toMatchObject({
+      mailFromName: { from: 'Mistwell Tote Works', to: 'Ada at Mistwell' },
+      replyToAddress: { from: DEMO_MAIL_IDENTITY.replyToAddress, to: 'ada.workbench@mistwell.example' },
+    })
 
     await deliver(built.app, paidEvent('MW-ID-2001'))
     const { parsed } = await sentMail('MW-ID-2001', 'order_received')
@@ -194,7 +197,10 @@ describe('every link in every e-mail starts with the public address', () => {
       expect(res.status, JSON.stringify(res.body)).toBe(200)
       v = PackViewSchema.parse(res.body)
     }
-    const labelled = await packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'ground', parcels: v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null })) })
+    const labelled = await packer.post(`/api/pack/orders/${order.id}/label`).send({
+      service: 'ground',
+      parcels: v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null })),
+    })
     expect(labelled.status, JSON.stringify(labelled.body)).toBe(201)
     const shipped = await packer.post(`/api/pack/orders/${order.id}/ship`).send({})
     expect(shipped.status, JSON.stringify(shipped.body)).toBe(200)

@@ -81,7 +81,15 @@ describe('a US → Canada shipment', () => {
   it('gets a CN 23 with every part line and its totals, printed with the label', async () => {
     // Four spare cup-and-collar packs at $79.00 and two spare sprayer packs at $39.50, to Toronto.
     const { order, units } = await insertPackOrder(t.db, [{ kitSku: 'MW-SPARE-CUP12', quantity: 4 }, { kitSku: 'MW-SPARE-SPR6', quantity: 2 }])
-    await t.db.update(orders).set({ shipName: 'Noor Vantreight', shipLine1: '41 Quillfeather Row', shipCity: 'Toronto', shipRegion: 'ON', shipPostalCode: 'M5V 2T6', shipCountry: 'CA', currency: 'USD' }).where(eq(orders.id, order.id))
+    await t.db.update(orders).set({
+      shipName: 'Noor Vantreight',
+      shipLine1: '41 Quillfeather Row',
+      shipCity: 'Toronto',
+      shipRegion: 'ON',
+      shipPostalCode: 'M5V 2T6',
+      shipCountry: 'CA',
+      currency: 'USD',
+    }).where(eq(orders.id, order.id))
     const lines = await t.db.select().from(orderLines).where(eq(orderLines.orderId, order.id))
     for (const l of lines) await t.db.update(orderLines).set({ unitPriceCents: l.sku === 'MW-SPARE-CUP12' ? 7900 : 3950 }).where(eq(orderLines.id, l.id))
 
@@ -107,7 +115,18 @@ describe('a US → Canada shipment', () => {
     const [page, ...rest] = pagesText(bytes)
     expect(rest).toEqual([])
     const flat = page!.replace(/\s+/g, ' ')
-    for (const s of ['CUSTOMS DECLARATION', 'CN 23', 'Parcel 1 of 1', 'Mistwell Tote Works', 'Noor Vantreight', 'M5V 2T6', 'CANADA', 'Sale of goods', `order ${order.number}`, 'Sender\'s signature']) expect(flat).toContain(s)
+    for (const s of [
+      'CUSTOMS DECLARATION',
+      'CN 23',
+      'Parcel 1 of 1',
+      'Mistwell Tote Works',
+      'Noor Vantreight',
+      'M5V 2T6',
+      'CANADA',
+      'Sale of goods',
+      `order ${order.number}`,
+      'Sender\'s signature',
+    ]) expect(flat).toContain(s)
     const [parcel] = await t.db.select().from(parcels).where(eq(parcels.shipmentId, labelled.shipment!.id))
     expect(flat).toContain(`tracking ${parcel!.trackingNumber ?? labelled.shipment!.trackingNumber}`)
     // Each line's value by hand: a cup pack's 79.00 split by the parts' cost, cups 12 × 0.12 = 1.44 and collars

@@ -128,7 +128,10 @@ describe('fuzzing every JSON endpoint from the route table', () => {
         const params = route.path.match(/:[a-zA-Z]+/g) ?? []
         const others = allowedRoles(route).filter((r) => r !== 'admin')
         const caller = fc.oneof({ weight: Math.max(2, others.length * 2), arbitrary: fc.constant<Role>('admin') }, ...others.map((r) => ({ weight: 1, arbitrary: fc.constant<Role>(r) })))
-        const payload = route.method === 'get' ? fc.constant(undefined) : fc.oneof({ weight: 9, arbitrary: arb.body.map((b) => ({ json: b })) }, { weight: 1, arbitrary: arb.rawBody.map((raw) => ({ raw })) })
+        const payload = route.method === 'get' ? fc.constant(undefined) : fc.oneof(
+          { weight: 9, arbitrary: arb.body.map((b) => ({ json: b })) },
+          { weight: 1, arbitrary: arb.rawBody.map((raw) => ({ raw })) },
+        )
         const input = fc.record({ caller, params: fc.tuple(...params.map(() => arb.param)), query: arb.query, payload })
 
         const routeStarted = Date.now()
@@ -190,7 +193,10 @@ describe('fuzzing every JSON endpoint from the route table', () => {
     const writes = built.routes.records.filter((r) => r.method !== 'get')
     for (const route of writes) {
       const before = await probe.read()
-      const res = await request(server)[route.method](route.path.replace(/:[a-zA-Z]+/g, '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11')).set('Cookie', cookies.get('admin')!).set('Content-Type', 'application/json').send(huge)
+      const res = await request(server)[route.method](route.path.replace(
+        /:[a-zA-Z]+/g,
+        '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11',
+      )).set('Cookie', cookies.get('admin')!).set('Content-Type', 'application/json').send(huge)
       expect(res.status, `${route.method} ${route.path}`).toBe(413)
       expect(ApiErrorBodySchema.parse(res.body).error.message).toBe('The request body is too large')
       expect(changedTables(before, await probe.read())).toEqual([])

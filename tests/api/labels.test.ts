@@ -186,7 +186,10 @@ describe('voiding a label', () => {
 
 describe('tracking events from the carrier', () => {
   const secret = process.env.CARRIER_WEBHOOK_SECRET ?? ''
-  const post = (body: string, signature = signCarrierEvent(secret, body)) => request(built.app).post('/api/shipments/tracking-events').set('content-type', 'application/json').set('x-hmac-signature', signature).send(body)
+  const post = (
+    body: string,
+    signature = signCarrierEvent(secret, body),
+  ) => request(built.app).post('/api/shipments/tracking-events').set('content-type', 'application/json').set('x-hmac-signature', signature).send(body)
 
   it('shows in transit and delivered on the order, once per event, and refuses a bad signature', async () => {
     expect(secret.length).toBeGreaterThan(0)

@@ -231,7 +231,11 @@ describe('CSV import of orders', () => {
 describe('CSV export of orders', () => {
   it('neutralises cells a spreadsheet would run as formulas, and imports back as all skipped', async () => {
     await postOrder(buildNewOrder({ number: 'EXP-1', customer: { name: '=HYPERLINK("http://x.example","pay")', email: 'exp@leafmail.example' }, note: '+1 call first' }))
-    await postOrder(buildNewOrder({ number: 'EXP-2', customer: { name: '@SUM(A1)', email: 'exp2@leafmail.example' }, shipTo: { name: '-Dock 4', line1: '5 Quay St', city: 'Eelmouth', postalCode: '02101', country: 'US' } }))
+    await postOrder(buildNewOrder({
+      number: 'EXP-2',
+      customer: { name: '@SUM(A1)', email: 'exp2@leafmail.example' },
+      shipTo: { name: '-Dock 4', line1: '5 Quay St', city: 'Eelmouth', postalCode: '02101', country: 'US' },
+    }))
     const res = await admin.get('/api/orders/export.csv?q=EXP-&sort=number&dir=asc')
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toContain('text/csv')

@@ -88,7 +88,15 @@ describe('the 4 × 6 in shipping label', () => {
     }
     removeDir(dir)
     const words = text(label).text
-    for (const s of ['Mistwell Tote Works', '12 Foundry Lane', units[0]!.wo.serial, 'GROUND', labelled.shipment!.trackingNumber!, labelled.order.shipTo.line1, 'Parcel 1 of 2']) expect(words).toContain(s)
+    for (const s of [
+      'Mistwell Tote Works',
+      '12 Foundry Lane',
+      units[0]!.wo.serial,
+      'GROUND',
+      labelled.shipment!.trackingNumber!,
+      labelled.order.shipTo.line1,
+      'Parcel 1 of 2',
+    ]) expect(words).toContain(s)
   })
 })
 

@@ -208,7 +208,11 @@ describe('parts: CSV import and export', () => {
 
   it('imports a good file, then a second import updates by SKU and keeps columns the file leaves out', async () => {
     const { agent } = await signedInAs(app, t, 'admin')
-    const first = [`${HEADER},supplier,shelf_location`, 'PVC-050-S40,Pipe,stock_length,3.48,730,1/2,0.840 in,10 ft;20 ft,Test Pipe Yard,RACK-P1', 'FIT-ELB-050,Elbow,hardware,$0.42,11,,,,Test Pipe Yard,A1-01'].join('\r\n')
+    const first = [
+      `${HEADER},supplier,shelf_location`,
+      'PVC-050-S40,Pipe,stock_length,3.48,730,1/2,0.840 in,10 ft;20 ft,Test Pipe Yard,RACK-P1',
+      'FIT-ELB-050,Elbow,hardware,$0.42,11,,,,Test Pipe Yard,A1-01',
+    ].join('\r\n')
     const res = await agent.post('/api/parts/import').send({ csv: first })
     expect(res.status).toBe(200)
     expect(PartImportResultSchema.parse(res.body)).toEqual({ created: 2, updated: 0 })

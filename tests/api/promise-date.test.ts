@@ -31,7 +31,17 @@ async function packKit(stock: number, leadTimeDays: number | null) {
   if (stock > 0) await t.db.insert(stockMoves).values({ partId: part.id, kind: 'receive', quantity: stock })
   const kit = await createKit(t.db, { sku: `TST-PACK-${part.sku.slice(4)}`, name: 'Test pack', storeProductId: null, description: null })
   const rev = kit.revisions[0]!.id
-  const step = { text: 'Bag the valve.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null, freeOrder: false, outOfLimitsRework: false }
+  const step = {
+    text: 'Bag the valve.',
+    caution: null,
+    photoRequired: false,
+    measurementRequired: false,
+    measurementUnit: null,
+    measurementMin: null,
+    measurementMax: null,
+    freeOrder: false,
+    outOfLimitsRework: false,
+  }
   await saveRevision(t.db, rev, { notes: null, frame: null, leakTest: null, bomLines: [{ partId: part.id, quantity: 1, note: null }], cutParts: [], buildSteps: [step] })
   const [owner] = await t.db.select().from(users).where(eq(users.role, 'admin')).limit(1)
   await releaseRevision(t.db, rev, owner!)

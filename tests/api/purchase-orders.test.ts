@@ -54,7 +54,12 @@ async function counts() {
     moves: await t.db.$count(stockMoves),
     suppliers: await t.db.$count(suppliers),
     supplierParts: await t.db.$count(supplierParts),
-    lines: await t.db.select({ id: purchaseOrderLines.id, quantity: purchaseOrderLines.quantity, price: purchaseOrderLines.unitPriceCents, received: purchaseOrderLines.received }).from(purchaseOrderLines).orderBy(purchaseOrderLines.id),
+    lines: await t.db.select({
+      id: purchaseOrderLines.id,
+      quantity: purchaseOrderLines.quantity,
+      price: purchaseOrderLines.unitPriceCents,
+      received: purchaseOrderLines.received,
+    }).from(purchaseOrderLines).orderBy(purchaseOrderLines.id),
   }
 }
 
@@ -290,7 +295,10 @@ describe('a packing list against a purchase order', () => {
     expect(ApiErrorBodySchema.parse(over.body).error.fields?.['rows.2.reason']).toMatch(/1 over/)
     expect(await counts()).toEqual(before)
 
-    const ok = await planner.post('/api/stock/receive/csv').send({ csv: `sku,quantity,supplier,purchase_order,reason\n${part.sku},16,Ashcombe Fittings,${po.number},Supplier sent a full box\n`, defaultReference: 'PL-1' })
+    const ok = await planner.post('/api/stock/receive/csv').send({
+      csv: `sku,quantity,supplier,purchase_order,reason\n${part.sku},16,Ashcombe Fittings,${po.number},Supplier sent a full box\n`,
+      defaultReference: 'PL-1',
+    })
     expect(ok.status, JSON.stringify(ok.body)).toBe(201)
     const after = PurchaseOrderSchema.parse((await planner.get(`/api/purchase-orders/${po.id}`)).body)
     expect(after).toMatchObject({ status: 'received' })

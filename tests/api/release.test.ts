@@ -3,7 +3,22 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { NewOrderSchema, OrderDetailSchema, type NewOrderDraft } from '@kitwright/shared/orders'
 import { ReleasePreviewSchema, ReleaseResultSchema, ShortagesSchema } from '@kitwright/shared/work-orders'
-import { bomLines, cutParts, kitRevisions, kits, orderLines, orders, parts, purchaseOrderLines, purchaseOrders, shopSettings, stockMoves, suppliers, users, workOrders } from '../../server/src/db/schema/index'
+import {
+  bomLines,
+  cutParts,
+  kitRevisions,
+  kits,
+  orderLines,
+  orders,
+  parts,
+  purchaseOrderLines,
+  purchaseOrders,
+  shopSettings,
+  stockMoves,
+  suppliers,
+  users,
+  workOrders,
+} from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/seeds/demo'
 import { createKit, releaseRevision, saveRevision } from '../../server/src/features/kits/kits.service'
 import { createOrder } from '../../server/src/features/orders/orders.service'
@@ -71,7 +86,17 @@ async function starvedKit(stock: number, perUnit: number) {
     leakTest: null,
     bomLines: [{ partId: part.id, quantity: perUnit, note: null }],
     cutParts: [],
-    buildSteps: [{ text: 'Bag the valves.', caution: null, photoRequired: false, measurementRequired: false, measurementUnit: null, measurementMin: null, measurementMax: null, freeOrder: false, outOfLimitsRework: false }],
+    buildSteps: [{
+      text: 'Bag the valves.',
+      caution: null,
+      photoRequired: false,
+      measurementRequired: false,
+      measurementUnit: null,
+      measurementMin: null,
+      measurementMax: null,
+      freeOrder: false,
+      outOfLimitsRework: false,
+    }],
   })
   const [owner] = await t.db.select().from(users).where(eq(users.role, 'admin')).limit(1)
   await releaseRevision(t.db, rev, owner!)
@@ -284,7 +309,10 @@ describe('the shortages page', () => {
     }
     let cut = 0
     for (const w of await t.db.select({ rev: workOrders.kitRevisionId }).from(workOrders).where(eq(workOrders.status, 'waiting_cut'))) cut += await pipeOf(w.rev)
-    const unreleased = await t.db.select({ kitId: orderLines.kitId, quantity: orderLines.quantity }).from(orderLines).innerJoin(orders, eq(orders.id, orderLines.orderId)).where(eq(orders.status, 'open'))
+    const unreleased = await t.db.select({
+      kitId: orderLines.kitId,
+      quantity: orderLines.quantity,
+    }).from(orderLines).innerJoin(orders, eq(orders.id, orderLines.orderId)).where(eq(orders.status, 'open'))
     for (const line of unreleased) {
       if (!line.kitId) continue
       const [kit] = await t.db.select({ sku: kits.sku }).from(kits).where(eq(kits.id, line.kitId))

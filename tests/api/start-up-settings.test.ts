@@ -45,7 +45,8 @@ describe('a bad setting stops start-up and says what to fix', () => {
     for (const value of ['kitwright.local', 'shop-pc:3000', 'ftp://shop-pc.test', 'http://shop-pc.test:3000/kitwright']) {
       const message = problemWith({ PUBLIC_URL: value })
       expect(message, value).toMatch(/^Kitwright cannot start; fix these environment variables \(see \.env\.example\):/)
-      expect(message, value).toContain('PUBLIC_URL: PUBLIC_URL must be the address people open Kitwright by (http:// or https://, host and port, no path), e.g. https://kitwright.your-shop.example or http://192.168.1.20:3000')
+      expect(message, value).toContain('PUBLIC_URL: PUBLIC_URL must be the address people open Kitwright by (http:// or https://, host and port, no path), e.g. ' +
+        'https://kitwright.your-shop.example or http://192.168.1.20:3000')
     }
   })
 
@@ -58,13 +59,19 @@ describe('a bad setting stops start-up and says what to fix', () => {
 
   it('an unreadable certificate file', () => {
     const missing = path.join(dir, 'no-such.crt')
-    expect(problemWith({ TLS_CERT_FILE: missing, TLS_KEY_FILE: files.key })).toContain(`TLS_CERT_FILE: cannot read ${missing} (ENOENT); give the path of a readable PEM file, or unset TLS_CERT_FILE and TLS_KEY_FILE to serve plain HTTP`)
+    expect(problemWith({
+      TLS_CERT_FILE: missing,
+      TLS_KEY_FILE: files.key,
+    })).toContain(`TLS_CERT_FILE: cannot read ${missing} (ENOENT); give the path of a readable PEM file, or unset TLS_CERT_FILE and TLS_KEY_FILE to serve plain HTTP`)
     expect(problemWith({ TLS_CERT_FILE: files.notPem, TLS_KEY_FILE: files.key })).toContain(`TLS_CERT_FILE: ${files.notPem} is not a usable PEM file`)
     expect(problemWith({ TLS_CERT_FILE: files.cert, TLS_KEY_FILE: dir })).toContain(`TLS_KEY_FILE: cannot read ${dir} (EISDIR)`)
   })
 
   it('a key that is not the certificate\'s, a certificate without its key, an authority that did not sign it', () => {
-    expect(problemWith({ TLS_CERT_FILE: files.cert, TLS_KEY_FILE: files.otherKey })).toContain(`TLS_KEY_FILE: ${files.otherKey} is not the private key of the certificate in ${files.cert}; give the matching pair`)
+    expect(problemWith({
+      TLS_CERT_FILE: files.cert,
+      TLS_KEY_FILE: files.otherKey,
+    })).toContain(`TLS_KEY_FILE: ${files.otherKey} is not the private key of the certificate in ${files.cert}; give the matching pair`)
     expect(problemWith({ TLS_CERT_FILE: files.cert })).toContain('TLS_KEY_FILE: TLS_CERT_FILE and TLS_KEY_FILE go together')
     const stranger = path.join(dir, 'stranger-ca.crt')
     writeFileSync(stranger, localTls.createCertificateAuthority('Some other authority').certPem)
@@ -94,7 +101,11 @@ describe('the server process', () => {
   /** Starts server/src/index.ts with `env`; resolves with its exit code and error output. */
   function startServer(env: Record<string, string>): Promise<{ code: number | null; stderr: string }> {
     return new Promise((resolve) => {
-      const child = spawn(path.join(root, 'node_modules/.bin/tsx'), ['server/src/index.ts'], { cwd: root, env: { PATH: process.env.PATH, ...BASE, PORT: '9', ...env }, stdio: ['ignore', 'ignore', 'pipe'] })
+      const child = spawn(
+        path.join(root, 'node_modules/.bin/tsx'),
+        ['server/src/index.ts'],
+        { cwd: root, env: { PATH: process.env.PATH, ...BASE, PORT: '9', ...env }, stdio: ['ignore', 'ignore', 'pipe'] },
+      )
       let stderr = ''
       child.stderr.on('data', (d: Buffer) => (stderr += d.toString()))
       child.once('exit', (code) => resolve({ code, stderr }))
@@ -138,7 +149,13 @@ describe('npm start -- --lan and --https (scripts/lib/network.mjs, scripts/lib/t
     // Without --lan: this computer only, as before.
     expect(servingPlan({ ...shop, lan: false, https: false, env: {} })).toMatchObject({ host: '127.0.0.1', publicUrl: 'http://localhost:3400', s3Host: '127.0.0.1', s3PublicUrl: undefined })
     // No network address: a message that says what to do.
-    expect(() => servingPlan({ ...shop, addresses: [], lan: true, https: false, env: {} })).toThrow('--lan: this computer has no network address besides loopback (127.0.0.1). Connect it to the shop network')
+    expect(() => servingPlan({
+      ...shop,
+      addresses: [],
+      lan: true,
+      https: false,
+      env: {},
+    })).toThrow('--lan: this computer has no network address besides loopback (127.0.0.1). Connect it to the shop network')
   })
 
   it('makes the authority once, keeps the server certificate while it fits, and reissues it from the same authority when an address changes', () => {

@@ -23,7 +23,13 @@ afterAll(() => t.drop())
 const day = (offset: number) => new Date(Date.now() + offset * 86_400_000).toISOString().slice(0, 10)
 
 /** A unit in `status` whose order is rush or not, promised `promised`, last changed `changedAt`. */
-async function unit(rev: Awaited<ReturnType<typeof insertBuildRevision>>, status: 'cut' | 'building' | 'rework' | 'built' | 'waiting_cut' | 'shipped', rush: boolean, promised: string | null, changedAt: Date) {
+async function unit(
+  rev: Awaited<ReturnType<typeof insertBuildRevision>>,
+  status: 'cut' | 'building' | 'rework' | 'built' | 'waiting_cut' | 'shipped',
+  rush: boolean,
+  promised: string | null,
+  changedAt: Date,
+) {
   const wo = await insertBuildWorkOrder(t.db, rev.revision.id, rev.kit.id, status)
   await t.db.update(orders).set({ priority: rush ? 'rush' : 'normal', promisedShipDate: promised }).where(eq(orders.id, wo.orderId))
   await t.db.update(workOrders).set({ updatedAt: changedAt }).where(eq(workOrders.id, wo.id))
@@ -108,11 +114,29 @@ describe('the cut bench worklist', () => {
     const [part] = await t.db.insert(cutParts).values({ revisionId: rev.revision.id, partId: pipe.id, label: 'side', length: inches(20), quantity: 1, position: 1 }).returning()
     const run = async (number: string, status: 'published' | 'draft' | 'done', units: { rush: boolean; promised: string | null }[], cut = 0) => {
       const [r] = await t.db.insert(cutRuns).values({ number, status, kerf: 0, endTrim: 0, minOffcut: 0, planStatus: 'optimal', publishedAt: new Date() }).returning()
-      const [stick] = await t.db.insert(cutRunSticks).values({ cutRunId: r!.id, partId: pipe.id, stickLength: inches(120), length: inches(120), patternIndex: 0, position: 1, remnant: 0, remnantIsOffcut: false }).returning()
+      const [stick] = await t.db.insert(cutRunSticks).values({
+        cutRunId: r!.id,
+        partId: pipe.id,
+        stickLength: inches(120),
+        length: inches(120),
+        patternIndex: 0,
+        position: 1,
+        remnant: 0,
+        remnantIsOffcut: false,
+      }).returning()
       let i = 0
       for (const u of units) {
         const wo = await unit(rev, 'waiting_cut', u.rush, u.promised, new Date())
-        await t.db.insert(cutRunCuts).values({ cutRunId: r!.id, stickId: stick!.id, position: ++i, offset: 0, length: inches(20), workOrderId: wo.id, cutPartId: part!.id, status: i <= cut ? 'cut' : 'pending' })
+        await t.db.insert(cutRunCuts).values({
+          cutRunId: r!.id,
+          stickId: stick!.id,
+          position: ++i,
+          offset: 0,
+          length: inches(20),
+          workOrderId: wo.id,
+          cutPartId: part!.id,
+          status: i <= cut ? 'cut' : 'pending',
+        })
       }
       return r!
     }

@@ -48,7 +48,15 @@ async function publishedRun() {
     .insert(cutRunSticks)
     .values({ cutRunId: run!.id, partId: pipe!.id, stickLength, length: stickLength, patternIndex: 0, position: 1, remnant: stickLength - 2 * part!.length, remnantIsOffcut: false })
     .returning()
-  await conn.db.insert(cutRunCuts).values(wos.map((wo, i) => ({ cutRunId: run!.id, stickId: stick!.id, position: i + 1, offset: i * part!.length, length: part!.length, workOrderId: wo.id, cutPartId: part!.id })))
+  await conn.db.insert(cutRunCuts).values(wos.map((wo, i) => ({
+    cutRunId: run!.id,
+    stickId: stick!.id,
+    position: i + 1,
+    offset: i * part!.length,
+    length: part!.length,
+    workOrderId: wo.id,
+    cutPartId: part!.id,
+  })))
   return { run: run!, wos }
 }
 

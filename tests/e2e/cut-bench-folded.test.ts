@@ -45,7 +45,10 @@ describe('the cut bench folds equal pieces, in Chromium on a tablet', () => {
     // The planner plans and publishes the run (through the API, signed in in this browser).
     await signIn(page, baseUrl, planner.email, planner.password)
     await page.getByRole('heading', { name: /Good day/ }).waitFor()
-    const draft = await page.request.post(`${baseUrl}/api/cut-runs`, { data: { workOrderIds, timeLimitSeconds: 3, useOffcuts: false, stock: [{ partId: pipeId, stickLength: inches(240), maxSticks: 1 }] } })
+    const draft = await page.request.post(
+      `${baseUrl}/api/cut-runs`,
+      { data: { workOrderIds, timeLimitSeconds: 3, useOffcuts: false, stock: [{ partId: pipeId, stickLength: inches(240), maxSticks: 1 }] } },
+    )
     expect(draft.status(), await draft.text()).toBe(201)
     const runId = ((await draft.json()) as { id: string }).id
     expect((await page.request.post(`${baseUrl}/api/cut-runs/${runId}/publish`)).status()).toBe(200)

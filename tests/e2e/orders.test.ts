@@ -110,7 +110,10 @@ describe('orders, in Chromium', () => {
       expect(res.status(), await res.text()).toBeLessThan(300)
       return (await res.json()) as { id: string; revisions: { id: string }[] }
     }
-    const part = await post('/parts', { sku: 'E2E-FLOAT-1', name: 'Float valve (test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 20 })
+    const part = await post(
+      '/parts',
+      { sku: 'E2E-FLOAT-1', name: 'Float valve (test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 20 },
+    )
     await post('/stock/receive', { lines: [{ partId: part.id, quantity: 2 }] })
     const kit = await post('/kits', { sku: 'E2E-PACK-FLOAT', name: 'Float valve pack (test)', storeProductId: null, description: null })
     const rev = kit.revisions[0]!.id
@@ -147,7 +150,10 @@ describe('orders, in Chromium', () => {
       expect(res.status(), await res.text()).toBeLessThan(300)
       return (await res.json()) as { id: string; revisions: { id: string }[] }
     }
-    const part = await post('/parts', { sku: 'E2E-FLOAT-B', name: 'Float valve (bulk test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 0 })
+    const part = await post(
+      '/parts',
+      { sku: 'E2E-FLOAT-B', name: 'Float valve (bulk test)', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 250, weightGrams: 30, reorderPoint: 0, reorderQuantity: 0 },
+    )
     await post('/stock/receive', { lines: [{ partId: part.id, quantity: 2 }] })
     const kit = await post('/kits', { sku: 'E2E-PACK-BULK', name: 'Float valve pack (bulk test)', storeProductId: null, description: null })
     const rev = kit.revisions[0]!.id

@@ -32,7 +32,10 @@ describe("the planner's purchase orders, in Chromium", () => {
     })
     expect(part.status(), await part.text()).toBe(201)
     const partId = ((await part.json()) as { id: string }).id
-    const supplier = await page.request.post(`${baseUrl}/api/suppliers`, { data: { name: supplierName, email: `orders-${tag.toLowerCase()}@larkspur.example`, leadTimeDays: 9, minimumOrderCents: 12000 } })
+    const supplier = await page.request.post(
+      `${baseUrl}/api/suppliers`,
+      { data: { name: supplierName, email: `orders-${tag.toLowerCase()}@larkspur.example`, leadTimeDays: 9, minimumOrderCents: 12000 } },
+    )
     expect(supplier.status()).toBe(201)
     const supplierId = ((await supplier.json()) as { id: string }).id
     const offer = await page.request.put(`${baseUrl}/api/suppliers/${supplierId}/parts/${partId}`, {

@@ -30,7 +30,15 @@ export async function insertBuildRevision(db: Db, options: { leakTest?: boolean 
   const steps = await db
     .insert(buildSteps)
     .values([
-      { revisionId: revision!.id, position: 1, text: 'Measure the tote width at the manifold height.', measurementRequired: true, measurementUnit: 'in', measurementMin: '17.75', measurementMax: '18.25' },
+      {
+        revisionId: revision!.id,
+        position: 1,
+        text: 'Measure the tote width at the manifold height.',
+        measurementRequired: true,
+        measurementUnit: 'in',
+        measurementMin: '17.75',
+        measurementMax: '18.25',
+      },
       { revisionId: revision!.id, position: 2, text: 'Drill the sprayer holes.', caution: 'Wear eye protection. Clamp the manifold.' },
       { revisionId: revision!.id, position: 3, text: 'Photograph the finished unit from above.', photoRequired: true },
       { revisionId: revision!.id, position: 4, text: 'Fit the pump and route the cord with a drip loop.' },

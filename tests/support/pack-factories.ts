@@ -68,7 +68,11 @@ export async function insertPackOrder(db: Db, lines: PackLine[]) {
         .returning()
       const bom = await db.select().from(bomLines).where(eq(bomLines.revisionId, revision.id))
       await db.transaction((tx) =>
-        reserveStock(tx, { workOrderId: wo!.id, lines: bom.map((b) => ({ partId: b.partId, quantity: b.quantity, stickLength: null })), reason: `Order ${order!.number}` }, { id: tester.id, name: tester.name }),
+        reserveStock(
+          tx,
+          { workOrderId: wo!.id, lines: bom.map((b) => ({ partId: b.partId, quantity: b.quantity, stickLength: null })), reason: `Order ${order!.number}` },
+          { id: tester.id, name: tester.name },
+        ),
       )
       let binCode: string | null = null
       let binId: string | null = null

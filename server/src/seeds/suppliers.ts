@@ -30,7 +30,12 @@ export async function seedDemoSuppliers(db: Db) {
   for (const s of DEMO_SUPPLIERS) {
     const [found] = await db.select({ id: suppliers.id }).from(suppliers).where(sql`lower(${suppliers.name}) = lower(${s.name})`)
     // A supplier made from a part's name by the migration gets its demo contact details once.
-    if (found) await db.update(suppliers).set({ contactName: s.contactName, email: s.email, phone: s.phone, minimumOrderCents: s.minimumOrderCents }).where(and(eq(suppliers.id, found.id), isNull(suppliers.email)))
+    if (found) await db.update(suppliers).set({
+      contactName: s.contactName,
+      email: s.email,
+      phone: s.phone,
+      minimumOrderCents: s.minimumOrderCents,
+    }).where(and(eq(suppliers.id, found.id), isNull(suppliers.email)))
     else await db.insert(suppliers).values(s)
   }
   await db.execute(sql`update parts p set supplier_id = s.id from suppliers s where p.supplier_id is null and lower(trim(p.supplier)) = lower(s.name)`)

@@ -19,7 +19,11 @@ const part = (sku: string, hs: string | null, origin: string | null) => ({ sku, 
 describe('declareContents', () => {
   it('splits each unit price over its parts by cost, sums lines per part, and lists what is missing', () => {
     const units: DeclaredUnit[] = [
-      { serial: 'U-1', priceCents: 10_000, contents: [{ part: part('A', '841370', 'CN'), quantity: 1, netGrams: 1200, costCents: 3000 }, { part: part('B', '391740', null), quantity: 4, netGrams: 44.4, costCents: 1000 }] },
+      {
+        serial: 'U-1',
+        priceCents: 10_000,
+        contents: [{ part: part('A', '841370', 'CN'), quantity: 1, netGrams: 1200, costCents: 3000 }, { part: part('B', '391740', null), quantity: 4, netGrams: 44.4, costCents: 1000 }],
+      },
       { serial: 'U-2', priceCents: 0, contents: [{ part: part('B', '391740', null), quantity: 2, netGrams: 22.2, costCents: 500 }] },
     ]
     const d = declareContents(units)

@@ -10,7 +10,14 @@ const key = (p: { part: string; wo: string }) => `${p.part}|${p.wo}`
 describe('saw order', () => {
   it('cuts the longest first, equal lengths together, then by cut part and work order', () => {
     // Longest first with equal lengths grouped is common practice at a chop saw with a stop block.
-    const given = [piece(inches(4), 'arm', 'W2'), piece(inches(11), 'riser', 'W1'), piece(inches(4), 'arm', 'W1'), piece(inches(4), 'tee', 'W1'), piece(inches(11), 'riser', 'W2'), piece(inches(4), 'arm', 'W2')]
+    const given = [
+      piece(inches(4), 'arm', 'W2'),
+      piece(inches(11), 'riser', 'W1'),
+      piece(inches(4), 'arm', 'W1'),
+      piece(inches(4), 'tee', 'W1'),
+      piece(inches(11), 'riser', 'W2'),
+      piece(inches(4), 'arm', 'W2'),
+    ]
     const out = sawOrder(given, key, saw)
     expect(out.map((p) => [p.length / inches(1), p.part, p.wo])).toEqual([
       [11, 'riser', 'W1'],
@@ -32,7 +39,10 @@ describe('saw order', () => {
 
   it('on any stick: every piece kept, lengths never grow, offsets follow trim + pieces + kerfs, and the stop block is set once per distinct length', () => {
     fc.assert(
-      fc.property(fc.array(fc.record({ length: fc.integer({ min: 1, max: 6 }).map((n) => n * inches(1)), part: fc.constantFrom('a', 'b'), wo: fc.constantFrom('W1', 'W2', 'W3') }), { maxLength: 30 }), (pieces) => {
+      fc.property(fc.array(
+        fc.record({ length: fc.integer({ min: 1, max: 6 }).map((n) => n * inches(1)), part: fc.constantFrom('a', 'b'), wo: fc.constantFrom('W1', 'W2', 'W3') }),
+        { maxLength: 30 },
+      ), (pieces) => {
         const out = sawOrder(pieces, key, saw)
         expect(out).toHaveLength(pieces.length)
         expect([...out.map((p) => p.length)].sort()).toEqual([...pieces.map((p) => p.length)].sort())

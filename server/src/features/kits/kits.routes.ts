@@ -28,7 +28,11 @@ export function kitsRouter(deps: Deps, routes: RouteTable) {
     const { id } = IdParamsSchema.parse(req.params)
     const { priceCents } = UpdateKitPriceSchema.parse(req.body)
     const kit = await setKitPrice(deps.db, id, priceCents)
-    await recordAudit(deps.db, auditContext(req), { action: 'kit.price', entityType: 'kit', entityId: id, summary: `Set the list price of ${kit.sku} to ${priceCents === null ? 'none' : formatMoney(priceCents)}` })
+    await recordAudit(
+      deps.db,
+      auditContext(req),
+      { action: 'kit.price', entityType: 'kit', entityId: id, summary: `Set the list price of ${kit.sku} to ${priceCents === null ? 'none' : formatMoney(priceCents)}` },
+    )
     res.json(kit)
   })
   r.post('/:id/revisions', catalogEditors, async (req, res) => {

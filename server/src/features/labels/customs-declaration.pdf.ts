@@ -61,7 +61,12 @@ export async function customsDeclarationPdf(input: CustomsDeclarationInput): Pro
       doc.fillColor('#000000')
       doc.font('bold').fontSize(12).text('CUSTOMS DECLARATION', PAD, PAD, { width: INNER - 60, lineBreak: false })
       doc.font('bold').fontSize(18).text(parcel.form, W - PAD - 70, PAD - 3, { width: 70, align: 'right', lineBreak: false })
-      doc.font('body').fontSize(7).text(`May be opened officially · Parcel ${parcel.position} of ${parcel.of}${continued ? ` · continued, page ${page}` : ''}`, PAD, PAD + 15, { width: INNER - 60, lineBreak: false })
+      doc.font('body').fontSize(7).text(
+        `May be opened officially · Parcel ${parcel.position} of ${parcel.of}${continued ? ` · continued, page ${page}` : ''}`,
+        PAD,
+        PAD + 15,
+        { width: INNER - 60, lineBreak: false },
+      )
       doc.text(`${input.carrier ? `${input.carrier} · ` : ''}tracking ${parcel.trackingNumber}`, PAD, PAD + 24, { width: INNER, lineBreak: false })
       doc.moveTo(0, 44).lineTo(W, 44).lineWidth(1).stroke()
     }
@@ -167,7 +172,12 @@ export async function customsDeclarationPdf(input: CustomsDeclarationInput): Pro
     doc.font('body').fontSize(7)
     doc.text(`Total gross weight (parcel): ${kg(parcel.grossGrams)} kg · Total value: ${input.currency} ${money(d.totalValueCents)}`, PAD, y, { width: INNER })
     y = doc.y + 2
-    doc.text(`Invoice: order ${input.orderNumber}. Licence, certificate: none.${d.valuedAtCost.length ? ` Units ${d.valuedAtCost.join(', ')} declared at cost (no price on the order).` : ''}`, PAD, y, { width: INNER })
+    doc.text(
+      `Invoice: order ${input.orderNumber}. Licence, certificate: none.${d.valuedAtCost.length ? ` Units ${d.valuedAtCost.join(', ')} declared at cost (no price on the order).` : ''}`,
+      PAD,
+      y,
+      { width: INNER },
+    )
     y = doc.y + 4
 
     // The sender's declaration, date and signature.

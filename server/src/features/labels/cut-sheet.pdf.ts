@@ -221,7 +221,8 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
 
   doc.font('body').fontSize(9.5).fillColor(P.ink)
   const howTo =
-    'Cut each stick in the order of its list: longest first, equal lengths one after another, so the stop block is set once per length and the stick left on the saw stays long enough to clamp. Each number on a drawing is the piece’s row in the list. Tick each row as its pieces come off the saw and put them in the bin shown.'
+    'Cut each stick in the order of its list: longest first, equal lengths one after another, so the stop block is set once per length and the stick left on the saw stays long enough to clamp. ' +
+      'Each number on a drawing is the piece’s row in the list. Tick each row as its pieces come off the saw and put them in the bin shown.'
   doc.text(howTo, MARGIN, y, { width })
   y = doc.y + 6
   y = drawLegend(doc, MARGIN, y, width) + 10
@@ -294,6 +295,11 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
     y += AFTER_PATTERN
   }
   if (y + 30 > bottom) newPage()
-  doc.font('body').fontSize(9).fillColor('#44403c').text('Put every piece in its work order’s bin; the bench shows which bin once it is scanned. Offcuts get their label at the bench.', MARGIN, y, { width })
+  doc.font('body').fontSize(9).fillColor('#44403c').text(
+    'Put every piece in its work order’s bin; the bench shows which bin once it is scanned. Offcuts get their label at the bench.',
+    MARGIN,
+    y,
+    { width },
+  )
   return pdfBuffer(doc)
 }

@@ -25,7 +25,19 @@ export function orderCancelledContent(input: {
   const opening = `Your order ${input.orderNumber} is cancelled. Nothing of it will be made or shipped:`
   const refund = 'If you paid for it, the refund is made through the store where you ordered, in the way you paid.'
   const list = input.lines.map((l) => `  ${l.quantity} × ${l.description} (${l.sku})`)
-  const text = [`Hello ${firstName},`, '', opening, '', ...list, '', refund, '', 'If you did not ask for this, or want to order again, reply to this e-mail.', '', `The ${input.shopName} workshop`].join('\n')
+  const text = [
+    `Hello ${firstName},`,
+    '',
+    opening,
+    '',
+    ...list,
+    '',
+    refund,
+    '',
+    'If you did not ask for this, or want to order again, reply to this e-mail.',
+    '',
+    `The ${input.shopName} workshop`,
+  ].join('\n')
   const items = input.lines.map((l) => `<li>${l.quantity} × ${escapeHtml(l.description)} <small>(${escapeHtml(l.sku)})</small></li>`).join('')
   const html = [
     `<p>Hello ${escapeHtml(firstName)},</p>`,

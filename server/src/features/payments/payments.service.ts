@@ -84,7 +84,16 @@ export async function recordPayment(db: Db, orderId: string, input: RecordPaymen
       throw new Conflict(`Order ${order.number} has ${formatMoney(due, order.currency)} due; enter at most that`, { amountCents: `At most ${formatMoney(due, order.currency)}` })
     }
     await addPayment(tx, order, { orderId, method: input.method, amountCents: input.amountCents, reference: input.reference, recordedBy: actor.id }, actor)
-    await recordAudit(tx, audit, { action: 'order.payment', entityType: 'order', entityId: orderId, summary: `Recorded ${formatMoney(input.amountCents, order.currency)} (${PAYMENT_METHOD_LABELS[input.method]}) for order ${order.number}` })
+    await recordAudit(
+      tx,
+      audit,
+      {
+        action: 'order.payment',
+        entityType: 'order',
+        entityId: orderId,
+        summary: `Recorded ${formatMoney(input.amountCents, order.currency)} (${PAYMENT_METHOD_LABELS[input.method]}) for order ${order.number}`,
+      },
+    )
   })
 }
 
@@ -115,7 +124,10 @@ export async function sendPaymentLink(deps: Pick<Deps, 'db' | 'jobs' | 'payments
   if (link.status === 'creating') {
     try {
       const returnUrl = `${deps.publicUrl.replace(/\/+$/, '')}/api/pay/thanks`
-      const checkout = await service.createCheckout({ orderId, orderNumber: order.number, amountCents: link.amountCents, currency: order.currency, customerEmail: order.customerEmail, returnUrl }, link.idempotencyKey)
+      const checkout = await service.createCheckout(
+        { orderId, orderNumber: order.number, amountCents: link.amountCents, currency: order.currency, customerEmail: order.customerEmail, returnUrl },
+        link.idempotencyKey,
+      )
       const [updated] = await deps.db.update(paymentLinks).set({ status: 'open', externalId: checkout.id, url: checkout.url, error: null }).where(eq(paymentLinks.id, link.id)).returning()
       open = updated!
     } catch (err) {
@@ -138,7 +150,11 @@ export async function sendPaymentLink(deps: Pick<Deps, 'db' | 'jobs' | 'payments
       text: `Hello ${order.customerName},\n\nThank you for your order ${order.number}. You can pay ${amount} securely here:\n${pay}\n\nWe start on your order as soon as the payment comes through.\n\n${settings.shopName}\n`,
       html: `<p>Hello ${escapeHtml(order.customerName)},</p><p>Thank you for your order ${escapeHtml(order.number)}. You can pay ${amount} securely here:</p><p><a href="${pay}">Pay ${amount} for order ${escapeHtml(order.number)}</a></p><p>We start on your order as soon as the payment comes through.</p><p>${escapeHtml(settings.shopName)}</p>`,
     })
-    await recordAudit(tx, audit, { action: 'order.payment_link', entityType: 'order', entityId: orderId, summary: `Sent a payment link for ${amount} to ${order.customerEmail} for order ${order.number}` })
+    await recordAudit(
+      tx,
+      audit,
+      { action: 'order.payment_link', entityType: 'order', entityId: orderId, summary: `Sent a payment link for ${amount} to ${order.customerEmail} for order ${order.number}` },
+    )
   })
   return open
 }

@@ -150,7 +150,12 @@ export async function draftFromShortages(db: Db, actor: Actor): Promise<DraftFro
         rows.map((w) => {
           const offer = offers.find((o) => o.partId === w.partId && o.supplierId === supplier.id)
           const cost = partOf.get(w.partId)!.unitCostCents
-          return { partId: w.partId, suggested: w.suggestedOrder, packSize: offer?.packSize ?? 1, priceBreaks: offer?.priceBreaks.length ? offer.priceBreaks : [{ minQuantity: 1, unitPriceCents: cost }] }
+          return {
+            partId: w.partId,
+            suggested: w.suggestedOrder,
+            packSize: offer?.packSize ?? 1,
+            priceBreaks: offer?.priceBreaks.length ? offer.priceBreaks : [{ minQuantity: 1, unitPriceCents: cost }],
+          }
         }),
         supplier.minimumOrderCents,
       )
@@ -358,6 +363,10 @@ export async function receiveOnPurchaseOrder<M extends { id: string }>(
 
 /** A purchase order found by its number (`PO-00012`, any case), for packing lists that name it. */
 export async function findPurchaseOrderByNumber(db: Conn, number: string) {
-  const [row] = await db.select({ id: purchaseOrders.id, number: purchaseOrders.number, supplierId: purchaseOrders.supplierId }).from(purchaseOrders).where(sql`upper(${purchaseOrders.number}) = upper(${number})`)
+  const [row] = await db.select({
+    id: purchaseOrders.id,
+    number: purchaseOrders.number,
+    supplierId: purchaseOrders.supplierId,
+  }).from(purchaseOrders).where(sql`upper(${purchaseOrders.number}) = upper(${number})`)
   return row ?? null
 }

@@ -74,7 +74,11 @@ export function purchaseOrdersRouter(deps: Deps, routes: RouteTable) {
   r.post('/:id/send', OFFICE, async (req, res) => {
     const { purchaseOrder, alreadySent } = await sendPurchaseOrder(deps, IdParams.parse(req.params).id)
     if (!alreadySent) {
-      await recordAudit(deps.db, auditContext(req), { action: 'purchase_order.send', entityType: 'purchase_order', entityId: purchaseOrder.id, summary: `Sent ${purchaseOrder.number} to ${purchaseOrder.supplier.name}`, data: null })
+      await recordAudit(
+        deps.db,
+        auditContext(req),
+        { action: 'purchase_order.send', entityType: 'purchase_order', entityId: purchaseOrder.id, summary: `Sent ${purchaseOrder.number} to ${purchaseOrder.supplier.name}`, data: null },
+      )
     }
     res.status(alreadySent ? 200 : 201).json(purchaseOrder)
   })

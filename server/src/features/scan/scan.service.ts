@@ -76,7 +76,14 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
   switch (found.kind) {
     case 'bin': {
       const [bin] = await db.select().from(bins).where(eq(bins.id, found.id))
-      if (!bin!.workOrderId) return { ...base, kind: 'bin', code: bin!.code, title: `Bin ${bin!.code} is empty`, status: bin!.status, next: { place: 'cut', message: 'Free: fill it at the cut bench' } }
+      if (!bin!.workOrderId) return {
+        ...base,
+        kind: 'bin',
+        code: bin!.code,
+        title: `Bin ${bin!.code} is empty`,
+        status: bin!.status,
+        next: { place: 'cut', message: 'Free: fill it at the cut bench' },
+      }
       const held = await unitById(db, bin!.workOrderId)
       if (!held) throw new NotFound(`Bin ${bin!.code} points at a unit Kitwright cannot find; tell the planner`)
       return {

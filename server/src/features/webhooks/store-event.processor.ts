@@ -91,7 +91,17 @@ async function applyPaid(tx: Tx, deps: StoreEventDeps, event: Paid, row: StoreEv
   }
   const cancel = early.find((e): e is Cancelled => e.type === 'order.cancelled')
   if (cancel) {
-    await cancelOrder(tx, current, { by: 'store', actor: null, eventId: cancel.eventId, reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment', jobs: deps.jobs })
+    await cancelOrder(
+      tx,
+      current,
+      {
+        by: 'store',
+        actor: null,
+        eventId: cancel.eventId,
+        reason: cancel.reason ? `${cancel.reason}; the cancellation arrived before the payment` : 'the cancellation arrived before the payment',
+        jobs: deps.jobs,
+      },
+    )
     return
   }
   await queueOrderReceivedMail(tx, deps.jobs, order.id)
@@ -130,7 +140,16 @@ async function applyAddressChange(tx: Tx, order: OrderRow, event: AddressChanged
   const s = event.shipTo
   const [updated] = await tx
     .update(orders)
-    .set({ shipName: s.name, shipLine1: s.line1, shipLine2: s.line2 ?? null, shipCity: s.city, shipRegion: s.region ?? null, shipPostalCode: s.postalCode, shipCountry: s.country, updatedAt: new Date() })
+    .set({
+      shipName: s.name,
+      shipLine1: s.line1,
+      shipLine2: s.line2 ?? null,
+      shipCity: s.city,
+      shipRegion: s.region ?? null,
+      shipPostalCode: s.postalCode,
+      shipCountry: s.country,
+      updatedAt: new Date(),
+    })
     .where(eq(orders.id, order.id))
     .returning()
   await addOrderEvent(tx, {

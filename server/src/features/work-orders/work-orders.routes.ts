@@ -13,7 +13,11 @@ export function releaseRouter(deps: Deps, routes: RouteTable) {
     const result = await releaseOrders(deps.db, ReleaseOrdersSchema.parse(req.body), currentUser(req))
     for (const order of result.released) {
       const serials = order.workOrders.map((w) => w.serial).join(', ')
-      await recordAudit(deps.db, auditContext(req), { action: 'order.release', entityType: 'order', entityId: order.orderId, summary: `Released order ${order.number} into ${order.workOrders.length} work order(s): ${serials}` })
+      await recordAudit(
+        deps.db,
+        auditContext(req),
+        { action: 'order.release', entityType: 'order', entityId: order.orderId, summary: `Released order ${order.number} into ${order.workOrders.length} work order(s): ${serials}` },
+      )
     }
     res.json(result)
   })

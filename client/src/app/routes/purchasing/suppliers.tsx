@@ -45,7 +45,14 @@ interface SupplierDraft {
 const EMPTY: SupplierDraft = { name: '', contactName: '', email: '', phone: '', leadTimeDays: '', minimum: '0.00' }
 
 function toDraft(s: Supplier): SupplierDraft {
-  return { name: s.name, contactName: s.contactName ?? '', email: s.email ?? '', phone: s.phone ?? '', leadTimeDays: s.leadTimeDays === null ? '' : String(s.leadTimeDays), minimum: (s.minimumOrderCents / 100).toFixed(2) }
+  return {
+    name: s.name,
+    contactName: s.contactName ?? '',
+    email: s.email ?? '',
+    phone: s.phone ?? '',
+    leadTimeDays: s.leadTimeDays === null ? '' : String(s.leadTimeDays),
+    minimum: (s.minimumOrderCents / 100).toFixed(2),
+  }
 }
 
 /** Suppliers: who the shop buys from, their terms, and per part their SKU, pack and price breaks. */
