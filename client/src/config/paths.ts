@@ -37,6 +37,8 @@ export const paths = {
   outbox: { pattern: '/outbox', href: () => '/outbox' },
   lots: { pattern: '/catalog/lots', href: () => '/catalog/lots' },
   lot: { pattern: '/catalog/lots/:lotId', href: (lotId: string) => `/catalog/lots/${lotId}` },
+  returns: { pattern: '/returns', href: () => '/returns' },
+  returnDetail: { pattern: '/returns/:returnId', href: (returnId: string) => `/returns/${returnId}` },
 } as const
 
 /** Where each role lands after signing in: the office roles on the home page, bench roles on their bench. */

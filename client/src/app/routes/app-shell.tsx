@@ -25,6 +25,7 @@ const NAV: { label: string; href: string; roles: readonly Role[] }[] = [
   { label: 'Cut bench', href: paths.cutBench.href(), roles: ['admin', 'planner', 'cutter'] },
   { label: 'Build bench', href: paths.buildBench.href(), roles: ['admin', 'planner', 'assembler'] },
   { label: 'Pack bench', href: paths.packBench.href(), roles: ['admin', 'planner', 'packer'] },
+  { label: 'Returns', href: paths.returns.href(), roles: ['admin', 'planner', 'packer'] },
   { label: 'Scan', href: paths.scan.href(), roles: ['admin', 'planner', 'cutter', 'assembler', 'packer'] },
   { label: 'Users', href: paths.users.href(), roles: ['admin'] },
   { label: 'Audit', href: paths.audit.href(), roles: ['admin'] },

@@ -5,6 +5,8 @@ import { ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../components/ui/section'
 import { meOptions } from '../../features/auth/api/auth-queries'
 import { MeasurementFlagsPanel } from '../../features/build-bench/components/measurement-flags-panel'
+import { ReturnsSummaryPanel } from '../../features/returns/components/returns-summary-panel'
+import { paths } from '../../config/paths'
 import { FailedMailPanel } from '../../features/mail/components/failed-mail-panel'
 import {
   cutRunYieldOptions,
@@ -111,6 +113,7 @@ export function Component() {
           <WipPanel report={wip.data} />
           <ShortPartsPanel shortages={shortages.data} />
           <MeasurementFlagsPanel />
+          <ReturnsSummaryPanel returnsHref={paths.returns.href()} />
         </div>
       </div>
 

@@ -1,5 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { shopIdentityOptions } from '../../../features/settings/api/identity-queries'
+import { ReturnReasonsEditor } from '../../../features/returns/components/return-reasons-editor'
 import { IdentityForm } from '../../../features/settings/components/identity-form'
 import { SettingsForm } from '../../../features/settings/components/settings-form'
 import { shopSettingsOptions } from '../../../lib/shop-settings'
@@ -28,6 +29,7 @@ export function Component() {
       ) : (
         <p className="text-stone-500">Loading the settings…</p>
       )}
+      <ReturnReasonsEditor />
     </div>
   )
 }

@@ -1,0 +1,39 @@
+import { useQuery } from '@tanstack/react-query'
+import { Link } from 'react-router-dom'
+import { RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
+import { Section } from '../../../components/ui/section'
+import { unitReturnsOptions } from '../api/return-queries'
+
+const when = (iso: string) => new Date(iso).toLocaleString()
+
+/**
+ * The unit's returns, in its build record beside the original build: why it came back, when it was
+ * received, what was decided. A repair's reopened steps and its retest show in the steps and leak
+ * tests above (undone ticks, a new attempt), and its rework entry names the return.
+ */
+export function UnitReturns({ serial, returnHref }: { serial: string; returnHref: ((id: string) => string) | null }) {
+  const q = useQuery(unitReturnsOptions(serial))
+  if (!q.data || q.data.returns.length === 0) return null
+  return (
+    <Section title="Returns">
+      <ol className="space-y-3" aria-label="Returns of this unit">
+        {q.data.returns.map((r) => (
+          <li key={r.id} className="rounded-md border border-stone-300 p-3 text-lg">
+            <p>
+              <strong>{returnHref ? <Link className="text-brand-700 underline" to={returnHref(r.id)}>{r.number}</Link> : r.number}</strong> · {RETURN_STATUS_LABELS[r.status]} · {r.reason}
+              {r.notes ? ` (${r.notes})` : ''}
+            </p>
+            <p className="text-base text-stone-700">
+              Opened {when(r.openedAt)}
+              {r.receivedAt ? ` · received ${when(r.receivedAt)}` : ''}
+              {r.decidedAt ? ` · decided ${when(r.decidedAt)}` : ''}
+              {r.decisionNote ? `: ${r.decisionNote}` : ''}
+              {r.replacementSerial ? ` · replaced by ${r.replacementSerial}` : ''}
+              {r.refundCents !== null ? ` · refund noted ${(r.refundCents / 100).toFixed(2)}` : ''}
+            </p>
+          </li>
+        ))}
+      </ol>
+    </Section>
+  )
+}
