@@ -142,7 +142,7 @@ describe('object level: guessing ids opens nothing', () => {
     expect(asAdmin.text).toContain(mark)
     const trail = await request(built.app).get('/api/audit').query({ q: mark }).set('Cookie', cookies.get('admin')!)
     expect(trail.status).toBe(200)
-  })
+  }, 120_000) // a thousand calls or so (every route × three bench roles × three ids); a budget, not a speed check
 })
 
 describe('object level: photo uploads', () => {

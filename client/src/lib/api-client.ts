@@ -13,6 +13,16 @@ export class ApiError extends Error {
 }
 
 /**
+ * The request never reached the server (no network, the Wi-Fi dropped, or no answer in time).
+ * Bench actions wait in the tablet's queue on this error (lib/offline/); anything else says so.
+ */
+export class NetworkError extends Error {
+  constructor(cause: unknown) {
+    super('No network: the server could not be reached. Check the Wi-Fi and try again.', { cause })
+  }
+}
+
+/**
  * Where a request comes from, for the audit trail: a bench page, else the bench this device
  * stands at (its sign-in screen, the build record opened at the bench), else the office.
  */
@@ -28,12 +38,20 @@ export async function apiFetch<S extends z.ZodType>(
   init: Omit<RequestInit, 'body'> & { body?: unknown } = {},
 ): Promise<z.infer<S>> {
   const { body, ...rest } = init
-  const res = await fetch(`/api${path}`, {
-    credentials: 'same-origin',
-    ...rest,
-    headers: { 'x-kitwright-bench': benchOfPage(), ...(body !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
-    body: body === undefined ? undefined : JSON.stringify(body),
-  })
+  let res: Response
+  try {
+    res = await fetch(`/api${path}`, {
+      credentials: 'same-origin',
+      ...rest,
+      headers: { 'x-kitwright-bench': benchOfPage(), ...(body !== undefined ? { 'content-type': 'application/json' } : {}), ...rest.headers },
+      body: body === undefined ? undefined : JSON.stringify(body),
+    })
+  } catch (err) {
+    // A request the page itself called off (it moved on) is not a network problem: pass it on as it is.
+    const timedOut = rest.signal?.reason instanceof DOMException && rest.signal.reason.name === 'TimeoutError'
+    if (rest.signal?.aborted && !timedOut) throw err
+    throw new NetworkError(err)
+  }
   if (!res.ok) {
     const json: unknown = await res.json().catch(() => null)
     const parsed = ApiErrorBodySchema.safeParse(json)

@@ -4,6 +4,7 @@ import { Toaster } from 'sonner'
 import type { Role } from '@kitwright/shared/roles'
 import { ROLE_LABELS } from '@kitwright/shared/roles'
 import { Button } from '../../components/ui/button'
+import { OfflineBanner } from '../../components/ui/offline-banner'
 import { paths } from '../../config/paths'
 import { meOptions, useSignOut } from '../../features/auth/api/auth-queries'
 import { cn } from '../../lib/cn'
@@ -74,6 +75,7 @@ export function AppShell() {
           </div>
         </div>
       </header>
+      <OfflineBanner userId={me.id} />
       <main className="mx-auto max-w-7xl px-4 py-6">
         <Outlet />
       </main>

@@ -6,6 +6,9 @@ import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
 import { paths } from '../../../config/paths'
 import { buildLookupOptions, buildWorklistOptions } from '../../../features/build-bench/api/build-queries'
+import { BUILD_ACTIONS, overlayWaiting } from '../../../features/build-bench/api/build-bench-actions'
+import { meOptions } from '../../../features/auth/api/auth-queries'
+import { useWaitingActions } from '../../../lib/offline/use-bench-queue'
 import { BuildUnit } from '../../../features/build-bench/components/build-unit'
 import { ApiError } from '../../../lib/api-client'
 import { WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
@@ -20,6 +23,10 @@ export function Component() {
   const code = search.get('code') ?? ''
   const lookup = useQuery(buildLookupOptions(code))
   const worklist = useQuery(buildWorklistOptions())
+  const me = useQuery(meOptions())
+  // Steps ticked on this tablet with no network show as ticked until the server has them.
+  const waiting = useWaitingActions(BUILD_ACTIONS)
+  const page = lookup.data && me.data ? overlayWaiting(lookup.data, waiting, me.data) : lookup.data
   const refusedSerial = lookup.error instanceof ApiError ? lookup.error.body.fields?.serial : undefined
   const open = (scanned: string) => {
     setSearch({ code: scanned })
@@ -70,7 +77,7 @@ export function Component() {
           )}
         </div>
       )}
-      {lookup.data && <BuildUnit code={code} page={lookup.data} />}
+      {page && <BuildUnit code={code} page={page} />}
     </div>
   )
 }

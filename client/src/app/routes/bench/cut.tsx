@@ -5,13 +5,19 @@ import { Button } from '../../../components/ui/button'
 import { Caution } from '../../../components/ui/section'
 import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
-import { benchCutSheetHref, benchRunOptions } from '../../../features/cut-bench/api/cut-bench-queries'
+import { benchCutSheetHref, benchRunOptions, overlayWaiting } from '../../../features/cut-bench/api/cut-bench-queries'
+import { useWaitingActions } from '../../../lib/offline/use-bench-queue'
 import { cutWorklistOptions } from '../../../features/cut-bench/api/cut-worklist-queries'
 import { BenchStick } from '../../../features/cut-bench/components/bench-stick'
 import { BenchWorkOrders } from '../../../features/cut-bench/components/bench-work-orders'
 
+const CUT_ACTIONS = ['cut.tick', 'cut.undo'] as const
+
 function RunBench({ runId }: { runId: string }) {
-  const run = useQuery(benchRunOptions(runId))
+  const fetched = useQuery(benchRunOptions(runId))
+  // Ticks kept on the tablet (no network) show as cut until the server has them.
+  const waiting = useWaitingActions(CUT_ACTIONS)
+  const run = { ...fetched, data: fetched.data && overlayWaiting(fetched.data, waiting) }
   const [chosen, setChosen] = useState<string | null>(null)
   const firstOpen = run.data?.sticks.find((s) => s.status === 'pending' || s.status === 'in_progress')?.id
   // Stay on the stick being cut when it is finished (its offcut label is shown there); Next moves on.

@@ -2,6 +2,7 @@ import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query
 import { z } from 'zod'
 import { BenchPersonSchema, MeSchema, SessionSchema, type BenchDevice, type SignIn } from '@kitwright/shared/auth'
 import { apiFetch } from '../../../lib/api-client'
+import { forgetBenchReads } from '../../../lib/offline/bench-queue'
 
 export const authKeys = {
   me: ['auth', 'me'] as const,
@@ -36,9 +37,10 @@ export function useSignOut() {
   const qc = useQueryClient()
   return useMutation({
     mutationFn: () => apiFetch('/auth/sign-out', z.undefined(), { method: 'POST' }),
-    onSuccess: () => {
+    onSuccess: async () => {
       qc.clear()
       qc.setQueryData(authKeys.me, null)
+      await forgetBenchReads()
     },
   })
 }

@@ -7,7 +7,7 @@ import { LEAK_PLACE_LABELS, LEAK_PLACES, PRESSURE_UNITS, formatPressure } from '
 import type { z } from 'zod'
 import { Button } from '../../../components/ui/button'
 import { applyServerErrors } from '../../../lib/form-errors'
-import { useRecordLeakTest } from '../api/build-queries'
+import { useRecordLeakTest } from '../api/build-bench-actions'
 import { formatLitres } from './format'
 
 type LeakTestValues = z.infer<typeof RecordLeakTestSchema>
@@ -51,11 +51,13 @@ export function LeakTestForm({ code, page }: { code: string; page: BuildPage }) 
   const p = (pa: number) => formatPressure(pa, unit)
   const submit = (input: LeakTestValues) =>
     record.mutate(
-      { workOrderId: page.workOrder.id, ...input },
+      { workOrderId: page.workOrder.id, serial: page.workOrder.serial, ...input },
       {
         onSuccess: (next) => {
-          const last = next.leakTests.at(-1)
-          if (last?.passed) toast.success(`Leak test ${last.attempt} passed`)
+          // No network: the readings wait on the tablet; pass or fail is the server's to say, later.
+          const last = next?.leakTests.at(-1)
+          if (!next) toast.info('No network: the leak test readings are kept on this tablet; the verdict comes when the network is back')
+          else if (last?.passed) toast.success(`Leak test ${last.attempt} passed`)
           else toast.error(`Leak test ${last?.attempt ?? ''} failed: the unit goes to rework`)
           form.reset({ ...form.getValues(), startPressure: Number.NaN, endPressure: Number.NaN, leaks: [], leakNote: '' })
         },

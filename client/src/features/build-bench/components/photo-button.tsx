@@ -2,7 +2,7 @@ import { useState } from 'react'
 import { toast } from 'sonner'
 import { MAX_PHOTO_BYTES, PHOTO_CONTENT_TYPES } from '@kitwright/shared/build'
 import { cn } from '../../../lib/cn'
-import { useUploadPhoto } from '../api/build-queries'
+import { useUploadPhoto } from '../api/build-bench-actions'
 
 /**
  * Opens the tablet's rear camera (or a file chooser on a PC) and uploads the photo straight to the
@@ -23,8 +23,12 @@ export function PhotoButton({ code, workOrderId, stepId, label }: { code: string
       return
     }
     upload.mutate(
-      { workOrderId, stepId, file },
-      { onSuccess: () => toast.success('Photo saved'), onError: (err) => setProblem(err.message) },
+      { workOrderId, stepId, file, what: label },
+      {
+        // Offline, the photo stays on this tablet (the banner shows it waiting) until the photo store has it.
+        onSuccess: (page) => (page ? toast.success('Photo saved') : toast.info('No network: the photo is kept on this tablet and uploaded when the network is back')),
+        onError: (err) => setProblem(err.message),
+      },
     )
   }
   return (

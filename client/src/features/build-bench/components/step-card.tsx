@@ -6,7 +6,7 @@ import { Button } from '../../../components/ui/button'
 import { Caution } from '../../../components/ui/section'
 import { ApiError } from '../../../lib/api-client'
 import { cn } from '../../../lib/cn'
-import { useTickStep, useUndoTick } from '../api/build-queries'
+import { useTickStep, useUndoTick } from '../api/build-bench-actions'
 import { formatLimits, formatWhen } from './format'
 import { PhotoButton } from './photo-button'
 import { PhotoStrip } from './photo-strip'
@@ -50,7 +50,7 @@ export function StepCard({ code, page, step }: { code: string; page: BuildPage; 
       value = measurement
     }
     tick.mutate(
-      { workOrderId: page.workOrder.id, stepId: step.id, measurement: value, reason: askReason ? reason : null },
+      { workOrderId: page.workOrder.id, stepId: step.id, serial: page.workOrder.serial, position: step.position, measurement: value, reason: askReason ? reason : null },
       {
         onSuccess: () => {
           setMeasurement('')
@@ -146,7 +146,7 @@ export function StepCard({ code, page, step }: { code: string; page: BuildPage; 
               className="ml-auto"
               disabled={undo.isPending}
               aria-label={`Undo step ${step.position}`}
-              onClick={() => undo.mutate({ workOrderId: page.workOrder.id, stepId: step.id }, { onError: (err) => toast.error(err.message) })}
+              onClick={() => undo.mutate({ workOrderId: page.workOrder.id, stepId: step.id, serial: page.workOrder.serial, position: step.position }, { onError: (err) => toast.error(err.message) })}
             >
               Undo
             </Button>

@@ -2,6 +2,8 @@ import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query
 import { z } from 'zod'
 import { CutRunDetailSchema, CutRunSummarySchema, type CutRunDetail } from '@kitwright/shared/cut-runs'
 import { apiFetch } from '../../../lib/api-client'
+import type { QueuedAction } from '../../../lib/offline/action-store'
+import { cancelWaiting, submitBenchAction } from '../../../lib/offline/bench-queue'
 
 export const benchKeys = {
   all: ['cut-bench'] as const,
@@ -33,8 +35,62 @@ function useBenchAction<V>(path: (v: V) => string, body?: (v: V) => unknown) {
   })
 }
 
-export const useTickCut = () => useBenchAction((v: { runId: string; cutId: string }) => `/cut-runs/${v.runId}/cuts/${v.cutId}/tick`)
-export const useUndoCut = () => useBenchAction((v: { runId: string; cutId: string }) => `/cut-runs/${v.runId}/cuts/${v.cutId}/undo`)
+/**
+ * Ticks and undos go through the tablet's queue (lib/offline/): kept first, sent in order, and
+ * when the network is down they wait and the bench shows them as taken (`overlayWaiting`). An undo
+ * of a tick that has not been sent yet just drops the tick from the queue.
+ */
+function useQueuedCutAction(kind: 'cut.tick' | 'cut.undo') {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: async (v: { runId: string; cutId: string; what: string }) => {
+      if (kind === 'cut.undo' && (await cancelWaiting((a) => a.kind === 'cut.tick' && a.target.cutId === v.cutId))) return null
+      const verb = kind === 'cut.tick' ? 'tick' : 'undo'
+      const outcome = await submitBenchAction(
+        { bench: 'cut', kind, label: `${kind === 'cut.tick' ? 'Cut' : 'Undo'} ${v.what}`, path: `/cut-runs/${v.runId}/cuts/${v.cutId}/${verb}`, target: { runId: v.runId, cutId: v.cutId } },
+        CutRunDetailSchema,
+      )
+      return outcome.sent ? outcome.data : null
+    },
+    onSuccess: async (run: CutRunDetail | null) => {
+      if (!run) return
+      await qc.cancelQueries({ queryKey: benchKeys.run(run.id) })
+      qc.setQueryData(benchKeys.run(run.id), run)
+      return qc.invalidateQueries({ queryKey: benchKeys.runs() })
+    },
+  })
+}
+
+export const useTickCut = () => useQueuedCutAction('cut.tick')
+export const useUndoCut = () => useQueuedCutAction('cut.undo')
+
+const NOT_SENT = 'you (not sent yet)'
+
+/**
+ * The run as the bench should show it: the server's last answer (or, offline, the last one kept)
+ * with this person's ticks and undos that wait in the queue applied, so the pieces tapped offline
+ * show as cut, even after a reload.
+ */
+export function overlayWaiting(run: CutRunDetail, waiting: readonly QueuedAction[]): CutRunDetail {
+  const mine = waiting.filter((a) => a.target.runId === run.id)
+  if (mine.length === 0) return run
+  const status = new Map<string, { cut: boolean; at: string }>()
+  for (const a of mine) status.set(a.target.cutId!, { cut: a.kind === 'cut.tick', at: a.takenAt })
+  return {
+    ...run,
+    sticks: run.sticks.map((stick) => {
+      if (!stick.cuts.some((c) => status.has(c.id))) return stick
+      const cuts = stick.cuts.map((c) => {
+        const s = status.get(c.id)
+        if (!s || c.status === 'replanned') return c
+        if (s.cut && c.status === 'pending') return { ...c, status: 'cut' as const, cutAt: s.at, cutBy: NOT_SENT }
+        if (!s.cut && c.status === 'cut') return { ...c, status: 'pending' as const, cutAt: null, cutBy: null }
+        return c
+      })
+      return { ...stick, cuts, status: stick.status === 'pending' && cuts.some((c) => c.status === 'cut') ? ('in_progress' as const) : stick.status }
+    }),
+  }
+}
 export const useDamageStick = () =>
   useBenchAction(
     (v: { runId: string; stickId: string; reason: string; spoiledCutIds: string[] }) => `/cut-runs/${v.runId}/sticks/${v.stickId}/damage`,

@@ -41,7 +41,7 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
     }
     sending.current = true
     tick.mutate(
-      { runId: run.id, cutId: cut.id },
+      { runId: run.id, cutId: cut.id, what: `${format(cut.length)} ${cut.label} for WO ${cut.serial} (stick ${stick.position})` },
       {
         onError: fail,
         onSettled: (_data, error) => {
@@ -66,7 +66,7 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
       <StickLegend bench className="text-base" />
       <ol className="space-y-2" aria-label="Pieces in saw order">
         {rows.map((r) => (
-          <PieceRow key={r.items[0]!.id} stick={stick} row={r} bin={binOf.get(r.items[0]!.workOrderId) ?? null} next={next?.id} queued={queue.filter((k) => k === r.items[0]!.id).length} onTick={() => setQueue((q) => [...q, r.items[0]!.id])} onUndo={(cutId) => undo.mutate({ runId: run.id, cutId }, { onError: fail })} busy={tick.isPending || undo.isPending || queue.length > 0} />
+          <PieceRow key={r.items[0]!.id} stick={stick} row={r} bin={binOf.get(r.items[0]!.workOrderId) ?? null} next={next?.id} queued={queue.filter((k) => k === r.items[0]!.id).length} onTick={() => setQueue((q) => [...q, r.items[0]!.id])} onUndo={(cutId) => undo.mutate({ runId: run.id, cutId, what: `${format(r.items[0]!.length)} ${r.items[0]!.label} for WO ${r.items[0]!.serial} (stick ${stick.position})` }, { onError: fail })} busy={tick.isPending || undo.isPending || queue.length > 0} />
         ))}
       </ol>
       {stick.offcutId && (

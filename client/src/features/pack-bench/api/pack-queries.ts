@@ -3,6 +3,7 @@ import { z } from 'zod'
 import { PackViewSchema, QuoteSchema, ShipResultSchema, type BuyLabel, type PackView, type QuoteRequest } from '@kitwright/shared/pack'
 import { CustomsSummarySchema } from '@kitwright/shared/customs'
 import { apiFetch } from '../../../lib/api-client'
+import { submitBenchAction, type BenchActionSpec } from '../../../lib/offline/bench-queue'
 
 export const packKeys = {
   all: ['pack-bench'] as const,
@@ -31,12 +32,42 @@ function useViewAction<V>(request: (v: V) => Promise<PackView>) {
 
 /** A scan with no order open: the order the bin or serial belongs to. */
 export const useLookup = () => useViewAction((code: string) => apiFetch(`/pack/lookup?code=${encodeURIComponent(code)}`, PackViewSchema))
-export const useScanItem = () => useViewAction((v: { orderId: string; code: string }) => apiFetch(`/pack/orders/${v.orderId}/scan`, PackViewSchema, { method: 'POST', body: { code: v.code } }))
-export const useTickItem = () => useViewAction((v: { orderId: string; itemKey: string }) => apiFetch(`/pack/orders/${v.orderId}/tick`, PackViewSchema, { method: 'POST', body: { itemKey: v.itemKey } }))
-export const useUndoItem = () => useViewAction((v: { orderId: string; itemKey: string }) => apiFetch(`/pack/orders/${v.orderId}/undo`, PackViewSchema, { method: 'POST', body: { itemKey: v.itemKey } }))
+/**
+ * A pack bench action through the tablet's queue (lib/offline/): kept first, sent in order, waiting
+ * while the network is down (the banner counts it); the view is refreshed once it went through.
+ */
+function useQueuedViewAction<V>(spec: (v: V) => BenchActionSpec & { path: string }) {
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: async (v: V) => {
+      const outcome = await submitBenchAction(spec(v), PackViewSchema)
+      return outcome.sent ? outcome.data : null
+    },
+    onSuccess: (view: PackView | null) => {
+      if (view) qc.setQueryData(packKeys.order(view.order.id), view)
+    },
+  })
+}
+
+export const useScanItem = () =>
+  useQueuedViewAction((v: { orderId: string; code: string }) => ({ bench: 'pack', kind: 'pack.scan', label: `Scan ${v.code} into the box`, path: `/pack/orders/${v.orderId}/scan`, body: { code: v.code }, target: { orderId: v.orderId } }))
+export const useTickItem = () =>
+  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({ bench: 'pack', kind: 'pack.tick', label: `Tick ${v.itemKey} as in the box`, path: `/pack/orders/${v.orderId}/tick`, body: { itemKey: v.itemKey }, target: { orderId: v.orderId } }))
+export const useUndoItem = () =>
+  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({ bench: 'pack', kind: 'pack.undo', label: `Take ${v.itemKey} out of the box`, path: `/pack/orders/${v.orderId}/undo`, body: { itemKey: v.itemKey }, target: { orderId: v.orderId } }))
 export const useApprovePartial = () =>
   useViewAction((v: { orderId: string; note: string }) => apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }))
-export const useBuyLabel = () => useViewAction((v: BuyLabel & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/label`, PackViewSchema, { method: 'POST', body: { service: v.service, parcels: v.parcels } }))
+/** Buying spends money: it is kept with its id before it is sent, and offline it waits with its badge (the server's idempotency keeps it to one label). */
+export const useBuyLabel = () =>
+  useQueuedViewAction((v: BuyLabel & { orderId: string }) => ({
+    bench: 'pack',
+    kind: 'pack.label',
+    label: `Buy the shipping label (${v.service})`,
+    path: `/pack/orders/${v.orderId}/label`,
+    body: { service: v.service, parcels: v.parcels },
+    target: { orderId: v.orderId },
+    needsServer: true,
+  }))
 
 /** Voids the shipment's label with why; the carrier is asked to refund it. */
 export const useVoidLabel = () =>
