@@ -16,7 +16,10 @@ import { ROLES, type Role } from '@kitwright/shared/roles'
  *   into bins and printing bin labels); reads the catalog, stock and settings.
  * - assembler: the build bench (steps, photos, leak test, the lot of each lot-tracked part) and a unit's build record; reads as above.
  * - packer: the pack bench (verify, weigh hardware bags, quote, label, ship, void its own label, papers, customs) and a
- *   unit's build record; shipping an order short is the office's call, not the packer's.
+ *   unit's build record; shipping an order short is the office's call, not the packer's. Returns
+ *   come back to the pack bench: the packer reads them, receives the parcel and photographs what came
+ *   back; opening a return, buying its label (money) and deciding repair, replace or refund are the
+ *   office's; the list of return reasons is a shop setting, the owner's.
  *
  * Every route Express has needs a line here; a new route without one fails tests/api/access.test.ts
  * until someone decides, route by route, who should call it. `y` = let through, `-` = refused
