@@ -81,7 +81,13 @@ export const LotParamsSchema = z.object({ lotId: uuid })
 
 /** Search of the lots page: a lot code or a part's SKU or name. */
 export const LotListQuerySchema = z.object({
-  q: z.string().trim().max(60, 'Use at most 60 characters').optional().transform((v) => v || undefined),
+  q: z
+    .string()
+    .trim()
+    .max(60, 'Use at most 60 characters')
+    .regex(/^[^\u0000-\u001f\u007f]*$/, 'Type letters and digits to search: no control characters')
+    .optional()
+    .transform((v) => v || undefined),
 })
 /** Search of the lots page. */
 export type LotListQuery = z.infer<typeof LotListQuerySchema>
@@ -139,7 +145,13 @@ export type LotDetail = z.infer<typeof LotDetailSchema>
 export const NotifyRecallSchema = z
   .object({
     /** What the shop asks the customer to do, in the shop's words (goes into every e-mail). */
-    message: z.string({ error: 'Say what the customer should do' }).trim().min(10, 'Say what the customer should do, e.g. stop using the pump and reply for a replacement').max(2000, 'Use at most 2000 characters'),
+    message: z
+      .string({ error: 'Say what the customer should do' })
+      .trim()
+      .min(10, 'Say what the customer should do, e.g. stop using the pump and reply for a replacement')
+      .max(2000, 'Use at most 2000 characters')
+      // Line breaks are fine; other control characters (a NUL byte) cannot go into an e-mail.
+      .regex(/^[^\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f]*$/, 'Remove the control characters from the message'),
   })
   .strict()
 /** "Tell the customers". */

@@ -88,6 +88,12 @@ describe('the build bench, in Chromium', () => {
       await card.getByRole('button', { name: `Tick step ${step.position}` }).click()
       await card.getByRole('button', { name: `Undo step ${step.position}` }).waitFor()
     }
+    // The pump and the sprayers are lot-tracked in the demo: tap the oldest lot in stock of each.
+    for (const sku of ['PMP-400-GPH', 'SPR-360-THR']) {
+      const card = page.getByRole('listitem', { name: `Lot of ${sku}` })
+      await card.getByRole('button', { name: /^Lot / }).first().click()
+      await card.getByRole('button', { name: /^Undo lot / }).waitFor()
+    }
     expect(await page.getByRole('status').textContent()).toContain('left: the leak test to run')
     // The photo went to the bucket and was recorded once the server saw it there.
     const photos = await conn.db.select().from(unitPhotos).where(eq(unitPhotos.workOrderId, wo.id))

@@ -3,6 +3,7 @@ import { useState } from 'react'
 import { Link, useParams } from 'react-router-dom'
 import { toast } from 'sonner'
 import { formatDateTime } from '@kitwright/shared/dates'
+import { WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Button } from '../../../components/ui/button'
 import { Caution, Section } from '../../../components/ui/section'
 import { paths } from '../../../config/paths'
@@ -80,13 +81,13 @@ export function Component() {
               <tbody>
                 {d.recall.map((u) => (
                   <tr key={u.workOrderId} className="border-t border-stone-200">
-                    <td className={td}>
+                    <td className={`${td} whitespace-nowrap`}>
                       <Link to={paths.unit.href(u.serial)} className="font-bold text-brand-700 underline">
                         {u.serial}
                       </Link>
                       <span className="block text-sm text-stone-600">× {u.quantity} fitted</span>
                     </td>
-                    <td className={td}>
+                    <td className={`${td} whitespace-nowrap`}>
                       <Link to={paths.order.href(u.order.id)} className="text-brand-700 underline">
                         {u.order.number}
                       </Link>
@@ -102,7 +103,7 @@ export function Component() {
                           {u.trackingNumber && <span className="block text-sm text-stone-600">tracking {u.trackingNumber}</span>}
                         </>
                       ) : (
-                        <span className="font-bold text-amber-800">Still in the shop ({u.status})</span>
+                        <span className="font-bold text-amber-800">Still in the shop ({WORK_ORDER_STATUS_LABELS[u.status]})</span>
                       )}
                     </td>
                     <td className={td}>

@@ -1,5 +1,6 @@
 import { useState } from 'react'
 import type { BuildPage } from '@kitwright/shared/build'
+import { formatDateOf } from '@kitwright/shared/dates'
 import type { UnitLotNeed } from '@kitwright/shared/lots'
 import { Button } from '../../../components/ui/button'
 import { cn } from '../../../lib/cn'
@@ -85,7 +86,7 @@ function LotNeedCard({ code, page, need }: { code: string; page: BuildPage; need
                   <Button key={c.lotId} variant={i === 0 ? 'primary' : 'secondary'} size="bench" disabled={fit.isPending} onClick={() => send(c.code)} aria-label={`Lot ${c.code}, ${c.free} free`}>
                     <span className="font-mono">{c.code}</span>
                     <span className="text-base font-normal">
-                      {c.free} free · in {formatWhen(c.firstReceivedAt).split(',').slice(0, 2).join(',')}
+                      {c.free} free · received {formatDateOf(c.firstReceivedAt)}
                     </span>
                   </Button>
                 ))}
