@@ -47,7 +47,9 @@ export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId 
   const remnantX = (stick.length - stick.remnant) * k
   const remnantW = stick.remnant * k
   const remnantWords = `${stick.remnantIsOffcut ? 'offcut' : 'scrap'} ${format(stick.remnant)}`
-  const label = `${stick.source === 'offcut' ? `Offcut ${stick.sourceOffcutCode}` : 'Stick'} of ${format(stick.length)}: ${stick.cuts.map((c, i) => `${i + 1}. ${format(c.length)} for ${c.serial}${c.status === 'cut' ? ' (cut)' : ''}`).join(', ')}${stick.remnant > 0 ? `; ${remnantWords}` : ''}`
+  const what = stick.source === 'offcut' ? `Offcut ${stick.sourceOffcutCode}` : 'Stick'
+  const cutWords = stick.cuts.map((c, i) => `${i + 1}. ${format(c.length)} for ${c.serial}${c.status === 'cut' ? ' (cut)' : ''}`).join(', ')
+  const label = `${what} of ${format(stick.length)}: ${cutWords}${stick.remnant > 0 ? `; ${remnantWords}` : ''}`
   return (
     <svg viewBox={`0 0 ${W} ${H}`} className="h-auto w-full" role="img" aria-label={label} preserveAspectRatio="xMinYMin meet" fontFamily="inherit">
       <rect x={1} y={1} width={width - 2} height={BAR - 2} fill={P.scrap} stroke={P.edge} strokeWidth={2} />
@@ -70,7 +72,16 @@ export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId 
         const showSerial = m.w >= (lengthText.length + c.serial.length + 3) * 7.5 + 8
         return (
           <g key={c.id}>
-            <rect x={m.x} y={next ? 2 : 0} width={m.w} height={next ? BAR - 4 : BAR} fill={fill} stroke={next ? P.pieceInk : P.pieceEdge} strokeWidth={next ? 5 : 2} strokeDasharray={moved ? '6 4' : undefined} />
+            <rect
+              x={m.x}
+              y={next ? 2 : 0}
+              width={m.w}
+              height={next ? BAR - 4 : BAR}
+              fill={fill}
+              stroke={next ? P.pieceInk : P.pieceEdge}
+              strokeWidth={next ? 5 : 2}
+              strokeDasharray={moved ? '6 4' : undefined}
+            />
             {kerf > 0 && <rect x={m.x + m.w} y={0} width={Math.max(2.5, kerf * k)} height={BAR} fill={P.kerf} />}
             {m.level === null ? (
               <>
@@ -94,7 +105,18 @@ export function StickDrawing({ stick, kerf, scaleLength, format, highlightCutId 
       )}
       {marks.map((m) =>
         m.level === null ? null : (
-          <text key={`n${m.number}`} x={m.x + m.w / 2} y={BAR + 4 + (m.level + 1) * LEVEL} textAnchor="middle" fontSize={NUMBER_SIZE} fontWeight={700} fill={P.pieceInk} stroke={P.scrap} strokeWidth={5} paintOrder="stroke">
+          <text
+            key={`n${m.number}`}
+            x={m.x + m.w / 2}
+            y={BAR + 4 + (m.level + 1) * LEVEL}
+            textAnchor="middle"
+            fontSize={NUMBER_SIZE}
+            fontWeight={700}
+            fill={P.pieceInk}
+            stroke={P.scrap}
+            strokeWidth={5}
+            paintOrder="stroke"
+          >
             {m.number}
           </text>
         ),

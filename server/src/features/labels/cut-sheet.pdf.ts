@@ -203,7 +203,8 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
   for (const text of [
     `${opts.shopName} · ${CUT_RUN_STATUS_LABELS[run.status]} · planned ${run.createdAt.slice(0, 10)}${run.publishedBy ? ` · published by ${run.publishedBy}` : ''}`,
     `Kerf ${len(run.kerf)} · end trim ${len(run.endTrim)} · keep offcuts of ${len(run.minOffcut)} or more`,
-    `${t.sticksUsed} stick${t.sticksUsed === 1 ? '' : 's'} (${t.offcutsUsed} from offcuts) · pieces ${len(t.pieceLength)} · waste ${len(t.waste)} (${t.wastePercent.toFixed(1)} %) · ${t.offcutsMade} offcut${t.offcutsMade === 1 ? '' : 's'} to stock`,
+    `${t.sticksUsed} stick${t.sticksUsed === 1 ? '' : 's'} (${t.offcutsUsed} from offcuts) · pieces ${len(t.pieceLength)} · ` +
+      `waste ${len(t.waste)} (${t.wastePercent.toFixed(1)} %) · ${t.offcutsMade} offcut${t.offcutsMade === 1 ? '' : 's'} to stock`,
   ]) {
     line(doc, text, MARGIN, y, width, { size: 10, color: '#44403c' })
     y += 13
@@ -241,9 +242,12 @@ export async function cutSheetPdf(run: CutRunDetail, opts: { paper: 'letter' | '
     const source = first.source === 'offcut' ? `offcut ${first.sourceOffcutCode} (${len(first.length)})` : `${len(first.length)} stick`
     const lengths = first.cuts.map((c) => c.length)
     const settings = [...new Set(lengths)].map(len)
-    const heading = `Pattern ${pattern.index + 1}: ${first.partSku}, ${source} · cut ${pattern.sticks.length} ${pattern.sticks.length === 1 ? 'stick' : 'sticks'}${live.length < pattern.sticks.length ? ` (${pattern.sticks.length - live.length} damaged)` : ''}`
+    const damaged = live.length < pattern.sticks.length ? ` (${pattern.sticks.length - live.length} damaged)` : ''
+    const heading = `Pattern ${pattern.index + 1}: ${first.partSku}, ${source} · cut ${pattern.sticks.length} ${pattern.sticks.length === 1 ? 'stick' : 'sticks'}${damaged}`
     const remnantNote = first.remnant > 0 ? (first.remnantIsOffcut ? `offcut ${len(first.remnant)} to the rack` : `scrap ${len(first.remnant)}`) : 'no remnant'
-    const info = `${first.trim > 0 ? `Square the end first (trim ${len(first.trim)}). ` : ''}${first.cuts.length} pieces; stop block at ${settings.join(', ')} (${stopSettings(lengths)} setting${stopSettings(lengths) === 1 ? '' : 's'}); ${remnantNote}.`
+    const squareFirst = first.trim > 0 ? `Square the end first (trim ${len(first.trim)}). ` : ''
+    const stops = stopSettings(lengths)
+    const info = `${squareFirst}${first.cuts.length} pieces; stop block at ${settings.join(', ')} (${stops} setting${stops === 1 ? '' : 's'}); ${remnantNote}.`
     const drawH = drawingHeight(doc, first, width, unit)
     const headH = HEAD_H + INFO_H + drawH + TABLE_HEAD_H
     const groups = pattern.sticks.map((stick) => ({ stick, rows: foldRuns(stick.cuts, samePieceRow) }))

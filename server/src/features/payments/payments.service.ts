@@ -147,8 +147,13 @@ export async function sendPaymentLink(deps: Pick<Deps, 'db' | 'jobs' | 'payments
       // One e-mail per link: sending the same open link again is a no-op here, a new amount is a new link.
       purpose: `payment_link:${open.id}`,
       subject: `Pay for your order ${order.number} (${amount})`,
-      text: `Hello ${order.customerName},\n\nThank you for your order ${order.number}. You can pay ${amount} securely here:\n${pay}\n\nWe start on your order as soon as the payment comes through.\n\n${settings.shopName}\n`,
-      html: `<p>Hello ${escapeHtml(order.customerName)},</p><p>Thank you for your order ${escapeHtml(order.number)}. You can pay ${amount} securely here:</p><p><a href="${pay}">Pay ${amount} for order ${escapeHtml(order.number)}</a></p><p>We start on your order as soon as the payment comes through.</p><p>${escapeHtml(settings.shopName)}</p>`,
+      text:
+        `Hello ${order.customerName},\n\nThank you for your order ${order.number}. You can pay ${amount} securely here:\n${pay}\n\n` +
+        `We start on your order as soon as the payment comes through.\n\n${settings.shopName}\n`,
+      html:
+        `<p>Hello ${escapeHtml(order.customerName)},</p><p>Thank you for your order ${escapeHtml(order.number)}. You can pay ${amount} securely here:</p>` +
+        `<p><a href="${pay}">Pay ${amount} for order ${escapeHtml(order.number)}</a></p>` +
+        `<p>We start on your order as soon as the payment comes through.</p><p>${escapeHtml(settings.shopName)}</p>`,
     })
     await recordAudit(
       tx,

@@ -97,14 +97,22 @@ export function IdentityForm({ identity }: { identity: ShopIdentity }) {
           <Field label="Sender name" error={errors.mailFromName?.message} hint="The From name of every e-mail; blank: the shop name.">
             <Input {...form.register('mailFromName')} aria-invalid={!!errors.mailFromName} />
           </Field>
-          <Field label="Sender e-mail" error={errors.mailFromAddress?.message} hint={`The From address; blank: ${identity.mailFromFallback} (MAIL_FROM). Your mail relay must be allowed to send as it.`}>
+          <Field
+            label="Sender e-mail"
+            error={errors.mailFromAddress?.message}
+            hint={`The From address; blank: ${identity.mailFromFallback} (MAIL_FROM). Your mail relay must be allowed to send as it.`}
+          >
             <Input type="email" {...form.register('mailFromAddress')} aria-invalid={!!errors.mailFromAddress} />
           </Field>
         </div>
         <Field label="Reply-to e-mail" error={errors.replyToAddress?.message} hint="Where customers' replies go; blank: to the From address.">
           <Input type="email" {...form.register('replyToAddress')} aria-invalid={!!errors.replyToAddress} />
         </Field>
-        <Field label="Carrier" error={errors.carrierName?.message} hint="The carrier you ship with, as your shipping service names it; printed on labels, e-mails and timelines. Only its rates are offered.">
+        <Field
+          label="Carrier"
+          error={errors.carrierName?.message}
+          hint="The carrier you ship with, as your shipping service names it; printed on labels, e-mails and timelines. Only its rates are offered."
+        >
           <Input {...form.register('carrierName')} aria-invalid={!!errors.carrierName} />
         </Field>
       </fieldset>
@@ -132,7 +140,8 @@ export function IdentityForm({ identity }: { identity: ShopIdentity }) {
           {identity.publicUrl}
         </p>
         <p className="text-sm text-stone-600">
-          Every link in customer e-mails (build records) and every QR code starts with it. It comes from PUBLIC_URL in the server&rsquo;s environment (see the README), because it must match how the app is served; change it there and restart.
+          Every link in customer e-mails (build records) and every QR code starts with it. It comes from PUBLIC_URL in the server&rsquo;s
+          environment (see the README), because it must match how the app is served; change it there and restart.
         </p>
       </section>
       <Button type="submit" disabled={update.isPending || !form.formState.isDirty}>
