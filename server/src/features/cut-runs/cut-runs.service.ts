@@ -22,7 +22,7 @@ import {
 import { loadPipeStock } from './pipe-stock'
 import { insertPlanRows, sumPlans, type PartPlan } from './plan-rows'
 import { runNesting } from './run-nesting'
-import { CUT_RUN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
+import { CUT_RUN_STATUS_LABELS, OFFCUT_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
 type Actor = Pick<SessionUser, 'id' | 'name'>
 
@@ -226,7 +226,7 @@ export async function reserveOffcuts(tx: Tx, offcutIds: readonly string[], unit:
   if (taken.length === offcutIds.length) return
   const got = new Set(taken.map((t) => t.id))
   const missing = await tx.select().from(offcuts).where(inArray(offcuts.id, offcutIds.filter((id) => !got.has(id))))
-  const names = missing.map((o) => `${formatLength(o.length, unit)} offcut (${o.status.replace('_', ' ')})`).join(', ')
+  const names = missing.map((o) => `${formatLength(o.length, unit)} offcut (${statusInSentence(OFFCUT_STATUS_LABELS, o.status)})`).join(', ')
   throw new Conflict(`Not enough stock to publish: the plan uses offcuts that are no longer on the rack: ${names}. Plan the run again.`)
 }
 

@@ -20,6 +20,8 @@ import { purchaseOrderPdf } from '../labels/purchase-order.pdf'
 import { queueMail } from '../mail/mail.service'
 import { shipFromOf } from '../settings/settings.service'
 import { selectShortages } from '../work-orders/shortages.queries'
+import { PURCHASE_ORDER_STATUS_WORDS } from '@kitwright/shared/purchasing-status'
+import { statusInSentence } from '@kitwright/shared/status-words'
 
 type Conn = Db | Tx
 
@@ -185,7 +187,7 @@ export async function draftFromShortages(db: Db, actor: Actor): Promise<DraftFro
 export async function updateDraft(db: Db, id: string, input: UpdatePurchaseOrder): Promise<PurchaseOrder> {
   return db.transaction(async (tx) => {
     const po = await lockPurchaseOrder(tx, id)
-    if (po.status !== 'draft') throw new Conflict(`${po.number} is ${po.status.replace('_', ' ')}: only a draft can be edited`)
+    if (po.status !== 'draft') throw new Conflict(`${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft can be edited`)
     const ids = [...new Set(input.lines.map((l) => l.partId))]
     if (ids.length !== input.lines.length) {
       const dup = input.lines.findIndex((l, i) => input.lines.findIndex((m) => m.partId === l.partId) !== i)
@@ -205,7 +207,7 @@ export async function updateDraft(db: Db, id: string, input: UpdatePurchaseOrder
 export async function cancelPurchaseOrder(db: Db, id: string): Promise<PurchaseOrder> {
   return db.transaction(async (tx) => {
     const po = await lockPurchaseOrder(tx, id)
-    if (po.status !== 'draft' && po.status !== 'sent') throw new Conflict(`${po.number} is ${po.status.replace('_', ' ')}: only a draft or a sent order with nothing received can be cancelled`)
+    if (po.status !== 'draft' && po.status !== 'sent') throw new Conflict(`${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft or a sent order with nothing received can be cancelled`)
     await tx.update(purchaseOrders).set({ status: 'cancelled', updatedAt: new Date() }).where(eq(purchaseOrders.id, id))
     return getPurchaseOrder(tx, id)
   })
@@ -245,7 +247,7 @@ export async function sendPurchaseOrder(deps: Pick<Deps, 'db' | 'jobs'>, id: str
   return deps.db.transaction(async (tx) => {
     const po = await lockPurchaseOrder(tx, id)
     if (po.sentMailId) return { purchaseOrder: await getPurchaseOrder(tx, id), alreadySent: true }
-    if (po.status !== 'draft') throw new Conflict(`${po.number} is ${po.status.replace('_', ' ')}: only a draft can be sent`)
+    if (po.status !== 'draft') throw new Conflict(`${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft can be sent`)
     const [supplier] = await tx.select().from(suppliers).where(eq(suppliers.id, po.supplierId))
     if (!supplier?.email) throw new Conflict(`${supplier?.name ?? 'The supplier'} has no e-mail address: add one on the Suppliers page, then send`, { email: 'Needed to send' })
     const current = await getPurchaseOrder(tx, id)
