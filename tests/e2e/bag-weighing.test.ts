@@ -14,6 +14,7 @@ let browser: Browser
 let made: Awaited<ReturnType<typeof insertPackOrder>>
 
 const packer = DEMO_USERS.find((d) => d.role === 'packer')!
+const planner = DEMO_USERS.find((d) => d.role === 'planner')!
 
 beforeAll(async () => {
   mkdirSync(shots, { recursive: true })
@@ -76,6 +77,31 @@ describe('weighing a hardware bag at the pack bench (Chromium, tablet)', () => {
       expect(box!.height).toBeGreaterThanOrEqual(48)
     }
     await page.screenshot({ path: path.join(shots, 'bag-weighing-accepted.png'), fullPage: true })
+    await context.close()
+  })
+
+  it('a planner weighs a counted sample on Unit weights and sees the division and its rounding before keeping it', async () => {
+    const context = await browser.newContext({ viewport: { width: 1366, height: 1024 } })
+    const page = await context.newPage()
+    await signIn(page, baseUrl, planner.email, planner.password)
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Unit weights' }).click()
+    await page.getByRole('heading', { name: 'Unit weights' }).waitFor()
+    const grommet = page.getByRole('listitem', { name: '3/4 in rubber grommet for drain' })
+    await grommet.getByRole('button', { name: 'Weigh a sample' }).click()
+    const form = grommet.getByRole('form', { name: 'Weigh a sample of 3/4 in rubber grommet for drain' })
+    await form.getByLabel('Pieces on the scale').fill('0')
+    await form.getByLabel('They weigh').fill('98.8 g')
+    await form.getByRole('alert').getByText('Count at least 1 piece onto the scale').waitFor()
+    // 98.8 g ÷ 20 = 4.94 g each, even; 101.3 g ÷ 20 = 5.065 g, kept as 5.07 g (half up, worked by hand).
+    await form.getByLabel('Pieces on the scale').fill('20')
+    await form.getByLabel('They weigh').fill('101.3 g')
+    await form.getByLabel('Single pieces, weighed one by one').fill('5.01 g, 5.12 g, 5.05 g')
+    await form.getByText('20 × 3/4 in rubber grommet for drain weigh 101.3 g → 5.065 g each, kept as 5.07 g').waitFor()
+    await form.getByText('Spread: the farthest single piece is ±0.06 g from 5.07 g').waitFor()
+    await page.screenshot({ path: path.join(shots, 'unit-weights-sample.png'), fullPage: true })
+    await form.getByRole('button', { name: 'Keep this unit weight' }).click()
+    await grommet.getByText(/^5\.07 g each \(0\.18 oz\) · spread ±0\.06 g from 3 single pieces/).waitFor()
+    await grommet.getByText(new RegExp(`weighed by ${planner.name}`)).waitFor()
     await context.close()
   })
 })

@@ -26,7 +26,7 @@ export function UnitWeightsList({ parts, editing, onEdit, canEdit }: { parts: Pa
                   </p>
                 </>
               ) : (
-                <p className="text-base text-amber-800">No unit weight yet: bags holding it cannot be checked by weight</p>
+                <p className="text-base text-stone-600">Not weighed yet: needed only if it goes in a hardware bag or a spare pack</p>
               )}
             </div>
             {canEdit && editing !== p.partId && (
