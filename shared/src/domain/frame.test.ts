@@ -157,6 +157,42 @@ describe('fittings table (ASTM D1785 pipe, ASTM D2466 Schedule 40 socket fitting
   })
 })
 
+describe('hand-worked frame of 3/4 in Schedule 40 fittings from the table', () => {
+  // 3/4 in pipe OD 1.050 in (ASTM D1785), sockets 0.719 in deep and G = 0.594 in (ASTM D2466, from
+  // memory: see fittings.ts), in a tote 16 × 24 in inside at the manifold, 14 in deep, 2 in recess,
+  // 1/2 in clearance, no cross runs, the riser on the front short side, pump outlet 4-1/2 in, adapter
+  // socket bottom 1/2 in above it (invented), cuts to the nearest 1/16 in.
+  //   centreline width  = 16 − 2 × (0.5 + 0.525) = 13.95 in;  length = 24 − 2.05 = 21.95 in
+  //   long sides, elbow to elbow: 21.95 − 2 × 0.594 = 20.762 → ×16 = 332.19 → 332/16 = 20-3/4 in (×2)
+  //   back short side: 13.95 − 1.188 = 12.762 → 204.19 → 204/16 = 12-3/4 in
+  //   front short side halves: 6.975 − 1.188 = 5.787 → 92.59 → 93/16 = 5-13/16 in (×2)
+  //   riser: top 12 − 0.594 = 11.406; bottom 4.5 + 0.5 = 5; 6.406 → 102.496 → 102/16 = 6-3/8 in
+  //   exposed pipe on the 5-13/16 in halves: 5.8125 − 2 × 0.719 = 4.3745 in
+  const result = computeFrame({
+    enclosure: { insideWidth: inches(16), insideLength: inches(24), insideHeight: inches(14) },
+    recessBelowRim: inches(2),
+    wallClearance: inches(0.5),
+    pipeOutsideDiameter: pvcSchedule40Od('3/4'),
+    ...schedule40Fittings('3/4'),
+    layout: { crossRuns: 0, riserSide: 'short' },
+    sprayers: { perLongSide: 0, perShortSide: 0, perCrossRun: 0, minDistanceFromFitting: inches(0.5) },
+    riser: { pumpOutletHeight: inches(4.5), pumpAdapter: { socketDepth: schedule40SocketDepth('3/4'), socketBottomAboveOutlet: inches(0.5) } },
+    cutPrecision: inches(1 / 16),
+  })
+
+  it('gives the hand-worked cut list', () => {
+    expect(cuts(result)).toEqual({
+      'long:elbow-elbow': [20.75, 2],
+      'short:elbow-riser_tee': [5.8125, 2],
+      'short:elbow-elbow': [12.75, 1],
+      riser: [6.375, 1],
+    })
+    expect(result.ok).toBe(true)
+    const half = result.cutList.find((l) => l.key === 'short:elbow-riser_tee')!
+    expect(toInches(half.length - 2 * schedule40SocketDepth('3/4'))).toBeCloseTo(4.3745, 3)
+  })
+})
+
 describe('hand-worked frame', () => {
   // Centreline rectangle: 12 − 2 × (1/2 + 1/2) = 10 in wide; 20 − 2 = 18 in long.
   // Left long side: elbow at 0, cross tees at 6 and 12 (18 ÷ 3), riser tee at 9 (the middle), elbow at 18.
