@@ -138,6 +138,8 @@ export const StockLedgerSchema = z.object({
   moves: z.array(LedgerEntrySchema),
   /** How many moves the part has in all (the list may be cut at `limit`). */
   totalMoves: z.number().int(),
+  /** A lot-tracked part's lots with stock, oldest first: on hand, and free (not fitted into a unit still in the shop). */
+  lots: z.array(z.object({ lotId: z.string(), code: z.string(), firstReceivedAt: z.string(), onHand: z.number().int(), free: z.number().int() })).default([]),
 })
 /** One part's ledger, newest first, with its balances. */
 export type StockLedger = z.infer<typeof StockLedgerSchema>

@@ -63,6 +63,10 @@ describe('the stock page, in Chromium', () => {
     await form.getByLabel('Packing-list no. (optional)').fill('BWP-0901')
     await form.getByLabel('Part (line 1)').selectOption({ label: `${DEMO_PART_SKUS.pump} — Submersible pump, about 400 gal/h, mains powered` })
     await form.getByLabel(/^Quantity/).first().fill('10')
+    // The pump is lot-tracked: the form asks for the supplier's lot and refuses the line without it.
+    await form.getByRole('button', { name: 'Receive into stock' }).click()
+    await form.getByText(`${DEMO_PART_SKUS.pump} is tracked by lot: type or scan the supplier's lot on the bag or box`).waitFor()
+    await form.getByLabel("Supplier's lot (line 1)").fill('BW-2611-003')
     await form.getByRole('button', { name: 'Add a line' }).click()
     await form.getByLabel('Part (line 2)').selectOption({ label: `${DEMO_PART_SKUS.pipeHalfInch} — 1/2 in Schedule 40 PVC pipe, plain end` })
     await form.getByLabel(/^Quantity/).nth(1).fill('6')
@@ -71,6 +75,7 @@ describe('the stock page, in Chromium', () => {
     await form.getByRole('button', { name: 'Receive into stock' }).click()
     await form.getByText('is not bought in 12 ft sticks: use one of 10 ft, 20 ft').waitFor()
     await form.getByLabel('Stick length').fill('10 ft')
+    if (process.env.LOTS_SHOTS) await page.screenshot({ path: `${process.env.LOTS_SHOTS}/receive-with-lot.png`, fullPage: true })
     await form.getByRole('button', { name: 'Receive into stock' }).click()
     await page.getByText('Received 2 lines into stock').waitFor()
 
@@ -86,7 +91,9 @@ describe('the stock page, in Chromium', () => {
     const ledger = page.getByRole('table', { name: 'Ledger' })
     await ledger.waitFor()
     const newest = await ledger.getByRole('row').nth(1).getByRole('cell').allTextContents()
-    expect(newest.slice(1)).toEqual(['Received', '+10', '—', 'BWP-0901', planner.name, String(before + 10), reservedBefore])
+    expect(newest.slice(1)).toEqual(['Received', '+10', 'lot BW-2611-003', 'BWP-0901', planner.name, String(before + 10), reservedBefore])
+    // Stock by lot: the new lot beside the demo's two.
+    expect(await page.getByLabel('Stock by lot').textContent()).toMatch(/BW-2609-114: \d+ on hand.*BW-2610-027: \d+ on hand.*BW-2611-003: 10 on hand/)
   })
 
   it('records an adjustment with a reason and refuses one that would take on-hand below zero', async () => {

@@ -21,7 +21,7 @@ import { parts, purchaseOrders, shopSettings, suppliers, type NewStockMoveRow, t
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { findPurchaseOrderByNumber, receiveOnPurchaseOrder, type PurchaseReceiptLine } from '../purchasing/purchase-orders.service'
-import { lotIdsFor } from '../lots/lots.queries'
+import { lotBalances, lotIdsFor } from '../lots/lots.queries'
 import { readPackingList } from './packing-list'
 import { stockCsv } from './stock-export'
 import { toLedgerEntry, toStockMove, toStockRow } from './stock.mapper'
@@ -63,7 +63,8 @@ export async function stockLedger(db: Db, query: StockMovesQuery): Promise<Stock
   const [balance] = await selectStockRows(db, { partIds: [query.partId] })
   if (!balance) throw new NotFound('No such part in stock (it may have been retired)')
   const moves = await selectLedger(db, query.partId, query.limit)
-  return { balance: toStockRow(balance), moves: moves.map(toLedgerEntry), totalMoves: moves[0]?.totalMoves ?? 0 }
+  const lots = (await lotBalances(db, [query.partId])).filter((l) => l.onHand !== 0).map(({ lotId, code, firstReceivedAt, onHand, free }) => ({ lotId, code, firstReceivedAt, onHand, free }))
+  return { balance: toStockRow(balance), moves: moves.map(toLedgerEntry), totalMoves: moves[0]?.totalMoves ?? 0, lots }
 }
 
 // ---------------------------------------------------------------------------------------------------

@@ -22,7 +22,7 @@ const LEDGER_HEADERS: PlainHeader[] = [
   'When',
   'Move',
   { label: 'Change', numeric: true },
-  'Stick',
+  'Stick / lot',
   'Why / reference',
   'By',
   { label: 'On hand after', numeric: true },
@@ -62,13 +62,19 @@ export function StockLedgerView({ ledger }: { ledger: StockLedger }) {
           {b.offcuts.count > 0 && ` · offcuts: ${b.offcuts.count} (${format(b.offcuts.totalLength)} in all)`}
         </p>
       )}
+      {ledger.lots.length > 0 && (
+        <p className="text-stone-700" aria-label="Stock by lot">
+          By supplier's lot, oldest first:{' '}
+          {ledger.lots.map((l) => `${l.code}: ${l.onHand} on hand${l.free !== l.onHand ? `, ${l.free} not yet fitted` : ''}`).join(' · ')}
+        </p>
+      )}
       <PlainTable label="Ledger" headers={LEDGER_HEADERS}>
         {ledger.moves.map((m) => (
           <tr key={m.id} className={rowClass()}>
             <td className="px-3 py-2 whitespace-nowrap">{formatDateTime(m.createdAt)}</td>
             <td className="px-3 py-2">{KIND_LABELS[m.kind]}</td>
             <td className="px-3 py-2 text-right font-bold">{m.quantity > 0 ? `+${m.quantity}` : m.quantity}</td>
-            <td className="px-3 py-2">{m.stickLength === null ? '—' : formatStickLength(m.stickLength, unit)}</td>
+            <td className="px-3 py-2">{m.stickLength !== null ? formatStickLength(m.stickLength, unit) : m.lotCode ? `lot ${m.lotCode}` : '—'}</td>
             <td className="px-3 py-2">{[m.reason, m.reference].filter(Boolean).join(' · ') || '—'}</td>
             <td className="px-3 py-2">{m.createdBy?.name ?? '—'}</td>
             <td className="px-3 py-2 text-right">{m.onHandAfter}</td>
