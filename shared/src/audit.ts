@@ -19,6 +19,8 @@ export const AuditEventSchema = z.object({
   summary: z.string(),
   bench: z.string().nullable(),
   address: z.string().nullable(),
+  /** For a change a bench sent from its queue: when it was taken on the bench (the tablet's clock); `at` is when it reached the server. */
+  takenAt: z.string().nullable(),
 })
 /** One entry of the audit trail. */
 export type AuditEvent = z.infer<typeof AuditEventSchema>

@@ -3,6 +3,7 @@ import { and, eq, isNull } from 'drizzle-orm'
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import { BuildPageSchema, PresignedPhotoSchema, type BuildPage } from '@kitwright/shared/build'
 import { BENCH_ACTION_ID_HEADER, BENCH_ACTION_REPLAYED_HEADER, BENCH_ACTION_TAKEN_AT_HEADER } from '@kitwright/shared/bench-actions'
+import { AuditPageSchema } from '@kitwright/shared/audit'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { auditEvents, buildStepTicks, clientActions, leakTests, workOrders } from '../../server/src/db/schema/index'
 import { buildApp, signedInAs } from '../support/app'
@@ -66,6 +67,10 @@ describe('bench actions sent from a tablet’s queue', () => {
     expect(trail[0]!.takenAt?.toISOString()).toBe(takenAt)
     expect(trail[0]!.clientActionId).toBe(id)
     expect(trail[0]!.at.getTime()).toBeGreaterThan(Date.parse(takenAt))
+    // The audit page shows both times.
+    const admin = await signedInAs(app, t, 'admin')
+    const listed = AuditPageSchema.parse((await admin.agent.get('/api/audit').query({ action: 'build.tick' })).body)
+    expect(listed.items.map((e) => e.takenAt)).toEqual([takenAt])
     const [kept] = await t.db.select().from(clientActions).where(eq(clientActions.id, id))
     expect(kept).toMatchObject({ userId: s.assemblerUser.id, status: 200, bench: 'build', method: 'POST', path: tickPath(s.wo.id, s.step(1)) })
     expect(kept!.takenAt.toISOString()).toBe(takenAt)

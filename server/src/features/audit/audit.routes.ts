@@ -46,6 +46,7 @@ async function listAudit(db: Db, q: AuditQuery) {
       summary: e.summary,
       bench: e.bench,
       address: e.address,
+      takenAt: e.takenAt?.toISOString() ?? null,
     })),
     total: total?.n ?? 0,
     page: q.page,
