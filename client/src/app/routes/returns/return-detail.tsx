@@ -12,6 +12,8 @@ import { DecisionForm } from '../../../features/returns/components/decision-form
 import { ReturnPhotos } from '../../../features/returns/components/return-photos'
 
 const when = (iso: string) => new Date(iso).toLocaleString()
+/** A sentence ends with one full stop, whether or not its last words brought their own. */
+const sentence = (text: string) => (/[.!?]$/.test(text) ? `${text} ` : `${text}. `)
 const money = (cents: number, currency: string) => `${(cents / 100).toFixed(2)} ${currency}`
 
 /** One return: the unit, why, its label, its photos, receiving, and the decision. */
@@ -111,7 +113,7 @@ export function Component() {
             </p>
             {d.kind === 'repair' && (
               <p>
-                {d.reopenedSteps.length > 0 ? `Steps to do again: ${d.reopenedSteps.map((s) => `${s.position}. ${s.text}`).join('; ')}. ` : ''}
+                {d.reopenedSteps.length > 0 ? sentence(`Steps to do again: ${d.reopenedSteps.map((s) => `${s.position}. ${s.text}`).join('; ')}`) : ''}
                 {d.repaired ? 'Repaired: the new leak test passed and the unit is ready again.' : 'At the build bench: it needs a new leak test before it is ready again.'}
               </p>
             )}

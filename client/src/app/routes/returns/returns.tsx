@@ -31,6 +31,7 @@ export function Component() {
   const [found, setFound] = useState<ReturnLookup | null>(null)
   const [received, setReceived] = useState<string | null>(null)
 
+  // A refused scan is said by the scan field itself (code and message), once.
   const onScan = async (code: string) => {
     setReceived(null)
     if (mode === 'open') {
@@ -41,7 +42,6 @@ export function Component() {
       setReceived(`${r.number}: unit ${r.unit.serial} (${r.unit.kitSku}) received back. ${office ? 'Decide it below.' : 'Set it on the returns shelf for the office to decide.'}`)
     }
   }
-  const error = mode === 'open' ? lookup.error : receive.error
 
   return (
     <div className="max-w-5xl space-y-6">
@@ -57,11 +57,6 @@ export function Component() {
         </div>
       )}
       <ScanField label={mode === 'open' ? 'Serial or order number of the unit coming back' : 'Return label or serial of the parcel that came in'} onScan={onScan} />
-      {error && (
-        <p role="alert" className="rounded-lg border-2 border-red-400 bg-red-50 p-4 text-xl text-red-900">
-          {error.message}
-        </p>
-      )}
       {received && (
         <p role="status" className="rounded-lg border-2 border-green-600 bg-green-50 p-4 text-xl text-green-900">
           {received}

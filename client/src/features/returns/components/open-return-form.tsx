@@ -23,7 +23,10 @@ export function OpenReturnForm({ unit, onOpened }: { unit: ReturnableUnit; onOpe
       }}
     >
       <Field label="Reason" error={fields.reason}>
-        <Select value={reason} onChange={(e) => setReason(e.target.value)} aria-invalid={fields.reason ? true : undefined} className="h-14 text-lg">
+        <Select value={reason} onChange={(e) => {
+            setReason(e.target.value)
+            open.reset()
+          }} aria-invalid={fields.reason ? true : undefined} className="h-14 text-lg">
           <option value="">Choose the customer's reason…</option>
           {(reasons.data?.reasons ?? []).map((r) => (
             <option key={r} value={r}>

@@ -1,0 +1,107 @@
+import { mkdirSync } from 'node:fs'
+import path from 'node:path'
+import type { Browser, Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { createDb } from '../../server/src/db/client'
+import { DEMO_USERS } from '../../server/src/seeds/demo'
+import { launchChromium, signIn } from '../support/browser'
+import { testDatabaseUrl } from '../support/env'
+import { insertPackOrder } from '../support/pack-factories'
+
+const baseUrl = inject('baseUrl')
+const shots = path.resolve(import.meta.dirname, '../.artifacts')
+let browser: Browser
+let made: Awaited<ReturnType<typeof insertPackOrder>>
+
+function demo(role: string) {
+  const u = DEMO_USERS.find((d) => d.role === role)
+  if (!u) throw new Error(`no demo ${role}`)
+  return u
+}
+
+beforeAll(async () => {
+  mkdirSync(shots, { recursive: true })
+  browser = await launchChromium()
+  // A compact kit the customer has (shipped), as the pack bench leaves it.
+  const { db, pool } = createDb(testDatabaseUrl('e2e'))
+  try {
+    made = await insertPackOrder(db, [{ kitSku: 'MW-TOTE-6C', status: 'shipped' }])
+  } finally {
+    await pool.end()
+  }
+})
+afterAll(() => browser.close())
+
+/** A tablet held upright (1024 × 1366 CSS px), as the pack bench and the office tablet are. */
+async function tablet(role: string): Promise<Page> {
+  const context = await browser.newContext({ viewport: { width: 1024, height: 1366 } })
+  const page = await context.newPage()
+  await signIn(page, baseUrl, demo(role).email, demo(role).password)
+  await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Returns' }).click()
+  await page.getByRole('heading', { name: 'Returns', level: 1 }).waitFor()
+  return page
+}
+
+describe('returns in Chromium', () => {
+  it('the office opens a return by scanning the serial, the packer receives it by scanning, the office sends it for repair', async () => {
+    const unit = made.units[0]!.wo
+    const planner = await tablet('planner')
+
+    // A wedge scanner types into whatever has focus: the scan field has it without a tap.
+    await planner.keyboard.type('U-NOSUCH')
+    await planner.keyboard.press('Enter')
+    await planner.getByRole('alert').getByText('No unit with serial "U-NOSUCH" and no order numbered "U-NOSUCH": check the label or the packing slip and scan again').waitFor()
+    await planner.keyboard.type(unit.serial)
+    await planner.keyboard.press('Enter')
+    const item = planner.getByRole('list', { name: 'Units that can be returned' }).getByRole('listitem', { name: `Unit ${unit.serial}` })
+    await item.waitFor()
+    expect(await planner.getByRole('alert').count()).toBe(0)
+    // Opening without a reason is refused with what to fix.
+    await item.getByRole('button', { name: `Open return of ${unit.serial}` }).click()
+    await item.getByRole('alert').getByText('Choose a reason').waitFor()
+    await item.getByLabel('Reason').selectOption('Leaks')
+    await item.getByLabel('Notes (what the customer says, what you see)').fill('Drips at the drain grommet after a day of running')
+    await planner.screenshot({ path: path.join(shots, 'returns-open.png'), fullPage: true })
+    await item.getByRole('button', { name: `Open return of ${unit.serial}` }).click()
+    const heading = planner.getByRole('heading', { level: 1, name: /^Return R-\d+ · Waiting for the parcel$/ })
+    await heading.waitFor()
+    const number = /^Return (R-\d+)/.exec((await heading.textContent()) ?? '')![1]!
+    const returnUrl = planner.url()
+    // Not received yet: no decision to take.
+    await planner.getByText('Decide once the parcel is back in the shop.').waitFor()
+    await planner.screenshot({ path: path.join(shots, 'return-waiting.png'), fullPage: true })
+
+    // The parcel comes in at the pack bench: the packer scans the serial on the unit.
+    const packer = await tablet('packer')
+    await packer.keyboard.type(unit.serial)
+    await packer.keyboard.press('Enter')
+    await packer.getByRole('status').getByText(`${number}: unit ${unit.serial} (MW-TOTE-6C) received back. Set it on the returns shelf for the office to decide.`).waitFor()
+    // A second scan of the same parcel says so and changes nothing.
+    await packer.keyboard.type(unit.serial)
+    await packer.keyboard.press('Enter')
+    await packer.getByRole('alert').getByText(new RegExp(`Return ${number} was already received on `)).waitFor()
+    await packer.screenshot({ path: path.join(shots, 'returns-received.png'), fullPage: true })
+    await packer.context().close()
+
+    // Back at the office: decide repair, reopening one step.
+    await planner.goto(returnUrl)
+    await planner.getByRole('heading', { level: 1, name: `Return ${number} · Back in the shop` }).waitFor()
+    const decision = planner.getByRole('form', { name: 'Decision' })
+    await decision.getByRole('radio', { name: 'Repair' }).click()
+    const firstStep = decision.getByRole('checkbox').first()
+    await firstStep.check()
+    await planner.screenshot({ path: path.join(shots, 'return-decide-repair.png'), fullPage: true })
+    await decision.getByRole('button', { name: 'Decide: Repair' }).click()
+    await planner.getByRole('heading', { level: 1, name: `Return ${number} · Sent for repair` }).waitFor()
+    await planner.getByText('At the build bench: it needs a new leak test before it is ready again.').waitFor()
+    await planner.getByText(/· Rework$/).waitFor()
+    await planner.screenshot({ path: path.join(shots, 'return-repair.png'), fullPage: true })
+
+    // The build record lists the return beside the build.
+    await planner.getByRole('link', { name: unit.serial, exact: true }).click()
+    const returnsOfUnit = planner.getByRole('list', { name: 'Returns of this unit' })
+    await returnsOfUnit.getByRole('link', { name: number }).waitFor()
+    await returnsOfUnit.getByText(/Sent for repair · Leaks/).first().waitFor()
+    await planner.context().close()
+  })
+})
