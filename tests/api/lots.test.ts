@@ -7,15 +7,18 @@ import { randomBytes, randomUUID } from 'node:crypto'
 import { and, count, eq, like } from 'drizzle-orm'
 import { simpleParser } from 'mailparser'
 import Papa from 'papaparse'
+import request from 'supertest'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { BuildPageSchema, type BuildPage } from '@kitwright/shared/build'
+import { BuildPageSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
+import { PublicUnitRecordSchema } from '@kitwright/shared/public-record'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { LotDetailSchema, LotListSchema, NotifyRecallResultSchema } from '@kitwright/shared/lots'
 import { StockMovesResultSchema } from '@kitwright/shared/stock'
 import { bomLines, mailMessages, orderEvents, orders, parcels, shipments, shopSettings, stockLots, stockMoves, unitLots, workOrders, type WorkOrderRow } from '../../server/src/db/schema/index'
+import { unitRecordLink } from '../../server/src/features/build/public-record'
 import { splitShipMovesByLot } from '../../server/src/features/lots/lots.queries'
 import { startWorkers } from '../../server/src/workers'
-import { buildApp, signedInAs } from '../support/app'
+import { buildApp, signedInAs, TEST_TOKENS } from '../support/app'
 import { insertBuildRevision, insertBuildWorkOrder } from '../support/build-factories'
 import { insertPart } from '../support/factories'
 import { waitForQueueIdle } from '../support/queue'
@@ -190,6 +193,18 @@ describe('the build bench asks for the lot of each lot-tracked part', () => {
     ok(await fit(assembler, woC, { partId: pump.id, lotCode: LOT_B }), 201, BuildPageSchema)
     ok(await fit(assembler, woB, { partId: sprayer.id, lotCode: SPR_2 }), 201, BuildPageSchema)
     ok(await fit(assembler, woC, { partId: sprayer.id, lotCode: SPR_1 }), 201, BuildPageSchema)
+  })
+
+  it('lists the lots on the internal build record and on the customer\'s record link', async () => {
+    const record = ok(await packer.get(`/api/units/${woA.serial}`), 200, UnitRecordSchema)
+    expect(record.lots.find((l) => l.partId === sprayer.id)!.fitted.map((f) => [f.lotCode, f.quantity])).toEqual([[SPR_1, 2], [SPR_2, 2]])
+    const link = await unitRecordLink(TEST_TOKENS, 'https://shop.example', woA.serial)
+    const pub = ok(await request(built.app).get(`/api/public/unit-records/${link.split('/record/')[1]}`), 200, PublicUnitRecordSchema)
+    expect(pub.lots).toEqual([
+      { sku: pump.sku, name: 'Submersible pump 400 L/h', lotCode: LOT_A, quantity: 1 },
+      { sku: sprayer.sku, name: 'Threaded 360° sprayer', lotCode: SPR_1, quantity: 2 },
+      { sku: sprayer.sku, name: 'Threaded 360° sprayer', lotCode: SPR_2, quantity: 2 },
+    ].sort((a, b) => a.sku.localeCompare(b.sku)))
   })
 
   it('lets only the bench roles record lots (cutter and packer refused), and only the office open recalls', async () => {
