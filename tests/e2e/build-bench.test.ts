@@ -70,7 +70,7 @@ describe('the build bench, in Chromium', () => {
 
     await scan(bin.code)
     await page.getByRole('heading', { name: `Unit ${wo.serial}` }).waitFor()
-    expect(await page.getByRole('status').textContent()).toContain('Cut, ready to build')
+    expect(await page.getByRole('status').textContent()).toMatch(/^Cut · left: /)
     // Steps carry their cautions where the work happens.
     const drill = page.getByRole('listitem', { name: 'Step 3', exact: true })
     expect(await drill.getByText(/wear eye protection/i).isVisible()).toBe(true)
