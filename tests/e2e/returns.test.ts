@@ -102,6 +102,14 @@ describe('returns in Chromium', () => {
     const returnsOfUnit = planner.getByRole('list', { name: 'Returns of this unit' })
     await returnsOfUnit.getByRole('link', { name: number }).waitFor()
     await returnsOfUnit.getByText(/Sent for repair · Leaks/).first().waitFor()
+
+    // The owner's view: returns per kit revision and reason on the home page.
+    await planner.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Home' }).click()
+    const perRevision = planner.getByRole('table', { name: 'Returns per kit revision and reason' })
+    const row = perRevision.getByRole('row').filter({ hasText: 'MW-TOTE-6C rev A' }).filter({ hasText: 'Leaks' })
+    await row.waitFor()
+    expect(Number(await row.getByRole('cell').nth(2).textContent())).toBeGreaterThanOrEqual(1)
+    await perRevision.screenshot({ path: path.join(shots, 'returns-per-revision.png') })
     await planner.context().close()
   })
 })
