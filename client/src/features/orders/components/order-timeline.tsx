@@ -2,7 +2,7 @@ import type { OrderEvent } from '@kitwright/shared/orders'
 import { cn } from '../../../lib/cn'
 import { formatDateTime } from './format'
 
-const WARN = new Set(['unmapped_line', 'shortage', 'cancelled', 'held'])
+const WARN = new Set(['unmapped_line', 'shortage', 'cancelled', 'held', 'recall'])
 
 /** Every event of an order, oldest first, with who did it (the store or Kitwright when no one). */
 export function OrderTimeline({ events }: { events: OrderEvent[] }) {
