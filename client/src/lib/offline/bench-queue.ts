@@ -38,16 +38,23 @@ export interface QueueState {
   actions: readonly QueuedAction[]
   /** How many actions went through from the queue (not while the person watched): screens refresh then. */
   replayed: number
+  /**
+   * Actions that went through in the last few seconds: the screens keep showing them as taken until
+   * their own copy of the server's answer has caught up (a tick must not flash back to "not cut").
+   */
+  recent: readonly QueuedAction[]
   /** The last send stopped for want of the network or the server: what waits is shown as waiting. */
   stalled: boolean
   userId: string | null
 }
 
 const RETRY_MS = 15_000
+/** How long an action that went through is still shown as taken (the screen's data catches up well within it). */
+const RECENT_MS = 10_000
 /** A send with no answer in this time counts as "no network" (a weak Wi-Fi can hang a request for minutes). */
 const SEND_TIMEOUT_MS = 20_000
 
-let state: QueueState = { online: typeof navigator === 'undefined' ? true : navigator.onLine, backOnlineAt: null, actions: [], replayed: 0, stalled: false, userId: null }
+let state: QueueState = { online: typeof navigator === 'undefined' ? true : navigator.onLine, backOnlineAt: null, actions: [], recent: [], replayed: 0, stalled: false, userId: null }
 const listeners = new Set<() => void>()
 
 function update(patch: Partial<QueueState>) {
@@ -147,6 +154,21 @@ export async function dismissAction(seq: number): Promise<void> {
   update({ actions: state.actions.filter((a) => a.seq !== seq) })
 }
 
+const sentAt = new WeakMap<QueuedAction, number>()
+let forgetTimer: number | null = null
+
+/** Drops the recently sent actions once they are old enough (one timer at a time). */
+function forgetRecentLater() {
+  if (forgetTimer !== null) return
+  forgetTimer = window.setTimeout(() => {
+    forgetTimer = null
+    const now = Date.now()
+    const keep = state.recent.filter((a) => now - (sentAt.get(a) ?? 0) < RECENT_MS)
+    if (keep.length !== state.recent.length) update({ recent: keep })
+    if (keep.length > 0) forgetRecentLater()
+  }, RECENT_MS)
+}
+
 /** Sends what waits, oldest first; one pass at a time (a call during a pass asks for another). */
 export function flushQueue(): Promise<void> {
   if (running) {
@@ -199,7 +221,12 @@ async function sendOne(action: QueuedAction): Promise<'next' | 'stop'> {
     const signal = AbortSignal.timeout(SEND_TIMEOUT_MS)
     const data = action.photo ? await sendPhoto(action, headers, signal) : await apiFetch(action.path, z.unknown(), { method: 'POST', body: action.body, headers, signal })
     await removeAction(action.seq!)
-    update({ actions: state.actions.filter((a) => a.seq !== action.seq) })
+    const now = Date.now()
+    const sent: QueuedAction = { ...action }
+    delete sent.photo
+    sentAt.set(sent, now)
+    update({ actions: state.actions.filter((a) => a.seq !== action.seq), recent: [...state.recent.filter((a) => now - (sentAt.get(a) ?? 0) < RECENT_MS), sent] })
+    forgetRecentLater()
     markOnline()
     if (waiter) {
       waiters.delete(action.id)

@@ -12,7 +12,12 @@ export function waitingOf(state: QueueState): QueuedAction[] {
   return state.actions.filter((a) => a.state === 'waiting' && a.userId === state.userId)
 }
 
-/** The signed-in person's waiting actions of these kinds (to show them on the bench as taken). */
+/**
+ * The signed-in person's actions of these kinds to show on the bench as taken, oldest first: those
+ * waiting, and those sent in the last few seconds (until the screen's copy of the server's answer
+ * has caught up, so a tick never flashes back).
+ */
 export function useWaitingActions(kinds: readonly string[]): QueuedAction[] {
-  return waitingOf(useBenchQueue()).filter((a) => kinds.includes(a.kind))
+  const state = useBenchQueue()
+  return [...state.recent.filter((a) => a.userId === state.userId), ...waitingOf(state)].filter((a) => kinds.includes(a.kind))
 }
