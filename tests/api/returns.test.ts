@@ -50,6 +50,32 @@ async function counts() {
   return { returns: await n(returns), rework: await n(reworkEntries), orders: await n(orders), events: await n(orderEvents), workOrders: await n(workOrders) }
 }
 
+/** Through the pack bench's own routes: every item confirmed, the label bought, shipped. */
+async function packAndShip(orderId: string) {
+  let v = ok(await packer.get(`/api/pack/orders/${orderId}`), 200, PackViewSchema)
+  for (const item of v.items) {
+    if (item.check) continue
+    v = ok(
+      item.kind === 'unit' ? await packer.post(`/api/pack/orders/${orderId}/scan`).send({ code: item.binCode ?? item.serial }) : await packer.post(`/api/pack/orders/${orderId}/tick`).send({ itemKey: item.key }),
+      200,
+      PackViewSchema,
+    )
+  }
+  expect(v.canLabel, v.blockers.join('; ')).toBe(true)
+  const parcels = v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId!, scaleGrams: null }))
+  ok(await packer.post(`/api/pack/orders/${orderId}/label`).send({ service: 'ground', parcels }), 201, PackViewSchema)
+  const shipped = await packer.post(`/api/pack/orders/${orderId}/ship`).send({})
+  expect(shipped.status, JSON.stringify(shipped.body)).toBe(200)
+}
+
+/** On hand per part (the ledger's sum of on-hand moves), for the parts given. */
+async function onHand(partIds: string[]) {
+  const { rows } = await t.db.execute<{ part_id: string; n: number }>(
+    sql`select part_id, coalesce(sum(quantity) filter (where kind not in ('reserve', 'release')), 0)::int as n from stock_moves where part_id in (${sql.join(partIds.map((id) => sql`${id}::uuid`), sql`, `)}) group by part_id order by part_id`,
+  )
+  return Object.fromEntries(rows.map((r) => [r.part_id, Number(r.n)]))
+}
+
 /**
  * A unit of MW-TOTE-6C as the benches leave it: every step ticked, its photos taken, leak test
  * passed (the factory), then packed, labelled and shipped through the pack bench's own routes.
@@ -69,19 +95,7 @@ async function shippedUnit() {
     const [lot] = await t.db.insert(stockLots).values({ partId: b.partId, code: `RET-${unit.wo.serial}-${b.sku}` }).returning()
     await t.db.insert(unitLots).values({ workOrderId: unit.wo.id, partId: b.partId, lotId: lot!.id, quantity: b.quantity, fittedBy: someone!.id })
   }
-  let v = ok(await packer.get(`/api/pack/orders/${made.order.id}`), 200, PackViewSchema)
-  for (const item of v.items) {
-    v = ok(
-      item.kind === 'unit' ? await packer.post(`/api/pack/orders/${made.order.id}/scan`).send({ code: item.binCode ?? item.serial }) : await packer.post(`/api/pack/orders/${made.order.id}/tick`).send({ itemKey: item.key }),
-      200,
-      PackViewSchema,
-    )
-  }
-  expect(v.canLabel, v.blockers.join('; ')).toBe(true)
-  const parcels = v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId!, scaleGrams: null }))
-  ok(await packer.post(`/api/pack/orders/${made.order.id}/label`).send({ service: 'ground', parcels }), 201, PackViewSchema)
-  const shipped = await packer.post(`/api/pack/orders/${made.order.id}/ship`).send({})
-  expect(shipped.status, JSON.stringify(shipped.body)).toBe(200)
+  await packAndShip(made.order.id)
   const [wo] = await t.db.select().from(workOrders).where(eq(workOrders.id, unit.wo.id))
   expect(wo!.status).toBe('shipped')
   return { order: made.order, wo: wo!, steps: steps.sort((a, b) => a.position - b.position) }
@@ -92,6 +106,8 @@ const open = (agent: Agent, serial: string, reason = 'Leaks', notes: string | nu
 describe('a return through repair and retest', () => {
   it('opens by serial, buys its label, is received by the label scan, goes to the build bench, and is ready only after a new leak test', async () => {
     const { order, wo, steps } = await shippedUnit()
+    const bomParts = (await t.db.select({ partId: stockMoves.partId }).from(stockMoves).where(and(eq(stockMoves.workOrderId, wo.id), eq(stockMoves.kind, 'ship')))).map((m) => m.partId)
+    const shelfAfterFirstShip = await onHand([...new Set(bomParts)])
     // The scan names the unit (by serial and by order number).
     const bySerial = ok(await planner.get('/api/returns/lookup').query({ code: wo.serial.toLowerCase() }), 200, ReturnLookupSchema)
     expect(bySerial.units.map((u) => u.serial)).toEqual([wo.serial])
@@ -150,6 +166,13 @@ describe('a return through repair and retest', () => {
 
     const after = returnView(await planner.get(`/api/returns/${opened.id}`))
     expect(after.decision?.repaired).toBe(true)
+
+    // Back to the customer through the pack bench: the order was open again for this unit, and is shipped again.
+    await packAndShip(order.id)
+    const [reshipped] = await t.db.select().from(orders).where(eq(orders.id, order.id))
+    expect(reshipped!.status).toBe('shipped')
+    // The ledger nets to nothing over the return and the second shipment: the parts came back inside the unit and left in it again.
+    expect(await onHand([...new Set(bomParts)])).toEqual(shelfAfterFirstShip)
 
     // The build record: original build, the return, the repair (undone tick, rework entry resolved), the retest.
     const record = ok(await assembler.get(`/api/units/${wo.serial}`), 200, UnitRecordSchema)

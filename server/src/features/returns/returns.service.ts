@@ -27,7 +27,11 @@ import { BadRequest, Conflict, NotFound, Unavailable } from '../../lib/http-erro
 import { protocolOf } from '../build/build-page'
 import { findRevisionWithKit, findWorkOrderBySerial, lockWorkOrder, stepsOfRevision } from '../build/build.queries'
 import { addOrderEvent, createOrder } from '../orders/orders.service'
+import { bomOfRevisions } from '../pack/pack.queries'
 import { checkShipTo } from '../pack/pack.service'
+import { splitShipMovesByLot } from '../lots/lots.queries'
+import { insertMoves, lockParts } from '../stock/stock.queries'
+import { reserveStock } from '../stock/stock.service'
 import { shipFromOf } from '../settings/settings.service'
 import type { Carrier, CarrierLabel } from '../shipping/carrier'
 import { withLabelLock, type LabelDeps } from '../shipping/labels.service'
@@ -315,24 +319,6 @@ export async function buyReturnLabel(deps: LabelDeps, returnId: string, input: B
   })
 }
 
-/** Finishes return-label purchases left `buying` by a crash or an outage; for a periodic job. */
-export async function finishInterruptedReturnLabels(deps: LabelDeps): Promise<number> {
-  const stuck = await deps.db.select({ id: returns.id }).from(returns).where(eq(returns.labelStatus, 'buying'))
-  let finished = 0
-  for (const { id } of stuck) {
-    try {
-      await withLabelLock(deps, `return-label:${id}`, async () => {
-        const [current] = await deps.db.select().from(returns).where(eq(returns.id, id))
-        if (current?.labelStatus === 'buying') await finishPurchase(deps, current, null, true)
-      })
-      finished += 1
-    } catch (err) {
-      deps.logger.warn({ err, returnId: id }, 'an interrupted return label purchase could not be finished yet')
-    }
-  }
-  return finished
-}
-
 // ── Receiving ───────────────────────────────────────────────────────────────────────────────────
 
 /**
@@ -400,11 +386,22 @@ async function decideRepair(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn,
     .values({ workOrderId: wo.id, reason: `Returned on ${ret.number} (${ret.reason}): ${stepWords}${input.note ? `. ${input.note}` : ''}`, createdBy: actor.id })
     .returning()
   await tx.update(workOrders).set({ status: 'rework', updatedAt: now }).where(eq(workOrders.id, wo.id))
+  // The ledger: the unit's parts are back in the shop (inside the unit, from the lots fitted into it)
+  // and held for it, so shipping it again after the repair takes them off once more, net nothing.
+  const bom = await bomOfRevisions(tx, [wo.kitRevisionId])
+  await lockParts(tx, bom.map((b) => b.partId))
+  const why = `Back in the shop inside unit ${wo.serial} (return ${ret.number}), held for its repair`
+  const outward = bom.map((b) => ({ partId: b.partId, kind: 'receive' as const, quantity: -b.quantity, workOrderId: wo.id, reason: why, reference: ret.number, createdBy: actor.id }))
+  await insertMoves(tx, (await splitShipMovesByLot(tx, wo.id, outward)).map((m) => ({ ...m, quantity: -m.quantity })))
+  if (bom.length > 0) await reserveStock(tx, { workOrderId: wo.id, lines: bom.map((b) => ({ partId: b.partId, quantity: b.quantity, stickLength: null })), reason: why }, actor)
+  // The order owes the customer this unit again: once repaired it is packed and shipped as any unit
+  // of a partly shipped order, and the order is shipped again when it leaves.
+  await tx.update(orders).set({ status: 'partially_shipped', shippedAt: null, updatedAt: now }).where(and(eq(orders.id, ret.orderId), eq(orders.status, 'shipped')))
   await tx
     .update(returns)
     .set({ status: 'repair', decision: 'repair', decisionNote: input.note, decidedAt: now, decidedBy: actor.id, reopenedStepIds: reopened.map((s) => s.id), reworkEntryId: entry!.id })
     .where(eq(returns.id, ret.id))
-  await addOrderEvent(tx, { orderId: ret.orderId, kind: 'return_decided', message: `Return ${ret.number}: unit ${wo.serial} back to the build bench for repair (${stepWords})`, data: { returnId: ret.id, decision: 'repair' }, actor })
+  await addOrderEvent(tx, { orderId: ret.orderId, kind: 'return_decided', message: `Return ${ret.number}: unit ${wo.serial} back to the build bench for repair (${stepWords}); once ready it goes to the pack bench to ship back`, data: { returnId: ret.id, decision: 'repair' }, actor })
 }
 
 /**
