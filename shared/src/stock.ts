@@ -202,6 +202,8 @@ export const AdjustStockSchema = z
       .max(1_000_000)
       .refine((v) => v !== 0, 'The change cannot be zero: use a minus sign to take stock off'),
     stickLength: StickLengthSchema,
+    /** The supplier's lot that changes: required for a lot-tracked part, left out for others. */
+    lot: OptionalLotCodeSchema,
     reason: z.string({ error: 'Say why the stock changes' }).trim().min(3, 'Say why the stock changes, e.g. Count correction').max(200, 'Use at most 200 characters'),
   })
   .strict()

@@ -133,6 +133,24 @@ describe('receiving lot-tracked parts', () => {
   })
 })
 
+describe('adjusting a lot-tracked part', () => {
+  it('takes the change off the lot named, refusing no lot, an unknown lot or more than its shelf holds, writing nothing then', async () => {
+    const before = await countOf(stockMoves)
+    const noLot = refused(await planner.post('/api/stock/adjust').send({ partId: pump.id, quantity: -1, reason: 'Damaged' }), 400)
+    expect(noLot.fields?.lot).toMatch(/tracked by lot/)
+    const unknown = refused(await planner.post('/api/stock/adjust').send({ partId: pump.id, quantity: -1, lot: 'PMP-ZZ', reason: 'Damaged' }), 409)
+    expect(unknown.message).toMatch(new RegExp(`No lot "PMP-ZZ" of ${pump.sku} has been received: choose one of `))
+    const tooMany = refused(await planner.post('/api/stock/adjust').send({ partId: pump.id, quantity: -3, lot: LOT_B, reason: 'Damaged' }), 409)
+    expect(tooMany.message).toMatch(new RegExp(`Cannot take 3 off lot ${LOT_B.toLowerCase()} of ${pump.sku}: only 2 of it are on the shelf`, 'i'))
+    expect(await countOf(stockMoves)).toBe(before)
+    const id = await lotId(LOT_B.toLowerCase())
+    ok(await planner.post('/api/stock/adjust').send({ partId: pump.id, quantity: -1, lot: LOT_B, reason: 'Damaged: cracked housing' }), 201, StockMovesResultSchema)
+    expect(ok(await planner.get(`/api/lots/${id}`), 200, LotDetailSchema).onHand).toBe(1)
+    ok(await planner.post('/api/stock/adjust').send({ partId: pump.id, quantity: 1, lot: LOT_B, reason: 'Found stock' }), 201, StockMovesResultSchema)
+    expect(ok(await planner.get(`/api/lots/${id}`), 200, LotDetailSchema).onHand).toBe(2)
+  })
+})
+
 let woA: WorkOrderRow
 let woB: WorkOrderRow
 let woC: WorkOrderRow

@@ -21,7 +21,7 @@ import { parts, purchaseOrders, shopSettings, suppliers, type NewStockMoveRow, t
 import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { findPurchaseOrderByNumber, receiveOnPurchaseOrder, type PurchaseReceiptLine } from '../purchasing/purchase-orders.service'
-import { lotBalances, lotIdsFor } from '../lots/lots.queries'
+import { findLotByCode, lotBalances, lotIdsFor } from '../lots/lots.queries'
 import { readPackingList } from './packing-list'
 import { stockCsv } from './stock-export'
 import { toLedgerEntry, toStockMove, toStockRow } from './stock.mapper'
@@ -279,6 +279,30 @@ export async function receivePackingList(db: Db, input: PackingList, actor: Acto
 // Adjusting
 
 /**
+ * The lot an adjustment of a lot-tracked part changes (under the part's lock): it must have been
+ * received, and what comes off may not be more than is on its shelf (on hand less what is fitted
+ * into units still in the shop).
+ */
+async function adjustableLot(tx: Tx, part: PartRow, code: string, quantity: number): Promise<string> {
+  const lots = await lotBalances(tx, [part.id])
+  const lot = await findLotByCode(tx, part.id, code)
+  if (!lot) {
+    const known = lots.filter((l) => l.onHand > 0).map((l) => l.code).join(', ')
+    const message = `No lot "${code}" of ${part.sku} has been received: ${known ? `choose one of ${known}` : 'none is in stock'}, or receive a new lot on Receive stock`
+    throw new Conflict(message, { lot: `No lot ${code} of ${part.sku}` })
+  }
+  const balance = lots.find((l) => l.lotId === lot.id)
+  const onHand = balance?.onHand ?? 0
+  const free = Math.max(0, balance?.free ?? 0)
+  if (quantity < 0 && -quantity > free) {
+    const fitted = onHand - free
+    const message = `Cannot take ${-quantity} off lot ${lot.code} of ${part.sku}: only ${free} of it ${free === 1 ? 'is' : 'are'} on the shelf (${onHand} on hand${fitted > 0 ? `, ${fitted} fitted into units still in the shop` : ''}). Count again, or adjust by at most -${free}.`
+    throw new Conflict(message, { quantity: `At most -${free} from lot ${lot.code}` })
+  }
+  return lot.id
+}
+
+/**
  * An adjustment with its reason. On-hand may not go below zero, nor below what is reserved (release
  * the reservation first), so that available never goes negative.
  */
@@ -289,6 +313,9 @@ export async function adjustStock(db: Db, input: AdjustStock, actor: Actor): Pro
     const part = byId.get(input.partId)!
     const problem = stickLengthProblem(part, input.stickLength, unit, true)
     if (problem) throw new BadRequest(problem, { stickLength: problem })
+    const lotIssue = lotProblem(part, input.lot)
+    if (lotIssue) throw new BadRequest(lotIssue, { lot: lotIssue })
+    const lotId = input.lot ? await adjustableLot(tx, part, input.lot, input.quantity) : null
     const balances = indexBuckets(await selectBuckets(tx, [part.id]))
     const bucket = balances.bucket(part.id, input.stickLength)
     const total = balances.part(part.id)
@@ -302,7 +329,7 @@ export async function adjustStock(db: Db, input: AdjustStock, actor: Actor): Pro
       const message = `Cannot take ${-input.quantity} off ${what}: ${total.reserved} ${total.reserved === 1 ? 'is' : 'are'} reserved for work orders and only ${free} could go. Release the reservation first.`
       throw new Conflict(message, { quantity: 'More than is free of reservations' })
     }
-    const rows = await insertMoves(tx, [{ partId: part.id, kind: 'adjust', quantity: input.quantity, stickLength: input.stickLength, reason: input.reason, createdBy: actor.id }])
+    const rows = await insertMoves(tx, [{ partId: part.id, kind: 'adjust', quantity: input.quantity, stickLength: input.stickLength, lotId, reason: input.reason, createdBy: actor.id }])
     return { moves: rows.map((r) => toStockMove(r, actor)) }
   })
 }

@@ -26,7 +26,7 @@ export function Component() {
         <>
           <section className="space-y-2">
             <h2 className="text-xl font-bold">Adjust</h2>
-            <AdjustForm key={ledger.data.balance.partId} part={ledger.data.balance} />
+            <AdjustForm key={ledger.data.balance.partId} part={ledger.data.balance} lots={ledger.data.lots} />
           </section>
           <section className="space-y-2">
             <h2 className="text-xl font-bold">Ledger</h2>

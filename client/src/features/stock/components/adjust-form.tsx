@@ -1,7 +1,7 @@
 import { zodResolver } from '@hookform/resolvers/zod'
 import { useForm } from 'react-hook-form'
 import { toast } from 'sonner'
-import { ADJUST_REASON_SUGGESTIONS, AdjustStockSchema, formatStickLength, type AdjustStock, type AdjustStockInput, type StockRow } from '@kitwright/shared/stock'
+import { ADJUST_REASON_SUGGESTIONS, AdjustStockSchema, formatStickLength, type AdjustStock, type AdjustStockInput, type StockLedger, type StockRow } from '@kitwright/shared/stock'
 import { Button } from '../../../components/ui/button'
 import { Field, Input, Select } from '../../../components/ui/field'
 import { applyServerErrors } from '../../../lib/form-errors'
@@ -9,13 +9,13 @@ import { useLengthUnit } from '../../../lib/shop-settings'
 import { useAdjustStock } from '../api/stock-queries'
 
 /** An adjustment of one part's on-hand, with the reason the ledger keeps. */
-export function AdjustForm({ part }: { part: StockRow }) {
+export function AdjustForm({ part, lots = [] }: { part: StockRow; lots?: StockLedger['lots'] }) {
   const { unit } = useLengthUnit()
   const adjust = useAdjustStock()
   const isPipe = part.kind === 'stock_length'
   const form = useForm<AdjustStockInput, unknown, AdjustStock>({
     resolver: zodResolver(AdjustStockSchema),
-    defaultValues: { partId: part.partId, quantity: Number.NaN, stickLength: isPipe ? (part.stickLengths[0] ?? null) : null, reason: '' },
+    defaultValues: { partId: part.partId, quantity: Number.NaN, stickLength: isPipe ? (part.stickLengths[0] ?? null) : null, lot: lots[0]?.code ?? null, reason: '' },
   })
   const { errors } = form.formState
   const submit = (input: AdjustStock) =>
@@ -23,7 +23,7 @@ export function AdjustForm({ part }: { part: StockRow }) {
       onSuccess: ({ moves }) => {
         const q = moves[0]?.quantity ?? 0
         toast.success(`${part.sku}: ${q > 0 ? `+${q}` : q} recorded`)
-        form.reset({ partId: part.partId, quantity: Number.NaN, stickLength: form.getValues('stickLength'), reason: '' })
+        form.reset({ partId: part.partId, quantity: Number.NaN, stickLength: form.getValues('stickLength'), lot: form.getValues('lot'), reason: '' })
       },
       onError: (err) => applyServerErrors(err, form.setError),
     })
@@ -38,6 +38,16 @@ export function AdjustForm({ part }: { part: StockRow }) {
             {part.stickLengths.map((l) => (
               <option key={l} value={l}>
                 {formatStickLength(l, unit)}
+              </option>
+            ))}
+          </Select>
+        </Field>
+      ) : lots.length > 0 ? (
+        <Field label="Supplier's lot" hint="The lot the change is in" error={errors.lot?.message}>
+          <Select {...form.register('lot')}>
+            {lots.map((l) => (
+              <option key={l.lotId} value={l.code}>
+                {l.code} ({l.onHand} on hand)
               </option>
             ))}
           </Select>
