@@ -2,7 +2,7 @@ import { and, eq } from 'drizzle-orm'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
 import { afterAll, afterEach, beforeAll, beforeEach, describe, expect, inject, it } from 'vitest'
 import { createDb } from '../../server/src/db/client'
-import { kitRevisions, kits, lotRecallNotices, mailMessages, orderEvents, unitLots } from '../../server/src/db/schema/index'
+import { kitRevisions, kits, lotRecallNotices, mailMessages, orderEvents, parts, unitLots } from '../../server/src/db/schema/index'
 import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { launchChromium, signIn } from '../support/browser'
 import { insertBin, insertBuildWorkOrder } from '../support/build-factories'
@@ -123,5 +123,15 @@ describe('lots at the build bench and the recall page, in Chromium', () => {
     const events = await conn.db.select().from(orderEvents).where(and(eq(orderEvents.orderId, wo.orderId), eq(orderEvents.kind, 'recall')))
     expect(events).toHaveLength(1)
     if (shots) await page.screenshot({ path: `${shots}/recall-page.png`, fullPage: true })
+
+    // The pump's part page says it is lot-tracked; its stock page shows stock by lot and adjusts by lot.
+    const [pump] = await conn.db.select({ id: parts.id }).from(parts).where(eq(parts.sku, 'PMP-400-GPH'))
+    await page.goto(`${baseUrl}/catalog/parts/${pump!.id}`)
+    expect(await page.getByLabel(/Tracked by the supplier's lot/).isChecked()).toBe(true)
+    await page.goto(`${baseUrl}/catalog/stock/${pump!.id}`)
+    expect(await page.getByLabel('Stock by lot').textContent()).toMatch(/BW-2609-114: \d+ on hand, \d+ not yet fitted/)
+    const adjust = page.getByRole('form', { name: 'Adjust stock' })
+    expect(await adjust.getByLabel("Supplier's lot").locator('option').allTextContents()).toContain('BW-2610-027 (4 on hand)')
+    if (shots) await page.screenshot({ path: `${shots}/pump-stock-by-lot.png`, fullPage: true })
   })
 })
