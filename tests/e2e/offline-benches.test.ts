@@ -1,9 +1,10 @@
 import { and, eq, inArray, isNotNull, isNull } from 'drizzle-orm'
 import type { Browser, BrowserContext, Page } from 'playwright-core'
+import { PNG } from 'pngjs'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { CutRunDetailSchema, type CutRunDetail } from '@kitwright/shared/cut-runs'
 import { createDb } from '../../server/src/db/client'
-import { auditEvents, buildSteps, buildStepTicks, cutRunCuts, kitRevisions, kits, workOrders } from '../../server/src/db/schema/index'
+import { auditEvents, buildSteps, buildStepTicks, cutRunCuts, kitRevisions, kits, unitPhotos, workOrders } from '../../server/src/db/schema/index'
 import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { launchChromium, signIn } from '../support/browser'
 import { insertBin, insertBuildWorkOrder } from '../support/build-factories'
@@ -58,6 +59,12 @@ async function openForOffline(page: Page, path: string, ready: () => Promise<unk
 
 const banner = (page: Page) => page.getByRole('status', { name: 'Network' })
 
+/** Pictures of the benches offline, for someone who wants to look at them (OFFLINE_BENCH_SHOTS=<folder>). */
+async function shot(page: Page, name: string) {
+  const folder = process.env.OFFLINE_BENCH_SHOTS
+  if (folder) await page.screenshot({ path: `${folder}/${name}.png`, fullPage: true })
+}
+
 async function planPublishedRun(page: Page, workOrderIds: string[]): Promise<CutRunDetail> {
   const planned = await page.context().request.post(`${baseUrl}/api/cut-runs`, { data: { workOrderIds } })
   expect(planned.status(), await planned.text()).toBe(201)
@@ -65,6 +72,13 @@ async function planPublishedRun(page: Page, workOrderIds: string[]): Promise<Cut
   const published = await page.context().request.post(`${baseUrl}/api/cut-runs/${run.id}/publish`, { data: {} })
   expect(published.status(), await published.text()).toBe(200)
   return CutRunDetailSchema.parse(await published.json())
+}
+
+/** A small green PNG, as a tablet camera might hand over. */
+function photoPng(): Buffer {
+  const png = new PNG({ width: 64, height: 48 })
+  for (let i = 0; i < png.data.length; i += 4) png.data.set([40, 150, 90, 255], i)
+  return PNG.sync.write(png)
 }
 
 /** A unit of the demo 12-site kit, revision A, cut and waiting in a bin at the build bench. */
@@ -119,6 +133,7 @@ describe('the cut bench with the network cut', () => {
     await stick.getByText(`2 of ${pieces} pieces cut`).waitFor()
     await banner(page).getByText('2 actions waiting.').waitFor()
     expect(await stick.getByText(/^Last cut by you \(not sent yet\)/).count()).toBeGreaterThan(0)
+    await shot(page, 'cut-bench-offline-reloaded')
 
     await context.setOffline(false)
     await banner(page).getByText('Back online.').waitFor()
@@ -186,10 +201,18 @@ describe('the build bench with the network cut', () => {
     await banner(page).getByText('Offline.').waitFor()
     for (const step of firstTwo) await tickStep(page, step)
     await banner(page).getByText('2 actions waiting.').waitFor()
+    // A photo needs the photo store: it is kept on the tablet and says so.
+    await page.getByLabel('Photo of the unit').setInputFiles({ name: 'unit.png', mimeType: 'image/png', buffer: photoPng() })
+    const forServer = banner(page).getByRole('list', { name: 'Waiting for the network' })
+    await forServer.getByText('Photo of the unit').waitFor()
+    expect(await forServer.getByText('waiting for the network').count()).toBe(1)
+    await banner(page).getByText('3 actions waiting.').waitFor()
+    await shot(page, 'build-bench-offline')
 
     await page.reload()
     await page.getByRole('heading', { name: `Unit ${wo.serial}` }).waitFor()
     for (const step of firstTwo) await page.getByRole('listitem', { name: `Step ${step.position}`, exact: true }).getByText(/Ticked by you \(not sent yet\)/).waitFor()
+    await forServer.getByText('Photo of the unit').waitFor()
     // The next step is open to tick: the bench goes on in order with no network.
     expect(await page.getByRole('button', { name: `Tick step ${steps[2]!.position}` }).isVisible()).toBe(true)
 
@@ -199,6 +222,9 @@ describe('the build bench with the network cut', () => {
     expect(ticks.map((t) => t.buildStepId).sort()).toEqual(firstTwo.map((s) => s.id).sort())
     const trail = await conn.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, wo.id), eq(auditEvents.action, 'build.tick'), isNotNull(auditEvents.takenAt)))
     expect(trail).toHaveLength(2)
+    // The photo went to the store once the network was back, and the server confirmed it.
+    const photos = await conn.db.select().from(unitPhotos).where(and(eq(unitPhotos.workOrderId, wo.id), isNotNull(unitPhotos.uploadedAt)))
+    expect(photos).toHaveLength(1)
     for (const step of firstTwo) await page.getByRole('listitem', { name: `Step ${step.position}`, exact: true }).getByText(`Ticked by ${demo('assembler').name}`).waitFor()
   })
 
@@ -219,6 +245,7 @@ describe('the build bench with the network cut', () => {
     const refused = page.getByRole('alert', { name: 'Refused actions' })
     await refused.getByText(`Unit ${wo.serial} was cancelled; do not build it`).waitFor()
     expect(await refused.getByText(`Step ${steps[0]!.position} of unit ${wo.serial}`).count()).toBe(1)
+    await shot(page, 'build-bench-refused')
     const [row] = await conn.db.select({ status: workOrders.status }).from(workOrders).where(eq(workOrders.id, wo.id))
     expect(row!.status).toBe('cancelled')
     expect(await conn.db.select().from(buildStepTicks).where(eq(buildStepTicks.workOrderId, wo.id))).toHaveLength(0)

@@ -65,6 +65,20 @@ export function OfflineBanner({ userId }: { userId: string }) {
           </p>
         ) : null}
         {others > 0 && <p className="text-lg">{actions(others)} taken by someone else on this tablet wait for them to sign in here again.</p>}
+        {waiting.length > forServer.length && (
+          <details className="mt-1 text-lg">
+            <summary className="min-h-12 cursor-pointer py-2 font-bold">What is kept on this tablet</summary>
+            <ul aria-label="Kept on this tablet" className="space-y-1">
+              {waiting
+                .filter((a) => !a.needsServer)
+                .map((a) => (
+                  <li key={a.id}>
+                    {a.label} <span className="text-stone-600">(taken {clock(a.takenAt)})</span>
+                  </li>
+                ))}
+            </ul>
+          </details>
+        )}
         {forServer.length > 0 && (
           <ul aria-label="Waiting for the network" className="mt-2 space-y-1 text-lg">
             {forServer.map((a) => (

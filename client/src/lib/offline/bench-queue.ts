@@ -2,7 +2,6 @@ import { z } from 'zod'
 import { BENCH_ACTION_ID_HEADER, BENCH_ACTION_TAKEN_AT_HEADER } from '@kitwright/shared/bench-actions'
 import { ApiError, NetworkError, apiFetch } from '../api-client'
 import { addAction, allActions, putAction, removeAction, type QueueBench, type QueuedAction } from './action-store'
-import { sendPhoto } from './photo-upload'
 import { newActionId } from './uuid'
 
 /**
@@ -219,7 +218,8 @@ async function sendOne(action: QueuedAction): Promise<'next' | 'stop'> {
   try {
     const headers = { [BENCH_ACTION_ID_HEADER]: action.id, [BENCH_ACTION_TAKEN_AT_HEADER]: action.takenAt, 'x-kitwright-bench': action.bench }
     const signal = AbortSignal.timeout(SEND_TIMEOUT_MS)
-    const data = action.photo ? await sendPhoto(action, headers, signal) : await apiFetch(action.path, z.unknown(), { method: 'POST', body: action.body, headers, signal })
+    // The photo sender (and the build contract it reads) loads only when a photo is sent.
+    const data = action.photo ? await (await import('./photo-upload')).sendPhoto(action, headers, signal) : await apiFetch(action.path, z.unknown(), { method: 'POST', body: action.body, headers, signal })
     await removeAction(action.seq!)
     const now = Date.now()
     const sent: QueuedAction = { ...action }
@@ -259,7 +259,3 @@ async function sendOne(action: QueuedAction): Promise<'next' | 'stop'> {
   }
 }
 
-/** The service worker's copies of the bench reads (client/vite.config.ts): dropped at sign-out, so the next person sees only their own. */
-export async function forgetBenchReads(): Promise<void> {
-  if (typeof caches !== 'undefined') await caches.delete('kitwright-bench-reads')
-}

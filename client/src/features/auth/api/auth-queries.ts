@@ -2,7 +2,7 @@ import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query
 import { z } from 'zod'
 import { BenchPersonSchema, MeSchema, SessionSchema, type BenchDevice, type SignIn } from '@kitwright/shared/auth'
 import { apiFetch } from '../../../lib/api-client'
-import { forgetBenchReads } from '../../../lib/offline/bench-queue'
+import { forgetBenchReads } from '../../../lib/offline/bench-reads'
 
 export const authKeys = {
   me: ['auth', 'me'] as const,
