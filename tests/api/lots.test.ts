@@ -85,13 +85,13 @@ async function lotId(code: string) {
   return row!.id
 }
 
-/** How many messages the run's SMTP catcher holds for `to`. */
+/** The messages the run's SMTP catcher holds for `to` (addresses match whatever their case). */
 async function caughtFor(to: string) {
   const dir = process.env.FAKE_MAIL_DIR
   if (!dir) throw new Error('FAKE_MAIL_DIR is not set: run the suite with `npm test`')
   const files = readdirSync(dir).filter((f) => f.endsWith('.eml'))
   const parsed = await Promise.all(files.map((f) => simpleParser(readFileSync(path.join(dir, f)))))
-  return parsed.filter((m) => (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).some((a) => a.value.some((v) => v.address === to)))
+  return parsed.filter((m) => (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).some((a) => a.value.some((v) => v.address?.toLowerCase() === to.toLowerCase())))
 }
 
 describe('receiving lot-tracked parts', () => {
@@ -339,5 +339,27 @@ describe('a recall from one lot', () => {
       expect(events, orderId).toHaveLength(n)
       if (n) expect(events[0]!.message).toContain(`Recall of lot ${LOT_A}`)
     }
+  })
+
+  it('tells a customer again only of a unit built with the lot later, in an order no notice spoke of', async () => {
+    const id = await lotId(LOT_A)
+    const [orderA] = await t.db.select().from(orders).where(eq(orders.id, woA.orderId))
+    // Unit A shipped, so one pump of lot A is free again on paper (2 received, unit B holds the other).
+    const woD = await insertBuildWorkOrder(t.db, revision.revision.id, revision.kit.id)
+    await t.db.update(orders).set({ customerEmail: orderA!.customerEmail.toUpperCase(), customerName: orderA!.customerName }).where(eq(orders.id, woD.orderId))
+    ok(await fit(assembler, woD, { partId: pump.id, lotCode: LOT_A }), 201, BuildPageSchema)
+    const before = ok(await planner.get(`/api/lots/${id}`), 200, LotDetailSchema)
+    expect(before).toMatchObject({ customers: 2, customersNotified: 1 })
+    expect(before.recall.find((u) => u.serial === woD.serial)!.notifiedAt).toBeNull()
+    const message = 'Please stop using the pump and reply: we send a new one from another lot.'
+    const again = ok(await planner.post(`/api/lots/${id}/notify`).send({ message }), 201, NotifyRecallResultSchema)
+    expect(again).toMatchObject({ queued: 1, alreadyTold: 1, detail: { customers: 2, customersNotified: 2 } })
+    expect(ok(await planner.post(`/api/lots/${id}/notify`).send({ message }), 200, NotifyRecallResultSchema)).toMatchObject({ queued: 0, alreadyTold: 2 })
+    await waitForQueueIdle(t.db)
+    const caught = await caughtFor(orderA!.customerEmail)
+    expect(caught).toHaveLength(2)
+    expect(caught.map((m) => m.text ?? '').filter((text) => text.includes(`serial ${woD.serial}`) && !text.includes(`serial ${woA.serial}`))).toHaveLength(1)
+    const events = await t.db.select().from(orderEvents).where(and(eq(orderEvents.orderId, woD.orderId), eq(orderEvents.kind, 'recall')))
+    expect(events).toHaveLength(1)
   })
 })

@@ -1,5 +1,5 @@
 import Papa from 'papaparse'
-import { eq, sql } from 'drizzle-orm'
+import { and, eq, sql } from 'drizzle-orm'
 import { neutraliseCsvCell } from '@kitwright/shared/csv'
 import type { LotDetail, LotList, LotListQuery, NotifyRecall, NotifyRecallResult, RecallUnit } from '@kitwright/shared/lots'
 import { ON_HAND_MOVE_KINDS } from '@kitwright/shared/stock'
@@ -91,7 +91,7 @@ async function recallUnits(db: Conn, lotId: string): Promise<RecallRecord[]> {
       s.shipped_at as "shippedAt", coalesce(pc.tracking_number, s.tracking_number) as "trackingNumber",
       o.ship_name as "shipName", o.ship_line1 as "shipLine1", o.ship_line2 as "shipLine2", o.ship_city as "shipCity",
       o.ship_region as "shipRegion", o.ship_postal_code as "shipPostalCode", o.ship_country as "shipCountry",
-      n.created_at as "notifiedAt"
+      (select min(e.created_at) from order_events e where e.order_id = o.id and e.kind = 'recall' and e.data->>'lotId' = ${lotId}::text) as "notifiedAt"
     from unit_lots u
     join work_orders w on w.id = u.work_order_id
     join orders o on o.id = w.order_id
@@ -102,9 +102,8 @@ async function recallUnits(db: Conn, lotId: string): Promise<RecallRecord[]> {
       where w.id = any(pc.work_order_ids) and sh.status = 'shipped' order by sh.shipped_at limit 1
     ) pc on true
     left join shipments s on s.id = pc.shipment_id
-    left join lot_recall_notices n on n.lot_id = u.lot_id and n.customer_email = lower(o.customer_email)
     where u.lot_id = ${lotId} and u.undone_at is null
-    group by w.id, o.id, k.name, s.shipped_at, s.tracking_number, pc.tracking_number, n.created_at
+    group by w.id, o.id, k.name, s.shipped_at, s.tracking_number, pc.tracking_number
     order by o.number, w.serial
   `)
   return result.rows
@@ -141,13 +140,14 @@ export async function lotDetail(db: Conn, lotId: string): Promise<LotDetail> {
     from stock_moves m left join users us on us.id = m.created_by
     where m.lot_id = ${lotId} and m.kind = 'receive' order by m.created_at, m.id`)
   const emails = new Set(units.map((u) => u.customerEmail.toLowerCase()))
-  const told = new Set(units.filter((u) => u.notifiedAt !== null).map((u) => u.customerEmail.toLowerCase()))
+  // A customer counts as told once every order of theirs with a unit of the lot has been told.
+  const untold = new Set(units.filter((u) => u.notifiedAt === null).map((u) => u.customerEmail.toLowerCase()))
   return {
     ...toSummary(lot),
     receipts: receipts.rows.map((r) => ({ quantity: r.quantity, reference: r.reference, at: iso(r.at), by: r.byId && r.byName ? { id: r.byId, name: r.byName } : null })),
     recall: units.map(toRecallUnit),
     customers: emails.size,
-    customersNotified: told.size,
+    customersNotified: emails.size - untold.size,
   }
 }
 
@@ -170,9 +170,9 @@ export async function recallCsv(db: Db, lotId: string): Promise<{ csv: string; c
 /**
  * "Tell the customers": one notice per customer (by e-mail address) with a unit of the lot. The
  * notice row is written first under a unique (lot, customer) key, then its e-mail is queued in the
- * same transaction, so pressing it twice, or two planners at once, mails each customer once; a
- * customer with a unit built later gets theirs on the next press. Every order concerned gets a line
- * on its timeline.
+ * same transaction, so pressing it twice, or two planners at once, mails each customer once. A unit
+ * built with the lot later, in an order no notice spoke of, gets its customer one more e-mail on the
+ * next press (the notice row keeps the orders told). Every order concerned gets a line on its timeline.
  */
 export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: string, input: NotifyRecall, actor: SessionUser): Promise<NotifyRecallResult> {
   let queued = 0
@@ -185,12 +185,23 @@ export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: strin
     const { shopName } = await getShopSettings(tx)
     const byCustomer = new Map<string, RecallRecord[]>()
     for (const u of units) byCustomer.set(u.customerEmail.toLowerCase(), [...(byCustomer.get(u.customerEmail.toLowerCase()) ?? []), u])
-    for (const [email, theirs] of [...byCustomer.entries()].sort(([a], [b]) => a.localeCompare(b))) {
-      const orderIds = [...new Set(theirs.map((u) => u.orderId))]
-      const [notice] = await tx.insert(lotRecallNotices).values({ lotId, customerEmail: email, orderIds, queuedBy: actor.id }).onConflictDoNothing().returning({ id: lotRecallNotices.id })
-      if (!notice) {
+    for (const [email, all] of [...byCustomer.entries()].sort(([a], [b]) => a.localeCompare(b))) {
+      // Orders an earlier notice to this customer already spoke of are not told again.
+      const [earlier] = await tx.select().from(lotRecallNotices).where(and(eq(lotRecallNotices.lotId, lotId), eq(lotRecallNotices.customerEmail, email)))
+      const told = new Set(earlier?.orderIds ?? [])
+      const theirs = all.filter((u) => !told.has(u.orderId))
+      if (theirs.length === 0) {
         alreadyTold += 1
         continue
+      }
+      const orderIds = [...new Set(theirs.map((u) => u.orderId))]
+      let noticeId: string
+      if (earlier) {
+        await tx.update(lotRecallNotices).set({ orderIds: [...earlier.orderIds, ...orderIds] }).where(eq(lotRecallNotices.id, earlier.id))
+        noticeId = earlier.id
+      } else {
+        const [notice] = await tx.insert(lotRecallNotices).values({ lotId, customerEmail: email, orderIds, queuedBy: actor.id }).returning({ id: lotRecallNotices.id })
+        noticeId = notice!.id
       }
       const first = theirs[0]!
       const content = recallNoticeContent({
@@ -201,9 +212,9 @@ export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: strin
         units: theirs.map((u) => ({ serial: u.serial, orderNumber: u.orderNumber, kitName: u.kitName, shipped: u.shippedAt !== null || u.status === 'shipped' })),
         message: input.message,
       })
-      // The outbox keeps one message per order and purpose; the customer's first order carries it.
+      // The outbox keeps one message per order and purpose: the first order not yet told carries it.
       const mailId = await queueMail(tx, deps.jobs, { to: first.customerEmail, ...content, orderId: first.orderId, purpose: recallPurpose(lotId) })
-      await tx.update(lotRecallNotices).set({ mailId }).where(eq(lotRecallNotices.id, notice.id))
+      if (!earlier) await tx.update(lotRecallNotices).set({ mailId }).where(eq(lotRecallNotices.id, noticeId))
       const serialsOf = (orderId: string) => theirs.filter((u) => u.orderId === orderId).map((u) => u.serial).join(', ')
       for (const orderId of orderIds) {
         await addOrderEvent(tx, {
