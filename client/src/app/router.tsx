@@ -66,8 +66,6 @@ export const routes: RouteObject[] = [
               { path: paths.suppliers.pattern, handle: title('Suppliers'), lazy: afterSignIn(() => import('./routes/purchasing/suppliers')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.lots.pattern, handle: title('Lots and recalls'), lazy: afterSignIn(() => import('./routes/lots/lots')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.lot.pattern, handle: title('Lot'), lazy: afterSignIn(() => import('./routes/lots/lot')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-              { path: paths.lots.pattern, handle: title('Lots and recalls'), lazy: afterSignIn(() => import('./routes/lots/lots')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
-              { path: paths.lot.pattern, handle: title('Lot'), lazy: afterSignIn(() => import('./routes/lots/lot')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.outbox.pattern, handle: title('Outbox'), lazy: afterSignIn(() => import('./routes/outbox')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.cutRuns.pattern, handle: title('Cut runs'), lazy: afterSignIn(() => import('./routes/planning/cut-runs')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
               { path: paths.cutRun.pattern, handle: title('Cut run'), lazy: afterSignIn(() => import('./routes/planning/cut-run')), loader: ({ request }) => requireRole(request, ['admin', 'planner']) },
