@@ -1,19 +1,9 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
-import {
-  BuildPageSchema,
-  MeasurementFlagSchema,
-  PresignedPhotoSchema,
-  UnitRecordSchema,
-  type BuildPage,
-  type PhotoContentType,
-  type RecordLeakTestInput,
-  type TickStepInput,
-} from '@kitwright/shared/build'
+import { BuildPageSchema, MeasurementFlagSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
 import type { FitLotInput } from '@kitwright/shared/lots'
 import { z } from 'zod'
 import { BuildWorklistItemSchema } from '@kitwright/shared/worklists'
 import { apiFetch } from '../../../lib/api-client'
-import { putToPresignedUrl } from './put-to-presigned-url'
 
 export const buildKeys = {
   all: ['build'] as const,
@@ -64,48 +54,7 @@ function useSetPage(code: string) {
   }
 }
 
-export function useTickStep(code: string) {
-  const setPage = useSetPage(code)
-  return useMutation({
-    mutationFn: ({ workOrderId, stepId, ...body }: TickStepInput & { workOrderId: string; stepId: string }) =>
-      apiFetch(`/build/${workOrderId}/steps/${stepId}/tick`, BuildPageSchema, { method: 'POST', body }),
-    onSuccess: setPage,
-  })
-}
-
-export function useUndoTick(code: string) {
-  const setPage = useSetPage(code)
-  return useMutation({
-    mutationFn: ({ workOrderId, stepId }: { workOrderId: string; stepId: string }) =>
-      apiFetch(`/build/${workOrderId}/steps/${stepId}/undo`, BuildPageSchema, { method: 'POST', body: {} }),
-    onSuccess: setPage,
-  })
-}
-
-/** Presign, PUT the file straight to the bucket, then have the server confirm it with a HEAD. */
-export function useUploadPhoto(code: string) {
-  const setPage = useSetPage(code)
-  return useMutation({
-    mutationFn: async ({ workOrderId, stepId, file }: { workOrderId: string; stepId: string | null; file: File }) => {
-      const presigned = await apiFetch(`/build/${workOrderId}/photos/presign`, PresignedPhotoSchema, {
-        method: 'POST',
-        body: { contentType: file.type as PhotoContentType, size: file.size, stepId },
-      })
-      await putToPresignedUrl(presigned, file)
-      return apiFetch(`/build/${workOrderId}/photos/confirm`, BuildPageSchema, { method: 'POST', body: { key: presigned.key } })
-    },
-    onSuccess: setPage,
-  })
-}
-
-export function useRecordLeakTest(code: string) {
-  const setPage = useSetPage(code)
-  return useMutation({
-    mutationFn: ({ workOrderId, ...input }: RecordLeakTestInput & { workOrderId: string }) =>
-      apiFetch(`/build/${workOrderId}/leak-tests`, BuildPageSchema, { method: 'POST', body: input }),
-    onSuccess: setPage,
-  })
-}
+// Ticks, undos, the leak test and photos go through the tablet's queue: build-bench-actions.ts.
 
 /** Records which lot of a lot-tracked part went into the unit: `{ partId, lotCode, quantity? }`, one plain call. */
 export function useFitLot(code: string) {
