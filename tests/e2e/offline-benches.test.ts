@@ -133,6 +133,8 @@ describe('the cut bench with the network cut', () => {
     await stick.getByText(`2 of ${pieces} pieces cut`).waitFor()
     await banner(page).getByText('2 actions waiting.').waitFor()
     expect(await stick.getByText(/^Last cut by you \(not sent yet\)/).count()).toBeGreaterThan(0)
+    // The unit's count beside the stick counts them too.
+    await page.getByText(new RegExp(`^WO ${wo!.serial} .* · 2/\\d+ pieces cut$`)).waitFor()
     await shot(page, 'cut-bench-offline-reloaded')
 
     await context.setOffline(false)

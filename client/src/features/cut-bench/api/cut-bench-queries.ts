@@ -76,20 +76,27 @@ export function overlayWaiting(run: CutRunDetail, waiting: readonly QueuedAction
   if (mine.length === 0) return run
   const status = new Map<string, { cut: boolean; at: string }>()
   for (const a of mine) status.set(a.target.cutId!, { cut: a.kind === 'cut.tick', at: a.takenAt })
-  return {
-    ...run,
-    sticks: run.sticks.map((stick) => {
-      if (!stick.cuts.some((c) => status.has(c.id))) return stick
-      const cuts = stick.cuts.map((c) => {
-        const s = status.get(c.id)
-        if (!s || c.status === 'replanned') return c
-        if (s.cut && c.status === 'pending') return { ...c, status: 'cut' as const, cutAt: s.at, cutBy: NOT_SENT }
-        if (!s.cut && c.status === 'cut') return { ...c, status: 'pending' as const, cutAt: null, cutBy: null }
-        return c
-      })
-      return { ...stick, cuts, status: stick.status === 'pending' && cuts.some((c) => c.status === 'cut') ? ('in_progress' as const) : stick.status }
-    }),
-  }
+  // Pieces each unit gains (or loses) by what waits, for the units' counts beside the stick.
+  const gained = new Map<string, number>()
+  const gain = (workOrderId: string, n: number) => gained.set(workOrderId, (gained.get(workOrderId) ?? 0) + n)
+  const sticks = run.sticks.map((stick) => {
+    if (!stick.cuts.some((c) => status.has(c.id))) return stick
+    const cuts = stick.cuts.map((c) => {
+      const s = status.get(c.id)
+      if (!s || c.status === 'replanned') return c
+      if (s.cut && c.status === 'pending') {
+        gain(c.workOrderId, 1)
+        return { ...c, status: 'cut' as const, cutAt: s.at, cutBy: NOT_SENT }
+      }
+      if (!s.cut && c.status === 'cut') {
+        gain(c.workOrderId, -1)
+        return { ...c, status: 'pending' as const, cutAt: null, cutBy: null }
+      }
+      return c
+    })
+    return { ...stick, cuts, status: stick.status === 'pending' && cuts.some((c) => c.status === 'cut') ? ('in_progress' as const) : stick.status }
+  })
+  return { ...run, sticks, workOrders: run.workOrders.map((w) => (gained.has(w.id) ? { ...w, cut: w.cut + gained.get(w.id)! } : w)) }
 }
 export const useDamageStick = () =>
   useBenchAction(
