@@ -71,7 +71,7 @@ export function benchActions(db: Db): RequestHandler {
     const takenAt = new Date(parsed.data.takenAt)
     const now = Date.now()
     if (takenAt.getTime() > now + TAKEN_AT_MAX_AHEAD_MS) {
-      throw new BadRequest(`The tablet says this action was taken at ${takenAt.toISOString()}, later than now on the server; set the tablet's clock right and send it again`, {
+      throw new BadRequest(`The tablet says this action was taken at ${takenAt.toISOString()}, later than now on the server; set the tablet's clock right, then do it again on the bench`, {
         [BENCH_ACTION_TAKEN_AT_HEADER]: 'Later than the server’s clock',
       })
     }
