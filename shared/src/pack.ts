@@ -179,6 +179,21 @@ export const PackViewSchema = z.object({
   backOrderedSerials: z.array(z.string()),
   /** Serials of the order that left in earlier shipments. */
   alreadyShipped: z.array(z.string()),
+  /** Shipments that have left, oldest first; `canVoid` while a bought label is left to void (office only). */
+  shipped: z
+    .array(
+      z.object({
+        id: uuid,
+        carrier: z.string().nullable(),
+        service: z.string().nullable(),
+        trackingNumber: z.string().nullable(),
+        shippedAt: z.string().nullable(),
+        trackingStatus: z.string().nullable(),
+        voidedLabels: z.array(z.object({ trackingNumbers: z.array(z.string()), service: z.string(), reason: z.string(), at: z.string(), refundStatus: z.string().nullable() })),
+        canVoid: z.boolean(),
+      }),
+    )
+    .default([]),
   /** What stops the label (and so the shipment) now, in words; empty when it may go. */
   blockers: z.array(z.string()),
   canLabel: z.boolean(),

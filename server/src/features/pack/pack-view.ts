@@ -19,6 +19,7 @@ import {
   standingChecks,
   unitsOfOrder,
   userName,
+  shippedShipmentsOf,
   voidedLabelsOf,
 } from './pack.queries'
 import { ORDER_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
@@ -157,6 +158,29 @@ function buyingParcels(labelRequest: unknown) {
   return parsed.success ? parsed.data.weighed : null
 }
 
+function voidedLabels(db: Conn, shipmentId: string) {
+  return voidedLabelsOf(db, shipmentId).then((rows) =>
+    rows.map((l) => ({ trackingNumbers: l.trackingNumbers, service: l.service, reason: l.voidReason ?? '', at: l.voidedAt?.toISOString() ?? '', refundStatus: l.refundStatus })),
+  )
+}
+
+/** Shipments of the order that have left: tracking, voided labels, and whether a label is left to void. */
+async function shippedOf(db: Conn, orderId: string): Promise<PackView['shipped']> {
+  const found = await shippedShipmentsOf(db, orderId)
+  return Promise.all(
+    found.map(async ({ row, hasLabel }) => ({
+      id: row.id,
+      carrier: row.carrier,
+      service: row.service,
+      trackingNumber: row.trackingNumber,
+      shippedAt: row.shippedAt?.toISOString() ?? null,
+      trackingStatus: row.trackingStatus,
+      voidedLabels: await voidedLabels(db, row.id),
+      canVoid: hasLabel,
+    })),
+  )
+}
+
 /** The pack bench's view: items, blockers, the parcels proposed (or recorded, once labelled). */
 export async function buildPackView(db: Conn, data: PackData, options: { carrierReady: boolean }): Promise<PackView> {
   const { order, shipment, items, settings } = data
@@ -235,7 +259,7 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
           shippedAt: shipment.shippedAt?.toISOString() ?? null,
           trackingStatus: shipment.trackingStatus,
           trackingUpdatedAt: shipment.trackingUpdatedAt?.toISOString() ?? null,
-          voidedLabels: (await voidedLabelsOf(db, shipment.id)).map((l) => ({ trackingNumbers: l.trackingNumbers, service: l.service, reason: l.voidReason ?? '', at: l.voidedAt?.toISOString() ?? '', refundStatus: l.refundStatus })),
+          voidedLabels: await voidedLabels(db, shipment.id),
           canVoid: shipment.status === 'labelled' || shipment.status === 'shipped',
         }
       : null,
@@ -243,6 +267,7 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
     shippingSerials: shipping.map((id) => serialOf.get(id)!),
     backOrderedSerials: backOrdered.map((id) => serialOf.get(id)!),
     alreadyShipped: data.units.filter((u) => u.workOrder.status === 'shipped').map((u) => u.workOrder.serial),
+    shipped: await shippedOf(db, order.id),
     blockers: status === 'packing' ? blockers : [],
     canLabel: status === 'packing' && blockers.length === 0,
     canShip: status === 'labelled',

@@ -155,6 +155,18 @@ export async function nextSsccSerials(tx: Tx, count: number): Promise<number[]> 
 }
 
 /** The labels of a shipment that were voided, newest first. */
+/** The order's shipments that have left, oldest first, each with whether it still has a bought label. */
+export async function shippedShipmentsOf(db: Conn, orderId: string) {
+  const rows = await db.select().from(shipments).where(and(eq(shipments.orderId, orderId), eq(shipments.status, 'shipped'))).orderBy(asc(shipments.shippedAt))
+  if (rows.length === 0) return []
+  const bought = await db
+    .select({ shipmentId: shippingLabels.shipmentId })
+    .from(shippingLabels)
+    .where(and(inArray(shippingLabels.shipmentId, rows.map((r) => r.id)), eq(shippingLabels.status, 'bought')))
+  const withLabel = new Set(bought.map((b) => b.shipmentId))
+  return rows.map((row) => ({ row, hasLabel: withLabel.has(row.id) }))
+}
+
 export function voidedLabelsOf(db: Conn, shipmentId: string) {
   return db.select().from(shippingLabels).where(and(eq(shippingLabels.shipmentId, shipmentId), eq(shippingLabels.status, 'voided'))).orderBy(desc(shippingLabels.voidedAt))
 }

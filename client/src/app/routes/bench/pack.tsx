@@ -16,6 +16,7 @@ import { PackingList } from '../../../features/pack-bench/components/packing-lis
 import { ParcelsPanel } from '../../../features/pack-bench/components/parcels-panel'
 import { PartialApproval } from '../../../features/pack-bench/components/partial-approval'
 import { PrintLinks } from '../../../features/pack-bench/components/print-links'
+import { ShippedPanel } from '../../../features/pack-bench/components/shipped-panel'
 import { packWorklistOptions } from '../../../features/pack-bench/api/pack-worklist-queries'
 import { BenchDeviceToggle } from '../../../components/ui/bench-device-toggle'
 import { Worklist } from '../../../components/ui/worklist'
@@ -139,6 +140,7 @@ export function Component() {
           <Caution>The slip carries the customer's care and safety sheet (fill line, ground-fault protected outlet, drip loop): put it in the box on top.</Caution>
           {packing && view.canLabel && <ParcelsPanel key={`${view.shipment?.id}-${view.shippingSerials.join()}`} view={view} onError={setProblem} />}
           {view.shipment?.status === 'buying' && <BuyingPanel view={view} onError={setProblem} />}
+          {view.shipped.length > 0 && <ShippedPanel view={view} office={office} onError={setProblem} />}
           {view.shipment?.status === 'labelled' && <LabelledPanel view={view} onShipped={(r) => { setProblem(null); setShipped(r) }} onError={setProblem} />}
         </>
       )}

@@ -1,5 +1,7 @@
+import { Link } from 'react-router-dom'
 import type { OrderDetail } from '@kitwright/shared/orders'
 import { ORDER_SOURCE_LABELS, WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
+import { paths } from '../../../config/paths'
 import { Section } from '../../../components/ui/section'
 import { formatDateTime, formatDay, formatMoney } from './format'
 import { OrderActionsPanel } from './order-actions-panel'
@@ -90,6 +92,9 @@ function WorkOrders({ order }: { order: OrderDetail }) {
 }
 
 /** Everything about one order: lines, customer, ship-to, its work orders and its timeline. */
+/** Stages where the order has a box at the pack bench (and may have a bought label). */
+const PACKED_STAGES = new Set<OrderDetail['stage']>(['ready_to_pack', 'partially_shipped', 'shipped'])
+
 export function OrderDetailView({ order }: { order: OrderDetail }) {
   const ship = order.shipTo
   return (
@@ -119,6 +124,14 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
         </div>
       </dl>
       {order.note && <p className="rounded-md bg-stone-100 p-3">Note: {order.note}</p>}
+      {PACKED_STAGES.has(order.stage) && (
+        <p>
+          {/* The pack bench's view of this order: its papers, its label and tracking, and voiding a mistaken label. */}
+          <Link to={`${paths.packBench.href()}?order=${order.id}`} className="font-bold text-brand-700 underline">
+            Shipment: papers, label and tracking
+          </Link>
+        </p>
+      )}
       <OrderActionsPanel order={order} />
       <PaymentPanel order={order} />
       {!order.onHold && <ReleasePanel order={order} />}

@@ -31,7 +31,7 @@ export function LabelledPanel({ view, onShipped, onError }: { view: PackView; on
       <Button size="bench" className="h-20 w-full text-2xl" disabled={ship.isPending} onClick={() => ship.mutate(view.order.id, { onSuccess: onShipped, onError: (e) => onError(e.message) })}>
         Ship order {view.order.number}
       </Button>
-      <VoidLabel view={view} onError={onError} />
+      <VoidLabel shipment={s} onError={onError} />
     </div>
   )
 }

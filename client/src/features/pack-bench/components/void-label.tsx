@@ -1,5 +1,4 @@
 import { useState } from 'react'
-import type { PackView } from '@kitwright/shared/pack'
 import { Button } from '../../../components/ui/button'
 import { useVoidLabel } from '../api/pack-queries'
 
@@ -7,11 +6,10 @@ import { useVoidLabel } from '../api/pack-queries'
  * Voids a bought label, with the reason (kept in the audit): the carrier is asked to refund it and,
  * before shipping, the box opens again for a new label. Two taps: open, then confirm with a reason.
  */
-export function VoidLabel({ view, onError }: { view: PackView; onError: (message: string) => void }) {
+export function VoidLabel({ shipment: s, onError }: { shipment: { id: string; trackingNumber: string | null; canVoid: boolean } | null; onError: (message: string) => void }) {
   const [open, setOpen] = useState(false)
   const [reason, setReason] = useState('')
   const voidLabel = useVoidLabel()
-  const s = view.shipment
   if (!s || !s.canVoid) return null
   if (!open) {
     return (
