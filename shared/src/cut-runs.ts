@@ -184,6 +184,8 @@ export const CutRunDetailSchema = z.object({
   endTrim: z.number().int(),
   minOffcut: z.number().int(),
   solveMs: z.number().int(),
+  /** Why the plan has no proof, when the LP solver could not be loaded: the greedy plan was kept. */
+  solverNote: z.string().nullable(),
   totals: CutRunTotalsSchema,
   createdAt: z.string(),
   createdBy: z.string().nullable(),

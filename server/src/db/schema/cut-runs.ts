@@ -47,6 +47,8 @@ export const cutRuns = pgTable(
     offcutLength: length(),
     scrapLength: length(),
     solveMs: integer().notNull().default(0),
+    /** Why the plan has no proof, when the LP solver could not be loaded (the greedy plan was kept). */
+    solverNote: text(),
     createdBy: uuid().references(() => users.id),
     createdAt: createdAt(),
     publishedBy: uuid().references(() => users.id),

@@ -92,6 +92,7 @@ export function toCutRunDetail(run: CutRunRow, contents: Contents, names: Map<st
     endTrim: run.endTrim,
     minOffcut: run.minOffcut,
     solveMs: run.solveMs,
+    solverNote: run.solverNote,
     totals: toTotals(run),
     createdAt: run.createdAt.toISOString(),
     createdBy: run.createdBy ? (names.get(run.createdBy) ?? null) : null,

@@ -90,5 +90,6 @@ export function sumPlans(plans: readonly PartPlan[]) {
     offcutLength: sum((p) => p.totals.offcutLength),
     scrapLength: sum((p) => p.totals.scrapLength),
     solveMs: Math.round(sum((p) => p.seconds) * 1000),
+    solverNote: plans.map((p) => p.plan.stats.solverUnavailable).find((why) => why) ?? null,
   }
 }

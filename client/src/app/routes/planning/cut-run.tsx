@@ -86,6 +86,13 @@ export function Component() {
           ? 'Proven best: no plan uses less stock.'
           : `Every plan needs at least ${r.totals.lowerBoundSticks} sticks${r.planStatus === 'time-limit' ? '; the engine stopped at its time limit' : ''}${r.status === 'draft' ? ': take longer to look for a better plan' : ''}.`}
       </p>
+      {r.solverNote && (
+        <p role="status" className="rounded-md border-2 border-amber-600 bg-amber-50 p-3">
+          The engine's solver could not be loaded on the server, so this is the quick first-fit plan, not a searched one, and
+          nothing proves how close it is to the best ({r.solverNote}). Tell whoever looks after the shop computer; planning again once
+          it is fixed may save sticks.
+        </p>
+      )}
       {publish.error && (
         <p role="alert" className="rounded-md bg-red-50 p-3 text-red-800">
           {publish.error.message}

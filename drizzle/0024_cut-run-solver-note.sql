@@ -1,0 +1,1 @@
+ALTER TABLE "cut_runs" ADD COLUMN "solver_note" text;
