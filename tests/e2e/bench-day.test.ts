@@ -158,7 +158,7 @@ describe('the benches on a tablet', () => {
     await step1.getByRole('button', { name: 'Tick step 1' }).click()
     await step1.getByText(/Out of limits .*: Tote from the new supplier runs wide/).waitFor()
     // This revision sends a wrong tote to rework.
-    await page.getByRole('status').filter({ hasText: 'In rework' }).waitFor()
+    await page.getByRole('status').filter({ hasText: 'Rework' }).waitFor()
     await page.screenshot({ path: path.join(shots, 'tablet-build-out-of-limits.png'), fullPage: true })
 
     // Undo, measure again in a fraction inside the limits: accepted as typed.
