@@ -42,12 +42,12 @@ describe('signing in, in Chromium', () => {
     expect(await page.evaluate(() => document.fonts.check('16px "Roboto Condensed"'))).toBe(true)
   })
 
-  it('lands a packer on the pack bench, with only that bench in the menu', async () => {
+  it('lands a packer on the pack bench, with only that bench (and the returns it receives) in the menu', async () => {
     const packer = demo('packer')
     await signIn(page, baseUrl, packer.email, packer.password)
     await page.getByRole('heading', { name: 'Pack bench' }).waitFor()
     expect(new URL(page.url()).pathname).toBe('/bench/pack')
-    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Pack bench', 'Scan'])
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link').allTextContents()).toEqual(['Pack bench', 'Returns', 'Scan'])
     // A packer who types the users page's address is sent back to their bench.
     await page.goto(`${baseUrl}/admin/users`)
     await page.getByRole('heading', { name: 'Pack bench' }).waitFor()

@@ -1,6 +1,4 @@
-import { zodResolver } from '@hookform/resolvers/zod'
-import { useState } from 'react'
-import { useForm } from 'react-hook-form'
+import { useState, type ChangeEvent } from 'react'
 import { BenchPinSignInSchema, PasswordSignInSchema, type BenchPerson, type Me, type SignIn } from '@kitwright/shared/auth'
 import { Button } from '../../../components/ui/button'
 import { Field, Input } from '../../../components/ui/field'
@@ -59,17 +57,40 @@ function FormError({ error }: { error: string | null }) {
   )
 }
 
+/**
+ * E-mail and password, checked with the shared schema before sending. Plain state rather than
+ * react-hook-form: this page is the first load on every tablet, and two fields do not need it.
+ */
 function PasswordForm({ onSignedIn }: { onSignedIn: (me: Me) => void }) {
-  const form = useForm({ resolver: zodResolver(PasswordSignInSchema), defaultValues: { email: '', password: '' } })
+  const [values, setValues] = useState({ email: '', password: '' })
+  const [errors, setErrors] = useState<Partial<Record<'email' | 'password', string>>>({})
   const { submit, error, pending } = useSubmit(onSignedIn)
-  const { errors } = form.formState
+  const set = (name: 'email' | 'password') => (e: ChangeEvent<HTMLInputElement>) => setValues((v) => ({ ...v, [name]: e.target.value }))
   return (
-    <form onSubmit={form.handleSubmit(submit)} className="space-y-4" noValidate>
-      <Field label="E-mail" error={errors.email?.message}>
-        <Input type="email" autoComplete="username" aria-invalid={!!errors.email} {...form.register('email')} />
+    <form
+      className="space-y-4"
+      noValidate
+      onSubmit={(e) => {
+        e.preventDefault()
+        const parsed = PasswordSignInSchema.safeParse(values)
+        if (!parsed.success) {
+          const found: typeof errors = {}
+          for (const issue of parsed.error.issues) {
+            const field = issue.path[0]
+            if ((field === 'email' || field === 'password') && !found[field]) found[field] = issue.message
+          }
+          setErrors(found)
+          return
+        }
+        setErrors({})
+        submit(parsed.data)
+      }}
+    >
+      <Field label="E-mail" error={errors.email}>
+        <Input type="email" name="email" autoComplete="username" aria-invalid={!!errors.email} value={values.email} onChange={set('email')} />
       </Field>
-      <Field label="Password" error={errors.password?.message}>
-        <Input type="password" autoComplete="current-password" aria-invalid={!!errors.password} {...form.register('password')} />
+      <Field label="Password" error={errors.password}>
+        <Input type="password" name="password" autoComplete="current-password" aria-invalid={!!errors.password} value={values.password} onChange={set('password')} />
       </Field>
       <FormError error={error} />
       <Button type="submit" size="bench" className="w-full" disabled={pending}>
