@@ -48,7 +48,9 @@ export default defineConfig({
             urlPattern: ({ url, request, sameOrigin }) =>
               sameOrigin &&
               request.method === 'GET' &&
-              /^\/api\/(auth\/me|settings|cut-runs(\/worklist|\/[0-9a-f-]{36})?|build\/(worklist|lookup)|pack\/(worklist|lookup|orders\/[0-9a-f-]{36})|shipments\/[0-9a-f-]{36}\/customs)$/.test(url.pathname),
+              /^\/api\/(auth\/me|settings|cut-runs(\/worklist|\/[0-9a-f-]{36})?|build\/(worklist|lookup)|pack\/(worklist|lookup|orders\/[0-9a-f-]{36})|shipments\/[0-9a-f-]{36}\/customs)$/.test(
+                url.pathname,
+              ),
             handler: 'NetworkFirst',
             options: {
               cacheName: 'kitwright-bench-reads',

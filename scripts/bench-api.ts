@@ -86,12 +86,28 @@ async function measure(label: string, opts: Omit<CannonOptions, 'connections' | 
   const { times, result } = await load({ ...opts, connections, duration })
   times.sort((a, b) => a - b)
   const bad = Object.entries(result.statusCodeStats).filter(([code]) => !code.startsWith('2'))
-  const refused = [...bad.map(([code, s]) => `${s.count}×${code}`), ...(result.errors ? [`${result.errors} errors`] : []), ...(result.timeouts ? [`${result.timeouts} timeouts`] : [])].join(', ')
-  return { label, requests: times.length, perSecond: times.length / result.duration, p50: percentile(times, 50), p95: percentile(times, 95), p99: percentile(times, 99), refused }
+  const refused = [
+    ...bad.map(([code, s]) => `${s.count}×${code}`),
+    ...(result.errors ? [`${result.errors} errors`] : []),
+    ...(result.timeouts ? [`${result.timeouts} timeouts`] : []),
+  ].join(', ')
+  return {
+    label,
+    requests: times.length,
+    perSecond: times.length / result.duration,
+    p50: percentile(times, 50),
+    p95: percentile(times, 95),
+    p99: percentile(times, 99),
+    refused,
+  }
 }
 
 function startApi(env: Record<string, string>): Promise<ChildProcess> {
-  const child = spawn(path.join(root, 'node_modules/.bin/tsx'), ['server/src/index.ts'], { cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] })
+  const child = spawn(path.join(root, 'node_modules/.bin/tsx'), ['server/src/index.ts'], {
+    cwd: root,
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
   return new Promise((resolve, reject) => {
     let out = ''
     child.stdout!.on('data', (d: Buffer) => {
@@ -167,12 +183,16 @@ try {
   console.log(`API process ${api.pid} on ${base}; ${connections} connections, ${duration} s per route after a 1 s warm-up\n`)
 
   const planner = DEMO_USERS.find((u) => u.role === 'planner')!
-  const signIn = await fetch(
-    `${base}/api/auth/sign-in`,
-    { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: planner.email, password: planner.password }) },
-  )
+  const signIn = await fetch(`${base}/api/auth/sign-in`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: planner.email, password: planner.password }),
+  })
   if (signIn.status !== 200) throw new Error(`signing in as ${planner.email} answered ${signIn.status}: ${await signIn.text()}`)
-  const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
+  const cookie = signIn.headers
+    .getSetCookie()
+    .map((c) => c.split(';')[0])
+    .join('; ')
   const sku = DEMO_PART_SKUS.elbowHalfInch
   const scanPath = `/api/scan/${encodeURIComponent(sku)}`
   for (const p of [scanPath, '/api/orders']) {
@@ -204,7 +224,12 @@ try {
       method: 'POST',
       path: '/api/webhooks/store',
       body,
-      headers: { ...req.headers, 'content-type': 'application/json', 'x-store-timestamp': String(ts), 'x-store-signature': signStoreDelivery(webhookSecret, ts, body) },
+      headers: {
+        ...req.headers,
+        'content-type': 'application/json',
+        'x-store-timestamp': String(ts),
+        'x-store-signature': signStoreDelivery(webhookSecret, ts, body),
+      },
     }
   }
 
@@ -215,15 +240,21 @@ try {
   rows.push(await measure('POST /api/webhooks/store', { url: base, requests: [{ setupRequest: signedDelivery }] }))
 
   const floor = rows[0]!
-  console.log(`${'route'.padEnd(32)}${'requests'.padStart(9)}${'req/s'.padStart(9)}${'p50 ms'.padStart(8)}${'p95 ms'.padStart(8)}${'p99 ms'.padStart(8)}${'p95/floor'.padStart(11)}  refused`)
+  console.log(
+    `${'route'.padEnd(32)}${'requests'.padStart(9)}${'req/s'.padStart(9)}${'p50 ms'.padStart(8)}${'p95 ms'.padStart(8)}${'p99 ms'.padStart(8)}${'p95/floor'.padStart(11)}  refused`,
+  )
   for (const r of rows) {
-    console.log(`${r.label.padEnd(32)}${String(r.requests).padStart(9)}${r.perSecond.toFixed(0).padStart(9)}${ms(r.p50)}${ms(r.p95)}${ms(r.p99)}${(r.p95 / floor.p95).toFixed(1).padStart(10)}×  ${r.refused || 'none'}`)
+    console.log(
+      `${r.label.padEnd(32)}${String(r.requests).padStart(9)}${r.perSecond.toFixed(0).padStart(9)}${ms(r.p50)}${ms(r.p95)}${ms(r.p99)}${(r.p95 / floor.p95).toFixed(1).padStart(10)}×  ${r.refused || 'none'}`,
+    )
     if (r.refused) failed = true
   }
   const scan = rows[1]!
   const under = scan.p95 < SCAN_P95_LIMIT_MS
   const within = scan.p95 <= SCAN_FLOOR_RATIO_LIMIT * floor.p95
-  console.log(`\nScan lookup p95 ${scan.p95.toFixed(1)} ms: under ${SCAN_P95_LIMIT_MS} ms ${under ? 'yes' : 'NO'}; within ${SCAN_FLOOR_RATIO_LIMIT}× the floor (${floor.p95.toFixed(1)} ms) ${within ? 'yes' : 'NO'} (${(scan.p95 / floor.p95).toFixed(1)}×)`)
+  console.log(
+    `\nScan lookup p95 ${scan.p95.toFixed(1)} ms: under ${SCAN_P95_LIMIT_MS} ms ${under ? 'yes' : 'NO'}; within ${SCAN_FLOOR_RATIO_LIMIT}× the floor (${floor.p95.toFixed(1)} ms) ${within ? 'yes' : 'NO'} (${(scan.p95 / floor.p95).toFixed(1)}×)`,
+  )
   console.log(`Webhook: ${delivery} signed deliveries built, each with its own event id`)
   if (failed) console.log('Some requests were not answered 2xx (see "refused"); their times are left out of the figures.')
 } catch (err) {

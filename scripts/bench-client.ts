@@ -73,9 +73,31 @@ type PageCase = {
 
 const scanField: Usable = { css: 'input[placeholder^="Scan or type"]', text: '' }
 const PAGES: PageCase[] = [
-  { label: 'sign-in (opened at /)', path: '/', endsAt: '/sign-in', usable: { css: 'form button[type="submit"]', text: 'Sign in' }, maxJs: 150 * KB, maxMs: 1000 },
-  { label: 'sign-in (/sign-in)', path: '/sign-in', endsAt: '/sign-in', usable: { css: 'form button[type="submit"]', text: 'Sign in' }, maxJs: 150 * KB, maxMs: 1000 },
-  { label: 'home with charts (planner)', path: '/', role: 'planner', endsAt: '/', usable: { css: 'h1', text: 'Good day' }, complete: { css: '.recharts-surface', count: 3 }, maxJs: 350 * KB },
+  {
+    label: 'sign-in (opened at /)',
+    path: '/',
+    endsAt: '/sign-in',
+    usable: { css: 'form button[type="submit"]', text: 'Sign in' },
+    maxJs: 150 * KB,
+    maxMs: 1000,
+  },
+  {
+    label: 'sign-in (/sign-in)',
+    path: '/sign-in',
+    endsAt: '/sign-in',
+    usable: { css: 'form button[type="submit"]', text: 'Sign in' },
+    maxJs: 150 * KB,
+    maxMs: 1000,
+  },
+  {
+    label: 'home with charts (planner)',
+    path: '/',
+    role: 'planner',
+    endsAt: '/',
+    usable: { css: 'h1', text: 'Good day' },
+    complete: { css: '.recharts-surface', count: 3 },
+    maxJs: 350 * KB,
+  },
   { label: 'orders (planner)', path: '/orders', role: 'planner', endsAt: '/orders', usable: { css: 'h1', text: 'Orders' } },
   { label: 'cut bench (cutter)', path: '/bench/cut', role: 'cutter', endsAt: '/bench/cut', usable: { css: 'h1', text: 'Cut bench' }, maxJs: 250 * KB },
   { label: 'build bench (assembler)', path: '/bench/build', role: 'assembler', endsAt: '/bench/build', usable: scanField, maxJs: 250 * KB },
@@ -83,7 +105,16 @@ const PAGES: PageCase[] = [
   { label: 'scan (cutter)', path: '/scan', role: 'cutter', endsAt: '/scan', usable: scanField, maxJs: 250 * KB },
 ]
 
-type Load = { jsBytes: number; jsRawBytes: number; jsFiles: number; files: { name: string; bytes: number; raw: number }[]; encodings: Set<string>; usableMs: number; title: string; consoleProblems: string[] }
+type Load = {
+  jsBytes: number
+  jsRawBytes: number
+  jsFiles: number
+  files: { name: string; bytes: number; raw: number }[]
+  encodings: Set<string>
+  usableMs: number
+  title: string
+  consoleProblems: string[]
+}
 
 function launchChromium(): Promise<Browser> {
   return chromium.launch({
@@ -145,7 +176,11 @@ async function loadCold(browser: Browser, base: string, c: PageCase): Promise<Lo
     })()`)
     await page.goto(`${base}${c.path}`)
     await page.locator(c.usable.css).filter({ hasText: c.usable.text }).first().waitFor({ state: 'visible', timeout: 30_000 })
-    if (c.complete) await page.locator(c.complete.css).nth(c.complete.count - 1).waitFor({ state: 'visible', timeout: 30_000 })
+    if (c.complete)
+      await page
+        .locator(c.complete.css)
+        .nth(c.complete.count - 1)
+        .waitFor({ state: 'visible', timeout: 30_000 })
     // Everything else the page fetches of itself.
     await page.waitForLoadState('networkidle')
     await Promise.all(pending)
@@ -160,7 +195,11 @@ async function loadCold(browser: Browser, base: string, c: PageCase): Promise<Lo
 }
 
 function startApi(env: Record<string, string>): Promise<ChildProcess> {
-  const child = spawn(path.join(root, 'node_modules/.bin/tsx'), ['server/src/index.ts'], { cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'] })
+  const child = spawn(path.join(root, 'node_modules/.bin/tsx'), ['server/src/index.ts'], {
+    cwd: root,
+    env: { ...process.env, ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
   return new Promise((resolve, reject) => {
     let out = ''
     child.stdout!.on('data', (d: Buffer) => {
@@ -217,7 +256,10 @@ for (const sig of ['SIGINT', 'SIGTERM'] as const) process.once(sig, () => void s
 
 try {
   console.log(`Building the client into ${path.relative(root, dist)}`)
-  const build = spawnSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: path.join(root, 'client'), encoding: 'utf8' })
+  const build = spawnSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], {
+    cwd: path.join(root, 'client'),
+    encoding: 'utf8',
+  })
   if (build.status !== 0) throw new Error(`the client build failed:\n${build.stdout}${build.stderr}`)
 
   console.log(`Database ${DB_NAME} (recreated), demo shop seeded`)
@@ -276,7 +318,8 @@ try {
     console.log(
       `${c.label.padEnd(28)}${kB(first.jsBytes).padStart(8)}${kB(first.jsRawBytes).padStart(9)}${String(first.jsFiles).padStart(7)}  ${[...first.encodings].join(',').padEnd(10)}${`${ms.toFixed(0)} (${Math.min(...times).toFixed(0)}–${Math.max(...times).toFixed(0)})`.padStart(21)}  "${first.title}"${targets.length ? ` · ${targets.join(' · ')}` : ''}`,
     )
-    if (listFiles) for (const f of [...first.files].sort((a, b) => b.bytes - a.bytes)) console.log(`    ${kB(f.bytes).padStart(7)} kB (${kB(f.raw)} kB raw) ${f.name}`)
+    if (listFiles)
+      for (const f of [...first.files].sort((a, b) => b.bytes - a.bytes)) console.log(`    ${kB(f.bytes).padStart(7)} kB (${kB(f.raw)} kB raw) ${f.name}`)
     const problems = [...new Set(loads.flatMap((l) => l.consoleProblems))]
     if (problems.length) {
       failed = true

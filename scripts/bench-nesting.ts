@@ -143,7 +143,9 @@ async function benchSet(setName: string, folder: string): Promise<{ atBest: numb
         `${pad(mean.toFixed(3), 8)}${pad(worst.toFixed(3), 9)}${pad(cpuMean.toFixed(3), 10)}${pad(cpuWorst.toFixed(3), 11)}${pad(patterns.toFixed(1), 10)}${pad(sticks, 8)}${pad((sticks / ffd).toFixed(4), 8)}${pad(iters, 9)}`,
     )
   }
-  console.log(`${setName}: ${atBest}/${total} at the best known (or proven) count, invalid plans: ${invalid.length}${invalid.length ? ` (${invalid.join('; ')})` : ''}`)
+  console.log(
+    `${setName}: ${atBest}/${total} at the best known (or proven) count, invalid plans: ${invalid.length}${invalid.length ? ` (${invalid.join('; ')})` : ''}`,
+  )
   console.log('')
   return { atBest, total, invalid }
 }

@@ -110,7 +110,16 @@ function orderJson(order: StoredOrder) {
       tracking_code: s.tracking_code,
       refund_status: s.refund_status,
       rates: SERVICES.map((svc) => rateJson(order, s, svc)),
-      selected_rate: s.selected ? { id: `rate_${s.selected.service}_${s.id}`, object: 'Rate', carrier: STANDIN_CARRIER, service: s.selected.service, rate: money(s.selected.cents), currency: 'USD' } : null,
+      selected_rate: s.selected
+        ? {
+            id: `rate_${s.selected.service}_${s.id}`,
+            object: 'Rate',
+            carrier: STANDIN_CARRIER,
+            service: s.selected.service,
+            rate: money(s.selected.cents),
+            currency: 'USD',
+          }
+        : null,
       postage_label: s.tracking_code ? { object: 'PostageLabel', label_url: null } : null,
       usps_zone: s.tracking_code ? order.to_zip.slice(0, 1) : null,
     })),
@@ -134,7 +143,8 @@ function send(res: ServerResponse, status: number, body: unknown) {
   res.writeHead(status, { 'content-type': 'application/json' })
   res.end(JSON.stringify(body))
 }
-const refuse = (res: ServerResponse, status: number, code: string, message: string, errors: { field: string; message: string }[] = []) => send(res, status, { error: { code, message, errors } })
+const refuse = (res: ServerResponse, status: number, code: string, message: string, errors: { field: string; message: string }[] = []) =>
+  send(res, status, { error: { code, message, errors } })
 
 /** Whether the stand-in can "deliver" to an address: postal codes of the two countries it knows by shape. */
 function checkPostalCode(country: string, zip: string): string | null {
@@ -148,7 +158,9 @@ function checkPostalCode(country: string, zip: string): string | null {
  * under the webhook secret (NFKD-normalised). Bodies carry no `weight` field (the SDK rewrites those).
  */
 export function signCarrierEvent(secret: string, body: string): string {
-  return `hmac-sha256-hex=${createHmac('sha256', Buffer.from(secret.normalize('NFKD'), 'utf8')).update(body, 'utf8').digest('hex')}`
+  return `hmac-sha256-hex=${createHmac('sha256', Buffer.from(secret.normalize('NFKD'), 'utf8'))
+    .update(body, 'utf8')
+    .digest('hex')}`
 }
 
 /** A tracking event body as the hosted API posts it (`tracker.updated`). */
@@ -159,7 +171,14 @@ export function trackingEventBody(input: { eventId?: string; trackingCode: strin
     object: 'Event',
     description: 'tracker.updated',
     created_at: at,
-    result: { object: 'Tracker', tracking_code: input.trackingCode, status: input.status, carrier: STANDIN_CARRIER, updated_at: at, tracking_details: [{ message: input.message ?? input.status.replace(/_/g, ' '), status: input.status, datetime: at }] },
+    result: {
+      object: 'Tracker',
+      tracking_code: input.trackingCode,
+      status: input.status,
+      carrier: STANDIN_CARRIER,
+      updated_at: at,
+      tracking_details: [{ message: input.message ?? input.status.replace(/_/g, ' '), status: input.status, datetime: at }],
+    },
   })
 }
 
@@ -188,10 +207,19 @@ export async function startCarrierFake(opts: { port: number; directory: string }
 
       if (route === 'POST /v2/addresses/create_and_verify') {
         const parsed = z.object({ address: AddressSchema }).safeParse(await readJson(req))
-        if (!parsed.success) return refuse(res, 422, 'ADDRESS.VERIFY.FAILURE', 'Unable to verify address.', parsed.error.issues.map((i) => ({ field: i.path.slice(1).join('.'), message: i.message })))
+        if (!parsed.success)
+          return refuse(
+            res,
+            422,
+            'ADDRESS.VERIFY.FAILURE',
+            'Unable to verify address.',
+            parsed.error.issues.map((i) => ({ field: i.path.slice(1).join('.'), message: i.message })),
+          )
         const problem = checkPostalCode(parsed.data.address.country, parsed.data.address.zip)
         if (problem) return refuse(res, 422, 'ADDRESS.VERIFY.FAILURE', 'Unable to verify address.', [{ field: 'zip', message: problem }])
-        return send(res, 200, { address: { id: newId('adr'), object: 'Address', ...parsed.data.address, verifications: { delivery: { success: true, errors: [] } } } })
+        return send(res, 200, {
+          address: { id: newId('adr'), object: 'Address', ...parsed.data.address, verifications: { delivery: { success: true, errors: [] } } },
+        })
       }
 
       if (route === 'POST /v2/orders') {
@@ -209,7 +237,14 @@ export async function startCarrierFake(opts: { port: number; directory: string }
           // A return goes to the outbound label's sender (the shop).
           to_zip: o.is_return ? o.from_address.zip : o.to_address.zip,
           is_return: o.is_return === true,
-          shipments: o.shipments.map((s) => ({ id: newId('shp'), reference: s.reference ?? null, parcel: s.parcel, tracking_code: null, selected: null, refund_status: null })),
+          shipments: o.shipments.map((s) => ({
+            id: newId('shp'),
+            reference: s.reference ?? null,
+            parcel: s.parcel,
+            tracking_code: null,
+            selected: null,
+            refund_status: null,
+          })),
           idempotencyKey: key,
           buyKey: null,
         }
@@ -236,7 +271,8 @@ export async function startCarrierFake(opts: { port: number; directory: string }
           // The same purchase asked again (same key) gets the same label; another purchase is refused.
           return key === order.buyKey ? send(res, 200, orderJson(order)) : refuse(res, 422, 'ORDER.POSTAGE.EXISTS', 'This order has already been purchased.')
         }
-        if (parsed.data.carrier !== STANDIN_CARRIER) return refuse(res, 422, 'ORDER.BUY.FAILURE', `No rates of carrier "${parsed.data.carrier}" on this account`)
+        if (parsed.data.carrier !== STANDIN_CARRIER)
+          return refuse(res, 422, 'ORDER.BUY.FAILURE', `No rates of carrier "${parsed.data.carrier}" on this account`)
         const service = SERVICES.find((s) => s.service === parsed.data.service)
         if (!service) return refuse(res, 422, 'ORDER.BUY.FAILURE', `No service "${parsed.data.service}"; choose ${SERVICES.map((s) => s.service).join(' or ')}`)
         order.buyKey = key ?? newId('buy')
@@ -250,7 +286,9 @@ export async function startCarrierFake(opts: { port: number; directory: string }
       }
 
       if (req.method === 'POST' && (m = /^\/v2\/shipments\/([\w-]+)\/refund$/.exec(url.pathname))) {
-        const shipment = Object.values(state.orders).flatMap((o) => o.shipments).find((s) => s.id === m![1])
+        const shipment = Object.values(state.orders)
+          .flatMap((o) => o.shipments)
+          .find((s) => s.id === m![1])
         if (!shipment) return refuse(res, 404, 'NOT_FOUND', 'The requested resource could not be found.')
         if (!shipment.tracking_code) return refuse(res, 422, 'SHIPMENT.REFUND.UNAVAILABLE', 'This shipment has no label to refund.')
         shipment.refund_status ??= 'submitted'
@@ -263,7 +301,15 @@ export async function startCarrierFake(opts: { port: number; directory: string }
         if (!parsed.success) return refuse(res, 422, 'PARAMETER.REQUIRED', 'Name the tracking code')
         const tracker = state.trackers[parsed.data.tracker.tracking_code]
         if (!tracker) return refuse(res, 422, 'TRACKER.CREATE.FAILURE', 'No parcel has that tracking code')
-        return send(res, 200, { id: `trk_${parsed.data.tracker.tracking_code}`, object: 'Tracker', tracking_code: parsed.data.tracker.tracking_code, carrier: STANDIN_CARRIER, status: tracker.status, tracking_details: tracker.details, updated_at: tracker.details.at(-1)?.datetime })
+        return send(res, 200, {
+          id: `trk_${parsed.data.tracker.tracking_code}`,
+          object: 'Tracker',
+          tracking_code: parsed.data.tracker.tracking_code,
+          carrier: STANDIN_CARRIER,
+          status: tracker.status,
+          tracking_details: tracker.details,
+          updated_at: tracker.details.at(-1)?.datetime,
+        })
       }
 
       return refuse(res, 404, 'NOT_FOUND', `The stand-in does not answer ${route}`)

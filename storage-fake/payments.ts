@@ -125,7 +125,9 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions) {
           .end(
             `<!doctype html><html lang="en"><head><meta charset="utf-8"><title>Pay ${amount}</title></head><body style="font-family:sans-serif;max-width:30rem;margin:3rem auto">` +
               `<h1>Payment stand-in</h1><p>Local stand-in for the payment service: no money moves.</p><p>${session.metadata.orderNumber ? `Order ${session.metadata.orderNumber}: ` : ''}${amount}</p>` +
-              (done ? '<p>Paid.</p>' : `<form method="post"><button type="submit" style="font-size:1.25rem;padding:.75rem 1.5rem">Pay ${amount}</button></form>`) +
+              (done
+                ? '<p>Paid.</p>'
+                : `<form method="post"><button type="submit" style="font-size:1.25rem;padding:.75rem 1.5rem">Pay ${amount}</button></form>`) +
               '</body></html>',
           )
       }
@@ -168,7 +170,13 @@ export async function startPaymentsFake(opts: PaymentsFakeOptions) {
     if (req.method === 'POST' && url.pathname === '/v1/checkout/sessions') {
       const key = req.headers['idempotency-key']
       if (typeof key === 'string' && store.keys[key]) return json(res, 200, store.sessions[store.keys[key]!])
-      const p = parseForm(body) as { line_items?: Record<string, { quantity?: string; price_data?: { currency?: string; unit_amount?: string } }>; customer_email?: string; client_reference_id?: string; metadata?: Record<string, string>; success_url?: string }
+      const p = parseForm(body) as {
+        line_items?: Record<string, { quantity?: string; price_data?: { currency?: string; unit_amount?: string } }>
+        customer_email?: string
+        client_reference_id?: string
+        metadata?: Record<string, string>
+        success_url?: string
+      }
       const items = Object.values(p.line_items ?? {})
       if (items.length === 0) return apiError(res, 400, 'line_items is required')
       const amount = items.reduce((s, i) => s + Number(i.price_data?.unit_amount ?? NaN) * Number(i.quantity ?? 1), 0)

@@ -55,7 +55,11 @@ export function createApp(deps: Deps) {
   const overHttps = helmet({ contentSecurityPolicy: { directives } })
   // Cross-Origin-Opener-Policy is honoured only on a trustworthy origin; over plain HTTP to a shop
   // address Chromium ignores it and logs an error on every page, so it is sent over HTTPS only.
-  const overHttp = helmet({ contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } }, strictTransportSecurity: false, crossOriginOpenerPolicy: false })
+  const overHttp = helmet({
+    contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } },
+    strictTransportSecurity: false,
+    crossOriginOpenerPolicy: false,
+  })
   app.use((req, res, next) => (req.secure ? overHttps : overHttp)(req, res, next))
   app.use(requestLogger(deps.logger))
   app.use(compressAnswers())
@@ -66,7 +70,41 @@ export function createApp(deps: Deps) {
   app.use('/api', benchActions(deps.db))
 
   // One line per feature router; each route inside declares who may call it.
-  const features = [healthRouter, authRouter, usersRouter, settingsRouter, auditRouter, scanRouter, partsRouter, kitsRouter, revisionsRouter, stockRouter, webhooksRouter, mailRouter, ordersRouter, orderPaymentsRouter, paymentsPublicRouter, cutRunsRouter, binsRouter, releaseRouter, shortagesRouter, buildRouter, buildLotsRouter, lotsRouter, unitsRouter, publicRecordRouter, packRouter, shipmentsRouter, customsRouter, reportsRouter, tabletsRouter, suppliersRouter, purchaseOrdersRouter, unitWeightsRouter, bagsRouter]
+  const features = [
+    healthRouter,
+    authRouter,
+    usersRouter,
+    settingsRouter,
+    auditRouter,
+    scanRouter,
+    partsRouter,
+    kitsRouter,
+    revisionsRouter,
+    stockRouter,
+    webhooksRouter,
+    mailRouter,
+    ordersRouter,
+    orderPaymentsRouter,
+    paymentsPublicRouter,
+    cutRunsRouter,
+    binsRouter,
+    releaseRouter,
+    shortagesRouter,
+    buildRouter,
+    buildLotsRouter,
+    lotsRouter,
+    unitsRouter,
+    publicRecordRouter,
+    packRouter,
+    shipmentsRouter,
+    customsRouter,
+    reportsRouter,
+    tabletsRouter,
+    suppliersRouter,
+    purchaseOrdersRouter,
+    unitWeightsRouter,
+    bagsRouter,
+  ]
   features.push(returnsRouter)
   for (const feature of features) {
     const { base, router } = feature(deps, routes)

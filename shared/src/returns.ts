@@ -98,8 +98,17 @@ export const DecideReturnSchema = z.discriminatedUnion(
     z
       .object({
         decision: z.literal('refund'),
-        amountCents: z.number({ error: 'Give the amount refunded' }).int('The amount is whole cents').min(0, 'The amount cannot be negative').max(100_000_000, 'That amount is too large'),
-        note: z.string({ error: 'Say how the store refunded it' }).trim().min(3, 'Say how the store refunded it (e.g. "refunded in the store, ref 5521")').max(1000, 'Use at most 1000 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only'),
+        amountCents: z
+          .number({ error: 'Give the amount refunded' })
+          .int('The amount is whole cents')
+          .min(0, 'The amount cannot be negative')
+          .max(100_000_000, 'That amount is too large'),
+        note: z
+          .string({ error: 'Say how the store refunded it' })
+          .trim()
+          .min(3, 'Say how the store refunded it (e.g. "refunded in the store, ref 5521")')
+          .max(1000, 'Use at most 1000 characters')
+          .regex(PRINTABLE, 'Use letters, digits and punctuation only'),
       })
       .strict(),
   ],
@@ -132,7 +141,14 @@ export type ReturnReasons = z.infer<typeof ReturnReasonsSchema>
 export const UpdateReturnReasonsSchema = z
   .object({
     reasons: z
-      .array(z.string({ error: 'A reason is text' }).trim().min(1, 'A reason cannot be blank').max(80, 'Use at most 80 characters').regex(PRINTABLE, 'Use letters, digits and punctuation only'))
+      .array(
+        z
+          .string({ error: 'A reason is text' })
+          .trim()
+          .min(1, 'A reason cannot be blank')
+          .max(80, 'Use at most 80 characters')
+          .regex(PRINTABLE, 'Use letters, digits and punctuation only'),
+      )
       .min(1, 'Keep at least one reason')
       .max(30, 'At most 30 reasons')
       .refine((list) => new Set(list.map((r) => r.toLowerCase())).size === list.length, 'Each reason once'),
@@ -201,11 +217,18 @@ export type ReturnListRow = z.infer<typeof ReturnRowSchema>
 /** The returns list: newest first. */
 export const ReturnListSchema = z.object({ returns: z.array(ReturnRowSchema) })
 /** Which returns to list. */
-export const ReturnListQuerySchema = z.object({ status: z.enum([...RETURN_STATUSES, 'undecided', 'all']).catch('all').default('all') })
+export const ReturnListQuerySchema = z.object({
+  status: z
+    .enum([...RETURN_STATUSES, 'undecided', 'all'])
+    .catch('all')
+    .default('all'),
+})
 
 /** Returns per kit revision and reason, for the owner. */
 export const ReturnSummarySchema = z.object({
-  rows: z.array(z.object({ kitSku: z.string(), kitName: z.string(), revisionCode: z.string(), reason: z.string(), returns: z.number().int(), shipped: z.number().int() })),
+  rows: z.array(
+    z.object({ kitSku: z.string(), kitName: z.string(), revisionCode: z.string(), reason: z.string(), returns: z.number().int(), shipped: z.number().int() }),
+  ),
   open: z.number().int(),
 })
 /** Returns per kit revision and reason. */

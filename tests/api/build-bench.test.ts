@@ -4,7 +4,18 @@ import { z } from 'zod'
 import { BuildPageSchema, MAX_PHOTO_BYTES, MeasurementFlagSchema, PresignedPhotoSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
-import { buildSteps, buildStepTicks, cutParts, cutRunCuts, cutRuns, cutRunSticks, leakTests, reworkEntries, unitPhotos, workOrders } from '../../server/src/db/schema/index'
+import {
+  buildSteps,
+  buildStepTicks,
+  cutParts,
+  cutRunCuts,
+  cutRuns,
+  cutRunSticks,
+  leakTests,
+  reworkEntries,
+  unitPhotos,
+  workOrders,
+} from '../../server/src/db/schema/index'
 import { buildApp, signedInAs, testStorageConfig } from '../support/app'
 import { insertBin, insertBuildRevision, insertBuildWorkOrder } from '../support/build-factories'
 import { insertPart } from '../support/factories'
@@ -75,7 +86,15 @@ describe('scanning a unit at the build bench', () => {
     expect(p.revision.code).toBe('A')
     expect(p.steps.map((x) => x.position)).toEqual([1, 2, 3, 4])
     expect(p.steps[1]!.caution).toBe('Wear eye protection. Clamp the manifold.')
-    expect(p.steps[0]).toMatchObject({ measurementRequired: true, measurementUnit: 'in', measurementMin: 17.75, measurementMax: 18.25, freeOrder: false, outOfLimitsRework: false, tick: null })
+    expect(p.steps[0]).toMatchObject({
+      measurementRequired: true,
+      measurementUnit: 'in',
+      measurementMin: 17.75,
+      measurementMax: 18.25,
+      freeOrder: false,
+      outOfLimitsRework: false,
+      tick: null,
+    })
     expect(p.leakTestProtocol).toEqual({ minPressurePa: 68_948, maxPressurePa: 137_895, holdMinutes: 10, maxDropPa: 3447, waterVolumeMl: 30_000 })
     expect(p.readiness).toEqual({ stepsLeft: 4, photosMissing: 1, leakTest: 'none', openRework: 0, lotsMissing: 0, ready: false })
   })
@@ -125,7 +144,13 @@ describe('ticking steps', () => {
     const s = await setUp()
     const p = page(await tick(s.assembler, s.wo.id, s.step(1), { measurement: 18 }))
     expect(p.workOrder.status).toBe('building')
-    expect(p.steps[0]!.tick).toMatchObject({ by: { id: s.assemblerUser.id, name: s.assemblerUser.name }, measurement: 18, outOfLimits: false, outOfLimitsReason: null, undoneAt: null })
+    expect(p.steps[0]!.tick).toMatchObject({
+      by: { id: s.assemblerUser.id, name: s.assemblerUser.name },
+      measurement: 18,
+      outOfLimits: false,
+      outOfLimitsReason: null,
+      undoneAt: null,
+    })
     expect(Date.now() - Date.parse(p.steps[0]!.tick!.at)).toBeLessThan(60_000)
     expect(await statusOf(s.wo.id)).toBe('building')
     expect(error(await tick(s.assembler, s.wo.id, s.step(1), { measurement: 18 }), 409).message).toMatch(/Step 1 is already ticked by/)
@@ -161,7 +186,9 @@ describe('ticking steps', () => {
     expect(error(await tick(s.assembler, s.wo.id, s.step(1), { measurement: 'wide' }), 400).fields).toHaveProperty('measurement')
     // 18-1/2 in against 17.75–18.25 in: outside, refused without a reason, and nothing recorded.
     const refused = error(await tick(s.assembler, s.wo.id, s.step(1), { measurement: '18 1/2' }), 400)
-    expect(refused.message).toBe('18.5 in is outside the limits of step 1 (17.75–18.25 in): measure again, or give a reason to record it (it is flagged to the planner)')
+    expect(refused.message).toBe(
+      '18.5 in is outside the limits of step 1 (17.75–18.25 in): measure again, or give a reason to record it (it is flagged to the planner)',
+    )
     expect(refused.fields).toEqual({ reason: 'Say why this out-of-limits value is recorded' })
     expect(error(await tick(s.assembler, s.wo.id, s.step(1), { measurement: '18 1/2', reason: '   ' }), 400).fields).toHaveProperty('reason')
     expect(await t.db.select().from(buildStepTicks).where(eq(buildStepTicks.workOrderId, s.wo.id))).toHaveLength(0)
@@ -175,7 +202,16 @@ describe('ticking steps', () => {
     const flags = await planner.get('/api/build/out-of-limits')
     expect(flags.status).toBe(200)
     expect(z.array(MeasurementFlagSchema).parse(flags.body)).toEqual([
-      expect.objectContaining({ serial: s.wo.serial, stepPosition: 1, measurement: 18.5, unit: 'in', min: 17.75, max: 18.25, reason: 'Tote bulges at the handle; planner knows', rework: false }),
+      expect.objectContaining({
+        serial: s.wo.serial,
+        stepPosition: 1,
+        measurement: 18.5,
+        unit: 'in',
+        min: 17.75,
+        max: 18.25,
+        reason: 'Tote bulges at the handle; planner knows',
+        rework: false,
+      }),
     ])
     for (const role of ['assembler', 'cutter', 'packer'] as const) {
       const { agent } = await signedInAs(app, t, role)
@@ -190,12 +226,17 @@ describe('ticking steps', () => {
 
   it('sends the unit to rework when its revision says so, until the step is undone and measured again', async () => {
     const s = await setUp()
-    await t.db.update(buildSteps).set({ outOfLimitsRework: true }).where(eq(buildSteps.id, s.step(1)))
+    await t.db
+      .update(buildSteps)
+      .set({ outOfLimitsRework: true })
+      .where(eq(buildSteps.id, s.step(1)))
     const refused = error(await tick(s.assembler, s.wo.id, s.step(1), { measurement: '17 1/2' }), 400)
     expect(refused.message).toMatch(/give a reason to record it \(the unit then goes to rework\)$/)
     const p = page(await tick(s.assembler, s.wo.id, s.step(1), { measurement: '17 1/2', reason: 'Wrong tote in the bin' }))
     expect(p.workOrder.status).toBe('rework')
-    expect(p.rework).toEqual([expect.objectContaining({ cause: 'measurement', reason: 'Step 1 measured 17.5 in, outside 17.75–18.25 in: Wrong tote in the bin', resolvedAt: null })])
+    expect(p.rework).toEqual([
+      expect.objectContaining({ cause: 'measurement', reason: 'Step 1 measured 17.5 in, outside 17.75–18.25 in: Wrong tote in the bin', resolvedAt: null }),
+    ])
     expect(p.readiness.openRework).toBe(1)
     expect(await statusOf(s.wo.id)).toBe('rework')
     // Work goes on meanwhile, but a passing leak test does not clear a measurement's rework.
@@ -218,7 +259,10 @@ describe('ticking steps', () => {
 
   it('takes the steps in order, except a step the revision marks free-order', async () => {
     const s = await setUp()
-    await t.db.update(buildSteps).set({ freeOrder: true }).where(eq(buildSteps.id, s.step(4)))
+    await t.db
+      .update(buildSteps)
+      .set({ freeOrder: true })
+      .where(eq(buildSteps.id, s.step(4)))
     const early = error(await tick(s.assembler, s.wo.id, s.step(2)), 409)
     expect(early.message).toBe('Steps go in order: do step 1 before step 2')
     expect(error(await tick(s.assembler, s.wo.id, s.step(3)), 409).message).toBe('Steps go in order: do steps 1, 2 before step 3')
@@ -320,7 +364,9 @@ describe('photos in S3', () => {
     expect(error(await s.assembler.post(`/api/build/${s.wo.id}/photos/confirm`).send({ key }), 400).message).toBe(
       'The photo is not in the store: the upload did not finish. Take the photo again.',
     )
-    expect(error(await s.assembler.post(`/api/build/${s.wo.id}/photos/confirm`).send({ key: 'photos/U-1/nothing.png' }), 400).message).toMatch(/No upload was presigned/)
+    expect(error(await s.assembler.post(`/api/build/${s.wo.id}/photos/confirm`).send({ key: 'photos/U-1/nothing.png' }), 400).message).toMatch(
+      /No upload was presigned/,
+    )
     // s3rver does not check the signed length, so the HEAD is what catches a different size here.
     const { presigned } = await uploadPhoto(s.assembler, s.wo.id, null, new Uint8Array(10))
     const other = await s.assembler.post(`/api/build/${s.wo.id}/photos/presign`).send({ contentType: 'image/jpeg', size: 99 })
@@ -366,7 +412,9 @@ describe('the leak test', () => {
     const none = error(await leakTest(s.assembler, s.wo.id, PASSING), 409)
     expect(none.message).toBe(`The leak test comes after every build step: tick steps 1, 2, 3, 4 of unit ${s.wo.serial} first`)
     await doAllSteps(s)
-    expect(error(await leakTest(s.assembler, s.wo.id, PASSING), 409).message).toBe(`The leak test comes after every build step: tick step 4 of unit ${s.wo.serial} first`)
+    expect(error(await leakTest(s.assembler, s.wo.id, PASSING), 409).message).toBe(
+      `The leak test comes after every build step: tick step 4 of unit ${s.wo.serial} first`,
+    )
     expect(await t.db.select().from(leakTests).where(eq(leakTests.workOrderId, s.wo.id))).toHaveLength(0)
     expect(await statusOf(s.wo.id)).toBe('building')
     page(await tick(s.assembler, s.wo.id, s.step(4)))
@@ -381,7 +429,14 @@ describe('the leak test', () => {
     const failed = page(await leakTest(s.assembler, s.wo.id, { ...PASSING, endPressure: 14.4, leaks: ['cord_hole'] }), 201)
     expect(failed.workOrder.status).toBe('rework')
     expect(failed.leakTests).toHaveLength(1)
-    expect(failed.leakTests[0]).toMatchObject({ attempt: 1, passed: false, startPressurePa: 103_421, endPressurePa: 99_285, dropPa: 4136, leaks: ['cord_hole'] })
+    expect(failed.leakTests[0]).toMatchObject({
+      attempt: 1,
+      passed: false,
+      startPressurePa: 103_421,
+      endPressurePa: 99_285,
+      dropPa: 4136,
+      leaks: ['cord_hole'],
+    })
     expect(failed.leakTests[0]!.reason).toBe('Pressure dropped 0.60 psi, more than the allowed 0.50 psi; Leak seen at: cord hole')
     expect(failed.rework).toHaveLength(1)
     expect(failed.rework[0]).toMatchObject({ reason: `Leak test 1 failed: ${failed.leakTests[0]!.reason}`, cause: 'leak_test', resolvedAt: null })
@@ -401,7 +456,10 @@ describe('the leak test', () => {
     expect(rows.map((r) => r.attempt).sort()).toEqual([1, 2])
     const [firstAttempt] = rows.filter((r) => r.attempt === 1)
     expect(firstAttempt!.passed).toBe(false)
-    const open = await t.db.select().from(reworkEntries).where(and(eq(reworkEntries.workOrderId, s.wo.id)))
+    const open = await t.db
+      .select()
+      .from(reworkEntries)
+      .where(and(eq(reworkEntries.workOrderId, s.wo.id)))
     expect(open.every((r) => r.resolvedAt !== null)).toBe(true)
   })
 
@@ -477,19 +535,51 @@ describe('the build record', () => {
   it('names the stick and cut run each pipe piece came from', async () => {
     const s = await setUp()
     const pipe = await insertPart(t.db, { kind: 'stock_length', stickLengths: [inches(120)], nominalSize: '1/2 in' })
-    const [part] = await t.db.insert(cutParts).values({ revisionId: s.revision.id, partId: pipe.id, label: 'long side', length: inches(20), quantity: 2, position: 1 }).returning()
+    const [part] = await t.db
+      .insert(cutParts)
+      .values({ revisionId: s.revision.id, partId: pipe.id, label: 'long side', length: inches(20), quantity: 2, position: 1 })
+      .returning()
     const [run] = await t.db
       .insert(cutRuns)
       .values({ number: 'CR-0042', status: 'published', kerf: inches(1 / 8), endTrim: inches(1 / 4), minOffcut: inches(6), planStatus: 'optimal' })
       .returning()
     const [stick] = await t.db
       .insert(cutRunSticks)
-      .values({ cutRunId: run!.id, partId: pipe.id, stickLength: inches(120), length: inches(120), patternIndex: 0, position: 3, remnant: inches(79), remnantIsOffcut: true })
+      .values({
+        cutRunId: run!.id,
+        partId: pipe.id,
+        stickLength: inches(120),
+        length: inches(120),
+        patternIndex: 0,
+        position: 3,
+        remnant: inches(79),
+        remnantIsOffcut: true,
+      })
       .returning()
     const cutter = await signedInAs(app, t, 'cutter')
     await t.db.insert(cutRunCuts).values([
-      { cutRunId: run!.id, stickId: stick!.id, position: 1, offset: inches(1 / 4), length: inches(20), workOrderId: s.wo.id, cutPartId: part!.id, status: 'cut', cutBy: cutter.user.id, cutAt: new Date() },
-      { cutRunId: run!.id, stickId: stick!.id, position: 2, offset: inches(20.375), length: inches(20), workOrderId: s.wo.id, cutPartId: part!.id, status: 'replanned' },
+      {
+        cutRunId: run!.id,
+        stickId: stick!.id,
+        position: 1,
+        offset: inches(1 / 4),
+        length: inches(20),
+        workOrderId: s.wo.id,
+        cutPartId: part!.id,
+        status: 'cut',
+        cutBy: cutter.user.id,
+        cutAt: new Date(),
+      },
+      {
+        cutRunId: run!.id,
+        stickId: stick!.id,
+        position: 2,
+        offset: inches(20.375),
+        length: inches(20),
+        workOrderId: s.wo.id,
+        cutPartId: part!.id,
+        status: 'replanned',
+      },
     ])
     // Scanning the unit's bin opens the same record.
     const bin = await insertBin(t.db, s.wo.id)

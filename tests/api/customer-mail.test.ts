@@ -101,14 +101,30 @@ function error(res: { status: number; body: unknown }, status: number) {
   return ApiErrorBodySchema.parse(res.body).error
 }
 
-const SHIP_FROM = { name: 'Mistwell Tote Works', line1: '12 Foundry Lane, Unit 4', line2: null, city: 'Millbrook Falls', region: 'OR', postalCode: '97001', country: 'US', phone: '555-0100' }
+const SHIP_FROM = {
+  name: 'Mistwell Tote Works',
+  line1: '12 Foundry Lane, Unit 4',
+  line2: null,
+  city: 'Millbrook Falls',
+  region: 'OR',
+  postalCode: '97001',
+  country: 'US',
+  phone: '555-0100',
+}
 
 describe('the shop identity in the settings', () => {
   it('shows the owner the demo shop’s sender, reply-to, ship-from and the public address from PUBLIC_URL', async () => {
     const res = await admin.get('/api/settings/identity')
     expect(res.status).toBe(200)
     const identity = ShopIdentitySchema.parse(res.body)
-    expect(identity).toEqual({ shopName: 'Mistwell Tote Works', ...DEMO_MAIL_IDENTITY, shipFrom: SHIP_FROM, carrierName: 'Brindlepost', publicUrl: PUBLIC_URL, mailFromFallback: FALLBACK_FROM })
+    expect(identity).toEqual({
+      shopName: 'Mistwell Tote Works',
+      ...DEMO_MAIL_IDENTITY,
+      shipFrom: SHIP_FROM,
+      carrierName: 'Brindlepost',
+      publicUrl: PUBLIC_URL,
+      mailFromFallback: FALLBACK_FROM,
+    })
     expect((await planner.get('/api/settings/identity')).status).toBe(403)
     expect((await planner.put('/api/settings/identity').send({ ...identity })).status).toBe(403)
   })
@@ -123,7 +139,9 @@ describe('the shop identity in the settings', () => {
       expect(ShopIdentitySchema.parse((await admin.put('/api/settings/identity').send(withoutCarrier)).body).carrierName).toBe('Harrowgate Freight')
       const [entry] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity')).orderBy(desc(auditEvents.at)).limit(1)
       expect(entry!.summary).toContain('carrier')
-      expect(error(await admin.put('/api/settings/identity').send({ ...update, carrierName: 'Two\nlines' }), 400).fields).toMatchObject({ carrierName: 'Keep the carrier name on one line' })
+      expect(error(await admin.put('/api/settings/identity').send({ ...update, carrierName: 'Two\nlines' }), 400).fields).toMatchObject({
+        carrierName: 'Keep the carrier name on one line',
+      })
     } finally {
       await admin.put('/api/settings/identity').send(update)
     }
@@ -164,7 +182,11 @@ describe('the shop identity in the settings', () => {
     }
     const res = await admin.put('/api/settings/identity').send(change)
     expect(res.status, JSON.stringify(res.body)).toBe(200)
-    expect(ShopIdentitySchema.parse(res.body)).toMatchObject({ mailFromName: 'Ada at Mistwell', mailFromAddress: 'hello@mistwell.example', replyToAddress: 'ada.workbench@mistwell.example' })
+    expect(ShopIdentitySchema.parse(res.body)).toMatchObject({
+      mailFromName: 'Ada at Mistwell',
+      mailFromAddress: 'hello@mistwell.example',
+      replyToAddress: 'ada.workbench@mistwell.example',
+    })
     const [audit] = await t.db.select().from(auditEvents).where(eq(auditEvents.action, 'settings.identity')).orderBy(desc(auditEvents.at)).limit(1)
     expect(audit?.summary).toBe("Changed the shop's identity: sender name, sender e-mail, reply-to e-mail, ship-from address")
     expect(audit?.data).toMatchObject({
@@ -193,7 +215,10 @@ describe('every link in every e-mail starts with the public address', () => {
     const { order, units } = await insertPackOrder(t.db, lines)
     let v: PackView = PackViewSchema.parse((await packer.get('/api/pack/lookup').query({ code: units[0]!.binCode ?? units[0]!.wo.serial })).body)
     for (const item of v.items) {
-      const res = item.kind === 'unit' ? await packer.post(`/api/pack/orders/${order.id}/scan`).send({ code: item.binCode ?? item.serial }) : await packer.post(`/api/pack/orders/${order.id}/tick`).send({ itemKey: item.key })
+      const res =
+        item.kind === 'unit'
+          ? await packer.post(`/api/pack/orders/${order.id}/scan`).send({ code: item.binCode ?? item.serial })
+          : await packer.post(`/api/pack/orders/${order.id}/tick`).send({ itemKey: item.key })
       expect(res.status, JSON.stringify(res.body)).toBe(200)
       v = PackViewSchema.parse(res.body)
     }
@@ -238,7 +263,13 @@ describe('every link in every e-mail starts with the public address', () => {
     // Cancelled by the store's event.
     await deliver(built.app, paidEvent('MW-LNK-3003'))
     await sentMail('MW-LNK-3003', 'order_received')
-    await deliver(built.app, { eventId: 'evt-cancel-lnk-3003', type: 'order.cancelled', occurredAt: new Date().toISOString(), orderNumber: 'MW-LNK-3003', reason: 'Payment disputed' })
+    await deliver(built.app, {
+      eventId: 'evt-cancel-lnk-3003',
+      type: 'order.cancelled',
+      occurredAt: new Date().toISOString(),
+      orderNumber: 'MW-LNK-3003',
+      reason: 'Payment disputed',
+    })
     kinds.push({ what: 'cancelled by the store', mail: (await sentMail('MW-LNK-3003', 'order_cancelled')).parsed })
 
     let links = 0
@@ -279,11 +310,18 @@ describe('the cancellation e-mail', () => {
       return event?.processedAt ?? undefined
     })
     await waitForQueueIdle(t.db) // every job done: a stray second send would have landed by now
-    const rows = await t.db.select().from(mailMessages).where(and(eq(mailMessages.orderId, order!.id), eq(mailMessages.purpose, 'order_cancelled')))
+    const rows = await t.db
+      .select()
+      .from(mailMessages)
+      .where(and(eq(mailMessages.orderId, order!.id), eq(mailMessages.purpose, 'order_cancelled')))
     expect(rows).toHaveLength(1)
     expect((await caught(row.to)).filter((m) => m.subject?.includes('is cancelled'))).toHaveLength(1)
     const outbox = await planner.get('/api/mail').query({ pageSize: 100 })
-    expect(outbox.body.items.filter((m: { purpose: string; order: { number: string } | null }) => m.purpose === 'order_cancelled' && m.order?.number === 'MW-CXL-4001')).toHaveLength(1)
+    expect(
+      outbox.body.items.filter(
+        (m: { purpose: string; order: { number: string } | null }) => m.purpose === 'order_cancelled' && m.order?.number === 'MW-CXL-4001',
+      ),
+    ).toHaveLength(1)
     const detail = OrderDetailSchema.parse((await planner.get(`/api/orders/${order!.id}`)).body)
     const mailEvents = detail.events.filter((e) => (e.kind === 'mail_queued' || e.kind === 'mail_sent') && e.message.includes('is cancelled'))
     expect(mailEvents.map((e) => e.kind).sort()).toEqual(['mail_queued', 'mail_sent'])

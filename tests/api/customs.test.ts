@@ -42,21 +42,31 @@ function view(res: { status: number; body: unknown }, status = 200): PackView {
 async function confirmAll(orderId: string): Promise<PackView> {
   let v = view(await packer.get(`/api/pack/orders/${orderId}`))
   for (const item of v.items) {
-    v = view(item.kind === 'unit' ? await packer.post(`/api/pack/orders/${orderId}/scan`).send({ code: item.binCode ?? item.serial }) : await packer.post(`/api/pack/orders/${orderId}/tick`).send({ itemKey: item.key }))
+    v = view(
+      item.kind === 'unit'
+        ? await packer.post(`/api/pack/orders/${orderId}/scan`).send({ code: item.binCode ?? item.serial })
+        : await packer.post(`/api/pack/orders/${orderId}/tick`).send({ itemKey: item.key }),
+    )
   }
   return v
 }
 
 async function buyLabel(orderId: string, parcelsIn: { workOrderIds: string[]; boxId: string }[]): Promise<PackView> {
-  return view(await packer.post(`/api/pack/orders/${orderId}/label`).send({ service: 'ground', parcels: parcelsIn.map((p) => ({ ...p, scaleGrams: null })) }), 201)
+  return view(
+    await packer.post(`/api/pack/orders/${orderId}/label`).send({ service: 'ground', parcels: parcelsIn.map((p) => ({ ...p, scaleGrams: null })) }),
+    201,
+  )
 }
 
 async function pdf(url: string) {
-  const res = await packer.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = []
-    r.on('data', (c: Buffer) => chunks.push(c))
-    r.on('end', () => cb(null, Buffer.concat(chunks)))
-  })
+  const res = await packer
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = []
+      r.on('data', (c: Buffer) => chunks.push(c))
+      r.on('end', () => cb(null, Buffer.concat(chunks)))
+    })
   expect(res.status, String(res.body)).toBe(200)
   expect(res.headers['content-type']).toBe('application/pdf')
   return res.body as Buffer
@@ -80,18 +90,28 @@ function saveShots(bytes: Buffer, name: string) {
 describe('a US → Canada shipment', () => {
   it('gets a CN 23 with every part line and its totals, printed with the label', async () => {
     // Four spare cup-and-collar packs at $79.00 and two spare sprayer packs at $39.50, to Toronto.
-    const { order, units } = await insertPackOrder(t.db, [{ kitSku: 'MW-SPARE-CUP12', quantity: 4 }, { kitSku: 'MW-SPARE-SPR6', quantity: 2 }])
-    await t.db.update(orders).set({
-      shipName: 'Noor Vantreight',
-      shipLine1: '41 Quillfeather Row',
-      shipCity: 'Toronto',
-      shipRegion: 'ON',
-      shipPostalCode: 'M5V 2T6',
-      shipCountry: 'CA',
-      currency: 'USD',
-    }).where(eq(orders.id, order.id))
+    const { order, units } = await insertPackOrder(t.db, [
+      { kitSku: 'MW-SPARE-CUP12', quantity: 4 },
+      { kitSku: 'MW-SPARE-SPR6', quantity: 2 },
+    ])
+    await t.db
+      .update(orders)
+      .set({
+        shipName: 'Noor Vantreight',
+        shipLine1: '41 Quillfeather Row',
+        shipCity: 'Toronto',
+        shipRegion: 'ON',
+        shipPostalCode: 'M5V 2T6',
+        shipCountry: 'CA',
+        currency: 'USD',
+      })
+      .where(eq(orders.id, order.id))
     const lines = await t.db.select().from(orderLines).where(eq(orderLines.orderId, order.id))
-    for (const l of lines) await t.db.update(orderLines).set({ unitPriceCents: l.sku === 'MW-SPARE-CUP12' ? 7900 : 3950 }).where(eq(orderLines.id, l.id))
+    for (const l of lines)
+      await t.db
+        .update(orderLines)
+        .set({ unitPriceCents: l.sku === 'MW-SPARE-CUP12' ? 7900 : 3950 })
+        .where(eq(orderLines.id, l.id))
 
     const v = await confirmAll(order.id)
     expect(v.blockers).toEqual([])
@@ -108,7 +128,12 @@ describe('a US → Canada shipment', () => {
     // to 300 SDR; 300 SDR × 1.30 USD/SDR (fixed figure, from memory) = 390.00 USD < 395.00 → CN 23.
     // Net weight by hand (demo part weights): a cup pack = 12 net cups × 6 g + 12 collars × 3 g = 72 + 36 = 108 g;
     // a sprayer pack = 6 sprayers × 4 g = 24 g; 4 × 108 + 2 × 24 = 432 + 48 = 480 g. The bags are packaging, not declared.
-    expect(summary).toMatchObject({ required: true, ready: true, currency: 'USD', parcels: [{ position: 1, form: 'CN 23', valueCents: 39_500, netGrams: 480 }] })
+    expect(summary).toMatchObject({
+      required: true,
+      ready: true,
+      currency: 'USD',
+      parcels: [{ position: 1, form: 'CN 23', valueCents: 39_500, netGrams: 480 }],
+    })
 
     const bytes = await pdf(`/api/shipments/${labelled.shipment!.id}/customs-declaration.pdf`)
     saveShots(bytes, 'customs-cn23')
@@ -125,15 +150,22 @@ describe('a US → Canada shipment', () => {
       'CANADA',
       'Sale of goods',
       `order ${order.number}`,
-      'Sender\'s signature',
-    ]) expect(flat).toContain(s)
+      "Sender's signature",
+    ])
+      expect(flat).toContain(s)
     const [parcel] = await t.db.select().from(parcels).where(eq(parcels.shipmentId, labelled.shipment!.id))
     expect(flat).toContain(`tracking ${parcel!.trackingNumber ?? labelled.shipment!.trackingNumber}`)
     // Each line's value by hand: a cup pack's 79.00 split by the parts' cost, cups 12 × 0.12 = 1.44 and collars
     // 12 × 0.15 = 1.80 of 3.24: cups 7900 × 1.44 / 3.24 = 3511.11 → 3511 cents, collars 4388.89 → 4389 (the cent
     // left over goes to the larger remainder, 0.89); × 4 packs: cups 140.44, collars 175.56. Sprayers: 2 × 39.50 = 79.00.
     // Rows: description (SKU), quantity, net kg, value, HS code, origin.
-    const row = (description: string) => page!.split('\n').find((l) => l.includes(description))?.trim().split(/\s{2,}|\s(?=\d)/).slice(-5)
+    const row = (description: string) =>
+      page!
+        .split('\n')
+        .find((l) => l.includes(description))
+        ?.trim()
+        .split(/\s{2,}|\s(?=\d)/)
+        .slice(-5)
     expect(row('Plastic net cup for plants')).toEqual(['48', '0.288', '140.44', '3926.90', 'CN'])
     expect(row('Plastic foam plant collar')).toEqual(['48', '0.144', '175.56', '3926.90', 'CN'])
     expect(row('Plastic misting nozzle')).toEqual(['12', '0.048', '79.00', '8424.90', 'CN'])
@@ -151,7 +183,9 @@ describe('a US → Canada shipment', () => {
     try {
       const v = await confirmAll(order.id)
       expect(v.canLabel).toBe(false)
-      expect(v.blockers).toContainEqual(`This shipment goes abroad and needs a customs declaration: ${DEMO_PART_SKUS.sprayer} (360° misting sprayer, threaded) has no HS code and no country of origin. A planner sets them on the part (Catalog → Parts)`)
+      expect(v.blockers).toContainEqual(
+        `This shipment goes abroad and needs a customs declaration: ${DEMO_PART_SKUS.sprayer} (360° misting sprayer, threaded) has no HS code and no country of origin. A planner sets them on the part (Catalog → Parts)`,
+      )
     } finally {
       await t.db.update(parts).set({ hsCode: '842490', originCountry: 'CN' }).where(eq(parts.sku, DEMO_PART_SKUS.sprayer))
     }
@@ -208,7 +242,16 @@ describe('a two-parcel shipment', () => {
 })
 
 describe('customs facts on parts', () => {
-  const pump = { sku: 'PMP-TEST-CUSTOMS', name: 'Test pump', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 2450, weightGrams: 1200, reorderPoint: 0, reorderQuantity: 0 }
+  const pump = {
+    sku: 'PMP-TEST-CUSTOMS',
+    name: 'Test pump',
+    kind: 'hardware',
+    unitOfMeasure: 'each',
+    unitCostCents: 2450,
+    weightGrams: 1200,
+    reorderPoint: 0,
+    reorderQuantity: 0,
+  }
 
   it('refuses a bad HS code or origin ZZ with a clear message and writes nothing', async () => {
     const bad = await planner.post('/api/parts').send({ ...pump, hsCode: '8413.7', originCountry: 'ZZ' })
@@ -220,7 +263,9 @@ describe('customs facts on parts', () => {
     })
     expect(await t.db.select().from(parts).where(eq(parts.sku, pump.sku))).toEqual([])
 
-    const made = await planner.post('/api/parts').send({ ...pump, hsCode: '8413.70', originCountry: 'cn', customsDescription: 'Submersible electric water pump' })
+    const made = await planner
+      .post('/api/parts')
+      .send({ ...pump, hsCode: '8413.70', originCountry: 'cn', customsDescription: 'Submersible electric water pump' })
     expect(made.status, JSON.stringify(made.body)).toBe(201)
     const part = PartSchema.parse(made.body)
     expect(part).toMatchObject({ hsCode: '841370', originCountry: 'CN', customsDescription: 'Submersible electric water pump' })
@@ -236,11 +281,20 @@ describe('customs facts on parts', () => {
     const header = csv.replace(/^\uFEFF/, '').split('\r\n')[0]!
     expect(header).toContain('hs_code,origin_country,customs_description')
     expect(csv).toMatch(/PMP-400-GPH,.*8413\.70,CN,Submersible electric water pump/)
-    const file = ['sku,name,kind,unit_cost,weight_g,hs_code,origin_country', 'CSV-OK-1,Fine part,hardware,1.00,10,3917.40,US', 'CSV-BAD-2,Bad origin,hardware,1.00,10,3917.40,ZZ'].join('\n')
+    const file = [
+      'sku,name,kind,unit_cost,weight_g,hs_code,origin_country',
+      'CSV-OK-1,Fine part,hardware,1.00,10,3917.40,US',
+      'CSV-BAD-2,Bad origin,hardware,1.00,10,3917.40,ZZ',
+    ].join('\n')
     const res = await planner.post('/api/parts/import').send({ csv: file })
     expect(res.status).toBe(400)
     const e = ApiErrorBodySchema.parse(res.body).error
     expect(e.message).toMatch(/^Nothing was imported: row 3: "ZZ" is not an ISO 3166-1 country code/)
-    expect(await t.db.select().from(parts).where(inArray(parts.sku, ['CSV-OK-1', 'CSV-BAD-2']))).toEqual([])
+    expect(
+      await t.db
+        .select()
+        .from(parts)
+        .where(inArray(parts.sku, ['CSV-OK-1', 'CSV-BAD-2'])),
+    ).toEqual([])
   })
 })

@@ -74,7 +74,9 @@ async function knownValues({ t, cookies }: Lane): Promise<KnownValues> {
   )
   const ids: string[] = []
   for (const { name } of tables) ids.push(...(await t.pool.query<{ id: string }>(`select id from ${name} limit 8`)).rows.map((r) => r.id))
-  const fuzzers = (await t.pool.query<{ id: string }>('select id from users where role = any($1) order by created_at desc limit 5', [mine])).rows.map((r) => r.id)
+  const fuzzers = (await t.pool.query<{ id: string }>('select id from users where role = any($1) order by created_at desc limit 5', [mine])).rows.map(
+    (r) => r.id,
+  )
   const codes = (
     await t.pool.query<{ code: string }>(
       `(select serial as code from work_orders limit 10) union all (select code from bins limit 5) union all (select number from orders limit 10)
@@ -105,86 +107,105 @@ interface Outcome {
 }
 
 describe('fuzzing every JSON endpoint from the route table', () => {
-  it(`answers ${TOTAL.toLocaleString('en-US')}+ generated requests with no 5xx, the error shape on every 4xx, and no row changed by a rejection`, { timeout: 300_000 }, async () => {
-    const vocab = await loadVocabulary()
-    const routes = lanes[0]!.built.routes.records
-    const perRoute = Math.ceil(TOTAL / routes.length)
-    const byStatus = new Map<number, number>()
-    const byCaller = new Map<string, number>()
-    const failures: string[] = []
-    const timings: [string, number][] = []
-    const cpu = process.cpuUsage()
-    let sent = 0
-    const started = Date.now()
+  it(
+    `answers ${TOTAL.toLocaleString('en-US')}+ generated requests with no 5xx, the error shape on every 4xx, and no row changed by a rejection`,
+    { timeout: 300_000 },
+    async () => {
+      const vocab = await loadVocabulary()
+      const routes = lanes[0]!.built.routes.records
+      const perRoute = Math.ceil(TOTAL / routes.length)
+      const byStatus = new Map<number, number>()
+      const byCaller = new Map<string, number>()
+      const failures: string[] = []
+      const timings: [string, number][] = []
+      const cpu = process.cpuUsage()
+      let sent = 0
+      const started = Date.now()
 
-    async function runLane(lane: Lane, index: number) {
-      const { server, cookies } = lane
-      const arb = fuzzArbitraries(vocab, await knownValues(lane))
-      const probe = await installRowChangeCounter(lane.t.pool)
-      let counts = await probe.read()
-      for (const [i, route] of routes.entries()) {
-        if (i % LANES !== index) continue
-        const id = `${route.method} ${route.path}`
-        const params = route.path.match(/:[a-zA-Z]+/g) ?? []
-        const others = allowedRoles(route).filter((r) => r !== 'admin')
-        const caller = fc.oneof({ weight: Math.max(2, others.length * 2), arbitrary: fc.constant<Role>('admin') }, ...others.map((r) => ({ weight: 1, arbitrary: fc.constant<Role>(r) })))
-        const payload = route.method === 'get' ? fc.constant(undefined) : fc.oneof(
-          { weight: 9, arbitrary: arb.body.map((b) => ({ json: b })) },
-          { weight: 1, arbitrary: arb.rawBody.map((raw) => ({ raw })) },
-        )
-        const input = fc.record({ caller, params: fc.tuple(...params.map(() => arb.param)), query: arb.query, payload })
+      async function runLane(lane: Lane, index: number) {
+        const { server, cookies } = lane
+        const arb = fuzzArbitraries(vocab, await knownValues(lane))
+        const probe = await installRowChangeCounter(lane.t.pool)
+        let counts = await probe.read()
+        for (const [i, route] of routes.entries()) {
+          if (i % LANES !== index) continue
+          const id = `${route.method} ${route.path}`
+          const params = route.path.match(/:[a-zA-Z]+/g) ?? []
+          const others = allowedRoles(route).filter((r) => r !== 'admin')
+          const caller = fc.oneof(
+            { weight: Math.max(2, others.length * 2), arbitrary: fc.constant<Role>('admin') },
+            ...others.map((r) => ({ weight: 1, arbitrary: fc.constant<Role>(r) })),
+          )
+          const payload =
+            route.method === 'get'
+              ? fc.constant(undefined)
+              : fc.oneof({ weight: 9, arbitrary: arb.body.map((b) => ({ json: b })) }, { weight: 1, arbitrary: arb.rawBody.map((raw) => ({ raw })) })
+          const input = fc.record({ caller, params: fc.tuple(...params.map(() => arb.param)), query: arb.query, payload })
 
-        const routeStarted = Date.now()
-        const result = await fc.check(
-          fc.asyncProperty(input, async ({ caller, params: values, query, payload }) => {
-            let k = 0
-            const path = route.path.replace(/:[a-zA-Z]+/g, () => encodeParam(String(values[k++])))
-            // The counts after the last request are the counts before this one: nothing else writes meanwhile.
-            const before = counts
-            let req = request(server)[route.method](path).query(query).set('Cookie', cookies.get(caller)!)
-            let res: Outcome
-            if (payload === undefined) res = await req
-            else {
-              const text = 'json' in payload ? JSON.stringify(payload.json) ?? 'null' : payload.raw
-              req = req.set('Content-Type', 'json' in payload || text.startsWith('{') ? 'application/json' : 'text/plain')
-              if (id === SIGNED_ROUTE) {
-                const ts = Math.floor(Date.now() / 1000)
-                req = req.set('X-Store-Timestamp', String(ts)).set('X-Store-Signature', signStoreDelivery(TEST_STORE_SECRET, ts, text))
+          const routeStarted = Date.now()
+          const result = await fc.check(
+            fc.asyncProperty(input, async ({ caller, params: values, query, payload }) => {
+              let k = 0
+              const path = route.path.replace(/:[a-zA-Z]+/g, () => encodeParam(String(values[k++])))
+              // The counts after the last request are the counts before this one: nothing else writes meanwhile.
+              const before = counts
+              let req = request(server)[route.method](path).query(query).set('Cookie', cookies.get(caller)!)
+              let res: Outcome
+              if (payload === undefined) res = await req
+              else {
+                const text = 'json' in payload ? (JSON.stringify(payload.json) ?? 'null') : payload.raw
+                req = req.set('Content-Type', 'json' in payload || text.startsWith('{') ? 'application/json' : 'text/plain')
+                if (id === SIGNED_ROUTE) {
+                  const ts = Math.floor(Date.now() / 1000)
+                  req = req.set('X-Store-Timestamp', String(ts)).set('X-Store-Signature', signStoreDelivery(TEST_STORE_SECRET, ts, text))
+                }
+                res = await req.send(text)
               }
-              res = await req.send(text)
-            }
-            sent++
-            counts = await probe.read()
-            byStatus.set(res.status, (byStatus.get(res.status) ?? 0) + 1)
-            byCaller.set(caller, (byCaller.get(caller) ?? 0) + 1)
-            if (res.status >= 500) throw new Error(`${res.status} ${JSON.stringify(res.body)}`)
-            if (res.status >= 400) {
-              const shape = ApiErrorBodySchema.safeParse(res.body)
-              if (!shape.success || !/json/.test(res.headers['content-type'] ?? '')) throw new Error(`${res.status} without the error shape: ${JSON.stringify(res.body).slice(0, 200)}`)
-              const changed = changedTables(before, counts).filter((tbl) => !(id === SIGN_IN && SIGN_IN_RECORDS.has(tbl)))
-              if (changed.length > 0) throw new Error(`${res.status} (${shape.data.error.code}) but rows changed in ${changed.join(', ')}`)
-            }
-          }),
-          { numRuns: perRoute, seed: SEED + i, endOnFailure: false, maxSkipsPerRun: 0 },
-        )
-        timings.push([id, Date.now() - routeStarted])
-        if (result.failed) failures.push(`${route.method.toUpperCase()} ${route.path}: ${String(result.errorInstance ?? '').slice(0, 400)}\n    counterexample: ${JSON.stringify(result.counterexample).slice(0, 400)}`)
+              sent++
+              counts = await probe.read()
+              byStatus.set(res.status, (byStatus.get(res.status) ?? 0) + 1)
+              byCaller.set(caller, (byCaller.get(caller) ?? 0) + 1)
+              if (res.status >= 500) throw new Error(`${res.status} ${JSON.stringify(res.body)}`)
+              if (res.status >= 400) {
+                const shape = ApiErrorBodySchema.safeParse(res.body)
+                if (!shape.success || !/json/.test(res.headers['content-type'] ?? ''))
+                  throw new Error(`${res.status} without the error shape: ${JSON.stringify(res.body).slice(0, 200)}`)
+                const changed = changedTables(before, counts).filter((tbl) => !(id === SIGN_IN && SIGN_IN_RECORDS.has(tbl)))
+                if (changed.length > 0) throw new Error(`${res.status} (${shape.data.error.code}) but rows changed in ${changed.join(', ')}`)
+              }
+            }),
+            { numRuns: perRoute, seed: SEED + i, endOnFailure: false, maxSkipsPerRun: 0 },
+          )
+          timings.push([id, Date.now() - routeStarted])
+          if (result.failed)
+            failures.push(
+              `${route.method.toUpperCase()} ${route.path}: ${String(result.errorInstance ?? '').slice(0, 400)}\n    counterexample: ${JSON.stringify(result.counterexample).slice(0, 400)}`,
+            )
+        }
       }
-    }
-    await Promise.all(lanes.map(runLane))
+      await Promise.all(lanes.map(runLane))
 
-    const seconds = (Date.now() - started) / 1000
-    const statuses = [...byStatus].sort(([a], [b]) => a - b).map(([s, n]) => `${s}×${n}`).join(' ')
-    const callers = [...byCaller].map(([c, n]) => `${c} ${n}`).join(', ')
-    console.log(`[fuzz] ${sent} requests to ${routes.length} routes over ${LANES} lanes in ${seconds.toFixed(1)} s (${(sent / seconds).toFixed(0)}/s); by status: ${statuses}; by role: ${callers}; ${failures.length} routes failed`)
-    const slowest = timings.sort((a, b) => b[1] - a[1]).slice(0, 5).map(([r, ms]) => `${r} ${(ms / 1000).toFixed(1)} s`)
-    const cpuSeconds = (process.cpuUsage(cpu).user + process.cpuUsage(cpu).system) / 1e6
-    console.log(`[fuzz] test process CPU ${cpuSeconds.toFixed(1)} s of ${seconds.toFixed(1)} s; slowest routes: ${slowest.join('; ')}`)
-    if (failures.length > 0) console.log(`[fuzz] failures:\n${failures.join('\n')}`)
-    expect(failures).toEqual([])
-    expect(sent).toBeGreaterThanOrEqual(TOTAL)
-    expect(byCaller.size, 'every role took part').toBe(ROLES.length)
-  })
+      const seconds = (Date.now() - started) / 1000
+      const statuses = [...byStatus]
+        .sort(([a], [b]) => a - b)
+        .map(([s, n]) => `${s}×${n}`)
+        .join(' ')
+      const callers = [...byCaller].map(([c, n]) => `${c} ${n}`).join(', ')
+      console.log(
+        `[fuzz] ${sent} requests to ${routes.length} routes over ${LANES} lanes in ${seconds.toFixed(1)} s (${(sent / seconds).toFixed(0)}/s); by status: ${statuses}; by role: ${callers}; ${failures.length} routes failed`,
+      )
+      const slowest = timings
+        .sort((a, b) => b[1] - a[1])
+        .slice(0, 5)
+        .map(([r, ms]) => `${r} ${(ms / 1000).toFixed(1)} s`)
+      const cpuSeconds = (process.cpuUsage(cpu).user + process.cpuUsage(cpu).system) / 1e6
+      console.log(`[fuzz] test process CPU ${cpuSeconds.toFixed(1)} s of ${seconds.toFixed(1)} s; slowest routes: ${slowest.join('; ')}`)
+      if (failures.length > 0) console.log(`[fuzz] failures:\n${failures.join('\n')}`)
+      expect(failures).toEqual([])
+      expect(sent).toBeGreaterThanOrEqual(TOTAL)
+      expect(byCaller.size, 'every role took part').toBe(ROLES.length)
+    },
+  )
 
   it('answers a body over the 1 MB limit on every route that takes one with 413 in the error shape, and writes nothing', async () => {
     const { t, built, server, cookies } = lanes[0]!
@@ -193,10 +214,11 @@ describe('fuzzing every JSON endpoint from the route table', () => {
     const writes = built.routes.records.filter((r) => r.method !== 'get')
     for (const route of writes) {
       const before = await probe.read()
-      const res = await request(server)[route.method](route.path.replace(
-        /:[a-zA-Z]+/g,
-        '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11',
-      )).set('Cookie', cookies.get('admin')!).set('Content-Type', 'application/json').send(huge)
+      const res = await request(server)
+        [route.method](route.path.replace(/:[a-zA-Z]+/g, '6f1c2a52-8d1e-4c55-9a55-0d1f6f3e2b11'))
+        .set('Cookie', cookies.get('admin')!)
+        .set('Content-Type', 'application/json')
+        .send(huge)
       expect(res.status, `${route.method} ${route.path}`).toBe(413)
       expect(ApiErrorBodySchema.parse(res.body).error.message).toBe('The request body is too large')
       expect(changedTables(before, await probe.read())).toEqual([])

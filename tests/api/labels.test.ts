@@ -45,10 +45,16 @@ const parcelsOfView = (v: PackView) => v.parcels.map((p) => ({ workOrderIds: p.w
 
 /** An order of `kits` with every item confirmed at the bench: ready for its label. */
 async function readyOrder(kits: string[]) {
-  const made = await insertPackOrder(t.db, kits.map((kitSku) => ({ kitSku })))
+  const made = await insertPackOrder(
+    t.db,
+    kits.map((kitSku) => ({ kitSku })),
+  )
   let v = view(await packer.get(`/api/pack/orders/${made.order.id}`))
   for (const item of v.items) {
-    v = item.kind === 'unit' ? view(await packer.post(`/api/pack/orders/${made.order.id}/scan`).send({ code: item.binCode ?? item.serial })) : view(await packer.post(`/api/pack/orders/${made.order.id}/tick`).send({ itemKey: item.key }))
+    v =
+      item.kind === 'unit'
+        ? view(await packer.post(`/api/pack/orders/${made.order.id}/scan`).send({ code: item.binCode ?? item.serial }))
+        : view(await packer.post(`/api/pack/orders/${made.order.id}/tick`).send({ itemKey: item.key }))
   }
   expect(v.canLabel, v.blockers.join('; ')).toBe(true)
   return { ...made, view: v }
@@ -63,14 +69,19 @@ function parcelPerUnit(v: PackView) {
 describe('buying a label exactly once', () => {
   it('ten buys at once for one order give one label; every answer shows that label', async () => {
     const { order, view: v } = await readyOrder(['MW-TOTE-6C'])
-    const answers = await Promise.all(Array.from({ length: 10 }, () => packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'ground', parcels: parcelsOfView(v) })))
+    const answers = await Promise.all(
+      Array.from({ length: 10 }, () => packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'ground', parcels: parcelsOfView(v) })),
+    )
     const views = answers.map((a) => view(a, 201))
     const numbers = new Set(views.map((x) => x.shipment?.trackingNumber))
     expect(numbers.size).toBe(1)
     expect([...numbers][0]).toMatch(/^BP\d+$/)
     const [shipment] = await t.db.select().from(shipments).where(eq(shipments.orderId, order.id))
     expect(await t.db.select().from(shippingLabels).where(eq(shippingLabels.shipmentId, shipment!.id))).toHaveLength(1)
-    const events = await t.db.select().from(orderEvents).where(and(eq(orderEvents.orderId, order.id), eq(orderEvents.kind, 'label_bought')))
+    const events = await t.db
+      .select()
+      .from(orderEvents)
+      .where(and(eq(orderEvents.orderId, order.id), eq(orderEvents.kind, 'label_bought')))
     expect(events).toHaveLength(1)
     expect(shipment).toMatchObject({ status: 'labelled', carrier: DEMO_CARRIER })
   })
@@ -84,11 +95,14 @@ describe('buying a label exactly once', () => {
     expect(new Set(numbers).size).toBe(2)
     expect(labelled.shipment!.trackingNumber).toBe(numbers[0])
     // The 4 × 6 in label: page N carries parcel N's own tracking number (read back with poppler's pdftotext).
-    const res = await packer.get(`/api/shipments/${labelled.shipment!.id}/label.pdf`).buffer(true).parse((r, cb) => {
-      const chunks: Buffer[] = []
-      r.on('data', (c: Buffer) => chunks.push(c))
-      r.on('end', () => cb(null, Buffer.concat(chunks)))
-    })
+    const res = await packer
+      .get(`/api/shipments/${labelled.shipment!.id}/label.pdf`)
+      .buffer(true)
+      .parse((r, cb) => {
+        const chunks: Buffer[] = []
+        r.on('data', (c: Buffer) => chunks.push(c))
+        r.on('end', () => cb(null, Buffer.concat(chunks)))
+      })
     expect(res.status).toBe(200)
     const pages = execFileSync('pdftotext', ['-layout', '-', '-'], { input: res.body as Buffer, encoding: 'utf8' }).split('\f')
     expect(pages[0]).toContain(numbers[0])
@@ -158,16 +172,23 @@ describe('voiding a label', () => {
     expect(error(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: '' }), 400).fields).toHaveProperty('reason')
     const voided = view(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Wrong box size chosen' }))
     expect(voided.shipment).toMatchObject({ status: 'packing', trackingNumber: null })
-    expect(voided.shipment!.voidedLabels).toEqual([expect.objectContaining({ reason: 'Wrong box size chosen', refundStatus: 'submitted', trackingNumbers: [first.shipment!.trackingNumber] })])
+    expect(voided.shipment!.voidedLabels).toEqual([
+      expect.objectContaining({ reason: 'Wrong box size chosen', refundStatus: 'submitted', trackingNumbers: [first.shipment!.trackingNumber] }),
+    ])
     expect(await t.db.select().from(parcels).where(eq(parcels.shipmentId, shipmentId))).toHaveLength(0)
-    const [audit] = await t.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'shipment.void_label'), eq(auditEvents.entityId, order.id)))
+    const [audit] = await t.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.action, 'shipment.void_label'), eq(auditEvents.entityId, order.id)))
     expect(audit?.summary).toContain('Reason: Wrong box size chosen')
     expect(voided.canLabel).toBe(true)
     const second = view(await packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'express', parcels: parcelsOfView(voided) }), 201)
     expect(second.shipment!.trackingNumber).not.toBe(first.shipment!.trackingNumber)
     // Voiding twice is refused in words.
     view(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Changed my mind' }))
-    expect(error(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Again' }), 409).message).toBe('This shipment has no bought label to void')
+    expect(error(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Again' }), 409).message).toBe(
+      'This shipment has no bought label to void',
+    )
   })
 
   it('after shipping: only a planner voids a mistaken label; the shipment stays shipped', async () => {
@@ -175,8 +196,12 @@ describe('voiding a label', () => {
     const labelled = view(await packer.post(`/api/pack/orders/${order.id}/label`).send({ service: 'ground', parcels: parcelsOfView(v) }), 201)
     expect((await packer.post(`/api/pack/orders/${order.id}/ship`).send({})).status).toBe(200)
     const shipmentId = labelled.shipment!.id
-    expect(error(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Printed twice' }), 403).message).toMatch(/only a planner or the owner/)
-    const after = view(await planner.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Label printed for the wrong order; parcel went with the reprint' }))
+    expect(error(await packer.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Printed twice' }), 403).message).toMatch(
+      /only a planner or the owner/,
+    )
+    const after = view(
+      await planner.post(`/api/shipments/${shipmentId}/void-label`).send({ reason: 'Label printed for the wrong order; parcel went with the reprint' }),
+    )
     expect(after.shipment).toMatchObject({ id: shipmentId, status: 'shipped' })
     expect(after.shipment!.voidedLabels[0]!.reason).toMatch(/wrong order/)
     const detail = OrderDetailSchema.parse((await planner.get(`/api/orders/${order.id}`)).body)
@@ -186,10 +211,8 @@ describe('voiding a label', () => {
 
 describe('tracking events from the carrier', () => {
   const secret = process.env.CARRIER_WEBHOOK_SECRET ?? ''
-  const post = (
-    body: string,
-    signature = signCarrierEvent(secret, body),
-  ) => request(built.app).post('/api/shipments/tracking-events').set('content-type', 'application/json').set('x-hmac-signature', signature).send(body)
+  const post = (body: string, signature = signCarrierEvent(secret, body)) =>
+    request(built.app).post('/api/shipments/tracking-events').set('content-type', 'application/json').set('x-hmac-signature', signature).send(body)
 
   it('shows in transit and delivered on the order, once per event, and refuses a bad signature', async () => {
     expect(secret.length).toBeGreaterThan(0)
@@ -201,14 +224,18 @@ describe('tracking events from the carrier', () => {
     expect((await post(moving)).body).toEqual({ received: true, duplicate: true })
     const bad = await post(trackingEventBody({ trackingCode: tracking, status: 'delivered' }), signCarrierEvent('not-the-secret-at-all', moving))
     expect(error(bad, 401).message).toMatch(/signature does not verify/)
-    expect((await post(trackingEventBody({ eventId: `evt_${tracking}_2`, trackingCode: tracking, status: 'delivered', message: 'Left at the front door' }))).status).toBe(200)
+    expect(
+      (await post(trackingEventBody({ eventId: `evt_${tracking}_2`, trackingCode: tracking, status: 'delivered', message: 'Left at the front door' }))).status,
+    ).toBe(200)
     // An older event arriving late does not move the status back.
     expect((await post(trackingEventBody({ eventId: `evt_${tracking}_0`, trackingCode: tracking, status: 'pre_transit' }))).status).toBe(200)
     const after = view(await packer.get(`/api/pack/orders/${order.id}`))
     expect(after.shipment!.trackingStatus).toBe('delivered')
     const detail = OrderDetailSchema.parse((await planner.get(`/api/orders/${order.id}`)).body)
     const lines = detail.events.filter((e) => e.kind === 'tracking' || e.kind === 'delivered').map((e) => e.message)
-    expect(lines).toEqual(expect.arrayContaining([`Parcel ${tracking}: in transit (Departed the sorting hub)`, `Parcel ${tracking}: delivered (Left at the front door)`]))
+    expect(lines).toEqual(
+      expect.arrayContaining([`Parcel ${tracking}: in transit (Departed the sorting hub)`, `Parcel ${tracking}: delivered (Left at the front door)`]),
+    )
     expect(lines.filter((l) => l.includes('in transit'))).toHaveLength(1)
   })
 })

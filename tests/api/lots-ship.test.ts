@@ -33,7 +33,11 @@ function ok<T>(res: { status: number; body: unknown }, status: number, schema: {
 }
 
 async function lotOf(sku: string, code: string) {
-  const [row] = await t.db.select({ id: stockLots.id, partId: stockLots.partId }).from(stockLots).innerJoin(parts, eq(parts.id, stockLots.partId)).where(and(eq(parts.sku, sku), eq(stockLots.code, code)))
+  const [row] = await t.db
+    .select({ id: stockLots.id, partId: stockLots.partId })
+    .from(stockLots)
+    .innerJoin(parts, eq(parts.id, stockLots.partId))
+    .where(and(eq(parts.sku, sku), eq(stockLots.code, code)))
   return row!
 }
 async function lotOnHand(lotId: string) {
@@ -60,7 +64,9 @@ describe('shipping a unit built with lots', () => {
     let v = ok(await packer.get(`/api/pack/orders/${made.order.id}`), 200, PackViewSchema)
     for (const item of v.items) {
       v = ok(
-        item.kind === 'unit' ? await packer.post(`/api/pack/orders/${made.order.id}/scan`).send({ code: item.binCode ?? item.serial }) : await packer.post(`/api/pack/orders/${made.order.id}/tick`).send({ itemKey: item.key }),
+        item.kind === 'unit'
+          ? await packer.post(`/api/pack/orders/${made.order.id}/scan`).send({ code: item.binCode ?? item.serial })
+          : await packer.post(`/api/pack/orders/${made.order.id}/tick`).send({ itemKey: item.key }),
         200,
         PackViewSchema,
       )
@@ -72,8 +78,15 @@ describe('shipping a unit built with lots', () => {
     expect(shipped.status, JSON.stringify(shipped.body)).toBe(200)
 
     // The 6-site kit takes one pump and six sprayers: 1 from the pump lot, 2 + 4 from the sprayer lots.
-    expect({ pump: await lotOnHand(pump.id), old: await lotOnHand(sprayersOld.id), new: await lotOnHand(sprayersNew.id) }).toEqual({ pump: before.pump - 1, old: before.old - 2, new: before.new - 4 })
-    const shipMoves = await t.db.select().from(stockMoves).where(and(eq(stockMoves.workOrderId, unit.wo.id), eq(stockMoves.kind, 'ship'), isNotNull(stockMoves.lotId)))
+    expect({ pump: await lotOnHand(pump.id), old: await lotOnHand(sprayersOld.id), new: await lotOnHand(sprayersNew.id) }).toEqual({
+      pump: before.pump - 1,
+      old: before.old - 2,
+      new: before.new - 4,
+    })
+    const shipMoves = await t.db
+      .select()
+      .from(stockMoves)
+      .where(and(eq(stockMoves.workOrderId, unit.wo.id), eq(stockMoves.kind, 'ship'), isNotNull(stockMoves.lotId)))
     expect(shipMoves.map((m) => m.quantity).sort()).toEqual([-1, -2, -4].sort())
 
     const detail = ok(await planner.get(`/api/lots/${pump.id}`), 200, LotDetailSchema)

@@ -96,7 +96,9 @@ describe('scan and verify at the pack bench', () => {
       { kitSku: 'MW-TOTE-6C', leakTest: 'none' },
       { kitSku: 'MW-TOTE-6C', status: 'rework', leakTest: 'failed' },
     ])
-    expect(error(await scan(packer, order.id, units[0]!.binCode!), 409).message).toBe(`Unit ${units[0]!.wo.serial} has not passed its leak test (none is recorded): it goes back to the build bench`)
+    expect(error(await scan(packer, order.id, units[0]!.binCode!), 409).message).toBe(
+      `Unit ${units[0]!.wo.serial} has not passed its leak test (none is recorded): it goes back to the build bench`,
+    )
     expect(error(await scan(packer, order.id, units[1]!.wo.serial), 409).message).toMatch(/has not passed its leak test \(the last test failed\)/)
     const v = view(await packer.get(`/api/pack/orders/${order.id}`))
     expect(v.blockers).toEqual(expect.arrayContaining([expect.stringMatching(new RegExp(`^Unit ${units[0]!.wo.serial} has not passed its leak test`))]))
@@ -134,14 +136,22 @@ describe('partial shipments', () => {
     expect(v.shippingSerials).toEqual([a!.wo.serial])
     expect(v.backOrderedSerials).toEqual([b!.wo.serial])
     expect(v.canLabel).toBe(true)
-    const [audit] = await t.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'shipment.approve_partial'), eq(auditEvents.entityId, order.id)))
+    const [audit] = await t.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.action, 'shipment.approve_partial'), eq(auditEvents.entityId, order.id)))
     expect(audit?.summary).toContain(`${b!.wo.serial} back-ordered`)
 
     const { result } = await labelAndShip(packer, v)
     const [o] = await t.db.select().from(orders).where(eq(orders.id, order.id))
     expect(o!.status).toBe('partially_shipped')
     const statuses = await t.db.select({ serial: workOrders.serial, status: workOrders.status }).from(workOrders).where(eq(workOrders.orderId, order.id))
-    expect(new Map(statuses.map((s) => [s.serial, s.status]))).toEqual(new Map([[a!.wo.serial, 'shipped'], [b!.wo.serial, 'built']]))
+    expect(new Map(statuses.map((s) => [s.serial, s.status]))).toEqual(
+      new Map([
+        [a!.wo.serial, 'shipped'],
+        [b!.wo.serial, 'built'],
+      ]),
+    )
     expect(result.view.alreadyShipped).toEqual([a!.wo.serial])
 
     // The back-order: a new shipment for the rest, then the order is shipped.
@@ -172,7 +182,9 @@ describe('shipping', () => {
     expect(tracking).toMatch(/^BP\d+$/)
     expect(error(await tick(packer, order.id, v.items[1]!.key), 409).message).toMatch(/label .* is bought/)
 
-    const heldBefore = await t.db.execute<{ n: number }>(sql`select coalesce(sum(quantity), 0)::int as n from stock_moves where work_order_id in ${units.map((u) => u.wo.id)} and kind in ('reserve', 'release')`)
+    const heldBefore = await t.db.execute<{ n: number }>(
+      sql`select coalesce(sum(quantity), 0)::int as n from stock_moves where work_order_id in ${units.map((u) => u.wo.id)} and kind in ('reserve', 'release')`,
+    )
     expect(heldBefore.rows[0]!.n).toBeGreaterThan(0)
 
     const shipped = await packer.post(`/api/pack/orders/${order.id}/ship`).send({})
@@ -187,10 +199,25 @@ describe('shipping', () => {
     const [bin] = await t.db.select().from(bins).where(eq(bins.id, units[0]!.binId!))
     expect(bin).toMatchObject({ status: 'free', workOrderId: null })
     // The ledger: reservations released to zero, and one ship move per BOM line of each unit.
-    const held = await t.db.execute<{ n: number }>(sql`select coalesce(sum(quantity), 0)::int as n from stock_moves where work_order_id in ${units.map((u) => u.wo.id)} and kind in ('reserve', 'release')`)
+    const held = await t.db.execute<{ n: number }>(
+      sql`select coalesce(sum(quantity), 0)::int as n from stock_moves where work_order_id in ${units.map((u) => u.wo.id)} and kind in ('reserve', 'release')`,
+    )
     expect(held.rows[0]!.n).toBe(0)
-    const shipMoves = await t.db.select().from(stockMoves).where(and(inArray(stockMoves.workOrderId, units.map((u) => u.wo.id)), eq(stockMoves.kind, 'ship')))
-    const bom = await t.db.execute<{ n: number; q: number }>(sql`select count(*)::int as n, sum(b.quantity)::int as q from bom_lines b join work_orders w on w.kit_revision_id = b.revision_id where w.id in ${units.map((u) => u.wo.id)}`)
+    const shipMoves = await t.db
+      .select()
+      .from(stockMoves)
+      .where(
+        and(
+          inArray(
+            stockMoves.workOrderId,
+            units.map((u) => u.wo.id),
+          ),
+          eq(stockMoves.kind, 'ship'),
+        ),
+      )
+    const bom = await t.db.execute<{ n: number; q: number }>(
+      sql`select count(*)::int as n, sum(b.quantity)::int as q from bom_lines b join work_orders w on w.kit_revision_id = b.revision_id where w.id in ${units.map((u) => u.wo.id)}`,
+    )
     expect(shipMoves).toHaveLength(bom.rows[0]!.n)
     expect(shipMoves.reduce((s, m) => s + m.quantity, 0)).toBe(-bom.rows[0]!.q)
     expect(shipMoves.every((m) => m.reference === tracking)).toBe(true)
@@ -200,12 +227,18 @@ describe('shipping', () => {
     expect(parcel!.billableGrams).toBe(Math.max(16_250, parcel!.dimensionalGrams))
     expect(parcel!.sscc.slice(1, 8)).toBe(DEMO_GS1_COMPANY_PREFIX)
     expect(hasValidCheckDigit(parcel!.sscc)).toBe(true)
-    const [audit] = await t.db.select().from(auditEvents).where(and(eq(auditEvents.action, 'shipment.create'), eq(auditEvents.entityId, order.id)))
+    const [audit] = await t.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.action, 'shipment.create'), eq(auditEvents.entityId, order.id)))
     expect(audit?.summary).toContain(tracking)
 
     // Shipping twice is refused; the e-mail is queued once and arrives in the SMTP catcher once.
     expect(error(await packer.post(`/api/pack/orders/${order.id}/ship`).send({}), 409).code).toBe('conflict')
-    const mails = await t.db.select().from(mailMessages).where(and(eq(mailMessages.orderId, order.id), sql`${mailMessages.purpose} like 'shipped:%'`))
+    const mails = await t.db
+      .select()
+      .from(mailMessages)
+      .where(and(eq(mailMessages.orderId, order.id), sql`${mailMessages.purpose} like 'shipped:%'`))
     expect(mails).toHaveLength(1)
     expect(mails[0]!.text).toContain(`Tracking number: ${tracking}`)
     // One signed build-record link, for the built unit; a spare pack has no build record.
@@ -216,7 +249,9 @@ describe('shipping', () => {
 
     const mailDir = process.env.FAKE_MAIL_DIR
     if (!mailDir) throw new Error('FAKE_MAIL_DIR is not set: run the suite with `npm test`')
-    await waitFor('the shipped e-mail to be sent', async () => ((await t.db.select().from(mailMessages).where(eq(mailMessages.id, mails[0]!.id)))[0]?.status === 'sent' ? true : undefined))
+    await waitFor('the shipped e-mail to be sent', async () =>
+      (await t.db.select().from(mailMessages).where(eq(mailMessages.id, mails[0]!.id)))[0]?.status === 'sent' ? true : undefined,
+    )
     await waitForQueueIdle(t.db) // every job done: a stray second send would have landed by now
     const caught = []
     for (const f of readdirSync(mailDir).filter((f) => f.endsWith('.eml'))) {

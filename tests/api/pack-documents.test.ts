@@ -34,10 +34,15 @@ beforeAll(async () => {
   units = made.units
   let v = PackViewSchema.parse((await packer.get('/api/pack/lookup').query({ code: units[0]!.binCode! })).body)
   for (const item of v.items) {
-    const res = item.kind === 'unit' ? await packer.post(`/api/pack/orders/${v.order.id}/scan`).send({ code: item.binCode }) : await packer.post(`/api/pack/orders/${v.order.id}/tick`).send({ itemKey: item.key })
+    const res =
+      item.kind === 'unit'
+        ? await packer.post(`/api/pack/orders/${v.order.id}/scan`).send({ code: item.binCode })
+        : await packer.post(`/api/pack/orders/${v.order.id}/tick`).send({ itemKey: item.key })
     v = PackViewSchema.parse(res.body)
   }
-  const res = await packer.post(`/api/pack/orders/${v.order.id}/label`).send({ service: 'ground', parcels: v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null })) })
+  const res = await packer
+    .post(`/api/pack/orders/${v.order.id}/label`)
+    .send({ service: 'ground', parcels: v.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null })) })
   expect(res.status, JSON.stringify(res.body)).toBe(201)
   labelled = PackViewSchema.parse(res.body)
   mkdirSync(shots, { recursive: true })
@@ -45,11 +50,14 @@ beforeAll(async () => {
 afterAll(() => t.drop())
 
 async function pdf(url: string) {
-  const res = await packer.get(url).buffer(true).parse((r, cb) => {
-    const chunks: Buffer[] = []
-    r.on('data', (c: Buffer) => chunks.push(c))
-    r.on('end', () => cb(null, Buffer.concat(chunks)))
-  })
+  const res = await packer
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const chunks: Buffer[] = []
+      r.on('data', (c: Buffer) => chunks.push(c))
+      r.on('end', () => cb(null, Buffer.concat(chunks)))
+    })
   expect(res.status).toBe(200)
   expect(res.headers['content-type']).toBe('application/pdf')
   return res.body as Buffer
@@ -96,7 +104,8 @@ describe('the 4 × 6 in shipping label', () => {
       labelled.shipment!.trackingNumber!,
       labelled.order.shipTo.line1,
       'Parcel 1 of 2',
-    ]) expect(words).toContain(s)
+    ])
+      expect(words).toContain(s)
   })
 })
 
@@ -126,7 +135,9 @@ describe('the packing slip', () => {
       const litres = rev!.leakTestWaterVolumeMl! / 1000
       const depth = depthForVolume(tote, litres, 'L')
       if (!depth.ok) throw new Error(depth.message)
-      expect(words).toContain(`fill to ${formatLength(depth.depth, 'in')} (${formatLength(depth.depth, 'mm')}) above the floor of the tote, ${litres.toFixed(1)} L`)
+      expect(words).toContain(
+        `fill to ${formatLength(depth.depth, 'in')} (${formatLength(depth.depth, 'mm')}) above the floor of the tote, ${litres.toFixed(1)} L`,
+      )
       // A check independent of the frustum formula: the water stands between volume ÷ rim area and volume ÷ floor area.
       const mm = (v: number) => v / LENGTH_BASE_PER_MM
       const cubicMm = litres * 1e6

@@ -58,10 +58,21 @@ beforeAll(async () => {
   const step = (i: number) => revA.steps[i]!.id
 
   // Orders: two shipped, one released, one partly shipped, two open, one cancelled (7 in all).
-  const o1 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-02T00:00:00Z'), shippedAt: new Date('2026-03-08T12:00:00Z'), promisedShipDate: daysBefore(3), quantity: 3 })
+  const o1 = await insertReportOrder(db, kit.id, {
+    status: 'shipped',
+    placedAt: new Date('2026-03-02T00:00:00Z'),
+    shippedAt: new Date('2026-03-08T12:00:00Z'),
+    promisedShipDate: daysBefore(3),
+    quantity: 3,
+  })
   const o2 = await insertReportOrder(db, kit.id, { status: 'shipped', placedAt: new Date('2026-03-01T12:00:00Z'), shippedAt: new Date('2026-03-11T12:00:00Z') })
   await insertPaymentEvent(db, o2.order.id, '2026-03-03T12:00:00Z') // came in unpaid; paid two days later
-  const o3 = await insertReportOrder(db, kit.id, { status: 'released', promisedShipDate: daysBefore(5), quantity: 2, customerName: '=HYPERLINK("http://bad.example")' })
+  const o3 = await insertReportOrder(db, kit.id, {
+    status: 'released',
+    promisedShipDate: daysBefore(5),
+    quantity: 2,
+    customerName: '=HYPERLINK("http://bad.example")',
+  })
   const o4 = await insertReportOrder(db, kit.id, { status: 'partially_shipped', promisedShipDate: daysBefore(1), quantity: 2 })
   const o5 = await insertReportOrder(db, kit.id, { status: 'open', promisedShipDate: daysBefore(0) }) // due today: not late yet
   await insertReportOrder(db, kit.id, { status: 'open', promisedShipDate: null })
@@ -122,27 +133,51 @@ beforeAll(async () => {
   const piece = { partId: pipe.id, cutPartId: riser.id, workOrderId: w1a.id }
   const cut = (length: number, at = '2026-03-03T09:00:00Z') => ({ length, status: 'cut' as const, cutAt: at })
   // CR-A, done 4 March. Plan: 150 000 of pieces from 200 000 used, 20 000 back as an offcut.
-  await insertCutRun(db, { status: 'done', lengthUsed: 200_000, pieceLength: 150_000, offcutLength: 20_000, completedAt: '2026-03-04T10:00:00Z' }, [
-    { length: 100_000, status: 'done', remnant: 10_000, cuts: [cut(30_000), cut(30_000), cut(30_000)] },
-    { length: 100_000, status: 'done', remnant: 20_000, offcut: true, cuts: [cut(30_000), cut(30_000)] },
-  ], piece)
+  await insertCutRun(
+    db,
+    { status: 'done', lengthUsed: 200_000, pieceLength: 150_000, offcutLength: 20_000, completedAt: '2026-03-04T10:00:00Z' },
+    [
+      { length: 100_000, status: 'done', remnant: 10_000, cuts: [cut(30_000), cut(30_000), cut(30_000)] },
+      { length: 100_000, status: 'done', remnant: 20_000, offcut: true, cuts: [cut(30_000), cut(30_000)] },
+    ],
+    piece,
+  )
   // CR-B, done 10 March. Plan: 80 000 from 100 000. The first stick was miscut: one piece came off
   // whole, one was spoiled (cut, then re-planned), one not yet cut was re-planned; a new stick cut both again.
-  await insertCutRun(db, { status: 'done', lengthUsed: 100_000, pieceLength: 80_000, offcutLength: 0, completedAt: '2026-03-10T09:00:00Z' }, [
-    { length: 100_000, status: 'damaged', remnant: 20_000, cuts: [cut(30_000), { length: 30_000, status: 'replanned', cutAt: '2026-03-10T08:00:00Z' }, { length: 20_000, status: 'replanned' }] },
-    { length: 100_000, status: 'done', remnant: 48_000, offcut: true, cuts: [cut(30_000), cut(20_000)] },
-  ], piece)
+  await insertCutRun(
+    db,
+    { status: 'done', lengthUsed: 100_000, pieceLength: 80_000, offcutLength: 0, completedAt: '2026-03-10T09:00:00Z' },
+    [
+      {
+        length: 100_000,
+        status: 'damaged',
+        remnant: 20_000,
+        cuts: [cut(30_000), { length: 30_000, status: 'replanned', cutAt: '2026-03-10T08:00:00Z' }, { length: 20_000, status: 'replanned' }],
+      },
+      { length: 100_000, status: 'done', remnant: 48_000, offcut: true, cuts: [cut(30_000), cut(20_000)] },
+    ],
+    piece,
+  )
   // CR-E, done 12 March: 90 000 from 100 000, as planned.
-  await insertCutRun(db, { status: 'done', lengthUsed: 100_000, pieceLength: 90_000, offcutLength: 0, completedAt: '2026-03-12T15:00:00Z' }, [
-    { length: 100_000, status: 'done', remnant: 10_000, cuts: [cut(30_000), cut(30_000), cut(30_000)] },
-  ], piece)
+  await insertCutRun(
+    db,
+    { status: 'done', lengthUsed: 100_000, pieceLength: 90_000, offcutLength: 0, completedAt: '2026-03-12T15:00:00Z' },
+    [{ length: 100_000, status: 'done', remnant: 10_000, cuts: [cut(30_000), cut(30_000), cut(30_000)] }],
+    piece,
+  )
   // Outside the report: finished after the range, and one still on the saw.
-  await insertCutRun(db, { status: 'done', lengthUsed: 100_000, pieceLength: 10_000, offcutLength: 0, completedAt: '2026-03-20T10:00:00Z' }, [
-    { length: 100_000, status: 'done', remnant: 90_000, cuts: [cut(10_000)] },
-  ], piece)
-  await insertCutRun(db, { status: 'published', lengthUsed: 100_000, pieceLength: 10_000, offcutLength: 0 }, [
-    { length: 100_000, status: 'in_progress', remnant: 90_000, cuts: [cut(10_000)] },
-  ], piece)
+  await insertCutRun(
+    db,
+    { status: 'done', lengthUsed: 100_000, pieceLength: 10_000, offcutLength: 0, completedAt: '2026-03-20T10:00:00Z' },
+    [{ length: 100_000, status: 'done', remnant: 90_000, cuts: [cut(10_000)] }],
+    piece,
+  )
+  await insertCutRun(
+    db,
+    { status: 'published', lengthUsed: 100_000, pieceLength: 10_000, offcutLength: 0 },
+    [{ length: 100_000, status: 'in_progress', remnant: 90_000, cuts: [cut(10_000)] }],
+    piece,
+  )
 
   // Shortages: revision A needs 2 fittings per unit; 4 fittings are on the shelf.
   const fitting = await insertPart(db, { sku: 'TST-TEE', name: 'Slip tee' })
@@ -231,11 +266,21 @@ describe('reports on a hand-made history', () => {
     const rows = body.rows.map((r) => ({ planned: r.planned, actual: r.actual, damaged: r.damagedSticks, spoiled: r.spoiledPieces }))
     expect(rows).toHaveLength(3) // newest first: CR-E, CR-B, CR-A
     // CR-E: 90 000 ÷ 100 000 planned and cut.
-    expect(rows[0]).toEqual({ planned: { pieceLength: 90_000, consumedLength: 100_000, yield: 0.9 }, actual: { pieceLength: 90_000, consumedLength: 100_000, yield: 0.9 }, damaged: 0, spoiled: 0 })
+    expect(rows[0]).toEqual({
+      planned: { pieceLength: 90_000, consumedLength: 100_000, yield: 0.9 },
+      actual: { pieceLength: 90_000, consumedLength: 100_000, yield: 0.9 },
+      damaged: 0,
+      spoiled: 0,
+    })
     // CR-B: planned 80 000 ÷ 100 000 = 0.8. Actual pieces 30 000 (whole, from the miscut stick) +
     // 30 000 + 20 000 (cut again) = 80 000; consumed = the miscut stick's 100 000 + (100 000 − 48 000
     // put back as an offcut) = 152 000; 80 000 ÷ 152 000 = 0.526…
-    expect(rows[1]).toMatchObject({ planned: { pieceLength: 80_000, consumedLength: 100_000, yield: 0.8 }, actual: { pieceLength: 80_000, consumedLength: 152_000 }, damaged: 1, spoiled: 1 })
+    expect(rows[1]).toMatchObject({
+      planned: { pieceLength: 80_000, consumedLength: 100_000, yield: 0.8 },
+      actual: { pieceLength: 80_000, consumedLength: 152_000 },
+      damaged: 1,
+      spoiled: 1,
+    })
     expect(rows[1]!.actual.yield).toBeCloseTo(80_000 / 152_000, 10)
     // CR-A: planned 150 000 ÷ (200 000 − 20 000 offcut) = 0.833…; actual 5 × 30 000 = 150 000 ÷
     // (100 000 + 100 000 − 20 000 offcut) = 0.833…
@@ -288,7 +333,10 @@ describe('report exports', () => {
     expect(res.status).toBe(200)
     expect(res.headers['content-type']).toMatch(/^text\/csv/)
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="?kitwright-late-orders-2026-09-30\.csv"?$/)
-    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
+    const lines = res.text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n')
     expect(lines[0]).toBe('Order,Customer,State,Placed (UTC),Promised ship date,Days late,Units,Units shipped,State code')
     expect(lines).toHaveLength(3) // the header and both late orders, whatever the screen's limit
     // OWASP "CSV Injection": a cell starting with = gets a leading apostrophe.
@@ -300,7 +348,10 @@ describe('report exports', () => {
   it('exports the order states in words, with the code beside (partially_shipped is "Partly shipped")', async () => {
     const res = await planner.get('/api/reports/order-states/export.csv')
     expect(res.status).toBe(200)
-    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
+    const lines = res.text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n')
     expect(lines[0]).toBe('Order state,Orders,State code')
     expect(lines).toContain('Partly shipped,1,partially_shipped')
     for (const line of lines.slice(1)) expect(line.split(',')[0]).not.toMatch(/_/)
@@ -309,7 +360,10 @@ describe('report exports', () => {
   it('exports the numbers behind the throughput chart', async () => {
     const res = await planner.get(`/api/reports/throughput/export.csv${RANGE}`)
     expect(res.status).toBe(200)
-    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
+    const lines = res.text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n')
     expect(lines[0]).toBe('Day (UTC),Units built,Units shipped')
     expect(lines).toHaveLength(15)
     expect(lines).toContain('2026-03-05,2,0')
@@ -317,7 +371,10 @@ describe('report exports', () => {
   })
 
   it('exports yields as percentages and lengths in the shop unit', async () => {
-    const runs = (await planner.get(`/api/reports/cut-run-yield/export.csv${RANGE}`)).text.replace(/^\ufeff/, '').trim().split('\r\n')
+    const runs = (await planner.get(`/api/reports/cut-run-yield/export.csv${RANGE}`)).text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n')
     // No shop settings in this database: inches. 1 in = 25.4 mm exactly (NIST SP 811, B.8) and the base
     // unit is 1/1600 mm, so 40 640 per inch: 152 000 ÷ 40 640 = 3.740 in.
     expect(runs[0]).toContain('Actual consumed (in)')
@@ -332,10 +389,16 @@ describe('report exports', () => {
   it('exports the shortages from the shortages query', async () => {
     const res = await planner.get('/api/reports/shortages/export.csv')
     expect(res.status).toBe(200)
-    const lines = res.text.replace(/^\ufeff/, '').trim().split('\r\n')
+    const lines = res.text
+      .replace(/^\ufeff/, '')
+      .trim()
+      .split('\r\n')
     // Revision A's open units: w3a, w3b, wcut, wc1, wc2 = 5 × 2 tees = 10 needed, 4 free → 6 short.
     // Pipe for the 2 units waiting to cut: 2 × 30 000 (no kerf without shop settings) ÷ 100 000 → 1 stick, none free.
-    expect(lines.slice(1).map((l) => l.split(',').slice(0, 7).join(','))).toEqual(['TST-TEE,Slip tee,each,10,0,4,6', expect.stringMatching(/^TST-PIPE,Test part \w+,sticks,1,0,0,1$/)])
+    expect(lines.slice(1).map((l) => l.split(',').slice(0, 7).join(','))).toEqual([
+      'TST-TEE,Slip tee,each,10,0,4,6',
+      expect.stringMatching(/^TST-PIPE,Test part \w+,sticks,1,0,0,1$/),
+    ])
   })
 })
 
@@ -352,7 +415,18 @@ describe('report input and roles', () => {
     expect(ApiErrorBodySchema.parse(bad.body).error.fields).toEqual({ from: 'Use a date as YYYY-MM-DD' })
   })
 
-  const paths = ['order-states', 'late-orders', 'work-in-progress', 'throughput', 'cut-run-yield', 'yield-over-time', 'first-pass-yield', 'lead-time', 'shortages/export.csv', 'throughput/export.csv']
+  const paths = [
+    'order-states',
+    'late-orders',
+    'work-in-progress',
+    'throughput',
+    'cut-run-yield',
+    'yield-over-time',
+    'first-pass-yield',
+    'lead-time',
+    'shortages/export.csv',
+    'throughput/export.csv',
+  ]
 
   it('lets the admin and the planner read every report', async () => {
     const admin = (await signedInAs(app, t, 'admin')).agent

@@ -29,7 +29,10 @@ beforeAll(async () => {
   built = buildApp(t)
   // The client built as a shop runs it (like tests/setup/e2e-global-setup.ts), into a folder of its own.
   dist = mkdtempSync(path.join(os.tmpdir(), 'kitwright-security-dist-'))
-  const build = spawnSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], { cwd: path.join(root, 'client'), encoding: 'utf8' })
+  const build = spawnSync(path.join(root, 'node_modules/.bin/vite'), ['build', '--outDir', dist, '--emptyOutDir', '--logLevel', 'warn'], {
+    cwd: path.join(root, 'client'),
+    encoding: 'utf8',
+  })
   if (build.status !== 0) throw new Error(`client build failed:\n${build.stdout}${build.stderr}`)
   served = createApp({ ...built.deps, clientDist: dist }).app
 })
@@ -213,20 +216,25 @@ describe('secrets', () => {
     const files = existsSync(data) ? readdirSync(data).filter((f) => f.endsWith('.secret') || f === 'pg-password') : []
     return [
       ...files.map((f) => ({ what: `.data/${f}`, value: readFileSync(path.join(data, f), 'utf8').trim() })),
-      { what: 'the tests\' SESSION_SECRET', value: new TextDecoder().decode(TEST_TOKENS.secret) },
-      { what: 'the tests\' STORE_WEBHOOK_SECRET', value: TEST_STORE_SECRET },
+      { what: "the tests' SESSION_SECRET", value: new TextDecoder().decode(TEST_TOKENS.secret) },
+      { what: "the tests' STORE_WEBHOOK_SECRET", value: TEST_STORE_SECRET },
       { what: 'the e2e SESSION_SECRET', value: 'kitwright-e2e-secret-0123456789abcdef' },
       { what: 'the two-process SESSION_SECRET', value: 'kitwright-two-process-secret-0123456789abcdef' },
       { what: 'the S3 stand-in keys', value: 'S3RVER' },
       { what: 'a PEM private key', value: 'PRIVATE KEY-----' },
       // Names of server-side settings: the client never needs to know them.
-      ...['SESSION_SECRET', 'STORE_WEBHOOK_SECRET', 'S3_SECRET_ACCESS_KEY', 'S3_ACCESS_KEY_ID', 'DATABASE_URL', 'SMTP_URL'].map((name) => ({ what: `the variable name ${name}`, value: name })),
+      ...['SESSION_SECRET', 'STORE_WEBHOOK_SECRET', 'S3_SECRET_ACCESS_KEY', 'S3_ACCESS_KEY_ID', 'DATABASE_URL', 'SMTP_URL'].map((name) => ({
+        what: `the variable name ${name}`,
+        value: name,
+      })),
     ].filter((s) => s.value.length >= 6)
   }
 
   it('leaves every secret out of the built client bundle', () => {
     const secrets = knownSecrets()
-    expect(secrets.some((s) => s.what.startsWith('.data/')) || !existsSync(path.join(root, '.data')), 'a checkout that ran npm test has .data/*.secret').toBe(true)
+    expect(secrets.some((s) => s.what.startsWith('.data/')) || !existsSync(path.join(root, '.data')), 'a checkout that ran npm test has .data/*.secret').toBe(
+      true,
+    )
     const files = bundleFiles()
     expect(files.filter((f) => f.endsWith('.js')).length).toBeGreaterThan(3)
     const found: string[] = []
@@ -246,7 +254,13 @@ describe('secrets', () => {
     expect(tracked.length).toBeGreaterThan(100)
     const bad = tracked.filter((f) => {
       const name = path.basename(f)
-      return f.startsWith('.data/') || (/^\.env(\..+)?$/.test(name) && name !== '.env.example') || /\.(secret|pem|key|p12|pfx)$/.test(name) || name === 'pg-password' || /^id_(rsa|ed25519|ecdsa)$/.test(name)
+      return (
+        f.startsWith('.data/') ||
+        (/^\.env(\..+)?$/.test(name) && name !== '.env.example') ||
+        /\.(secret|pem|key|p12|pfx)$/.test(name) ||
+        name === 'pg-password' ||
+        /^id_(rsa|ed25519|ecdsa)$/.test(name)
+      )
     })
     expect(bad).toEqual([])
     // The one tracked example holds placeholders, not secrets.
@@ -254,7 +268,10 @@ describe('secrets', () => {
     for (const name of ['SESSION_SECRET', 'STORE_WEBHOOK_SECRET']) expect(example).toMatch(new RegExp(`^${name}=replace-with-`, 'm'))
     expect(example).toMatch(/^S3_SECRET_ACCESS_KEY=$/m)
     // Nothing tracked holds a private key or one of this checkout's own secrets.
-    const grep = spawnSync('git', ['grep', '-l', '-I', '-e', 'BEGIN [A-Z ]*PRIVATE KEY', '--', '.', ':!tests/api/security.test.ts'], { cwd: root, encoding: 'utf8' })
+    const grep = spawnSync('git', ['grep', '-l', '-I', '-e', 'BEGIN [A-Z ]*PRIVATE KEY', '--', '.', ':!tests/api/security.test.ts'], {
+      cwd: root,
+      encoding: 'utf8',
+    })
     expect(grep.stdout.trim()).toBe('')
     for (const s of knownSecrets().filter((x) => x.what.startsWith('.data/'))) {
       const hit = spawnSync('git', ['grep', '-l', '-F', '-e', s.value], { cwd: root, encoding: 'utf8' })

@@ -126,7 +126,12 @@ describe('the cut bench with the network cut', () => {
     await ticks.first().click()
     await stick.getByText(`2 of ${pieces} pieces cut`).waitFor()
     await banner(page).getByText('2 actions waiting.').waitFor()
-    expect(await conn.db.select().from(cutRunCuts).where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut')))).toHaveLength(0)
+    expect(
+      await conn.db
+        .select()
+        .from(cutRunCuts)
+        .where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut'))),
+    ).toHaveLength(0)
 
     // The page loads again with no network: the app from the worker, the run as last read, the ticks from the queue.
     await page.reload()
@@ -139,10 +144,16 @@ describe('the cut bench with the network cut', () => {
 
     await context.setOffline(false)
     await banner(page).getByText('Back online.').waitFor()
-    const landed = await conn.db.select().from(cutRunCuts).where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut')))
+    const landed = await conn.db
+      .select()
+      .from(cutRunCuts)
+      .where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut')))
     expect(landed).toHaveLength(2)
     // The audit trail has each once, with when it was tapped on the bench and when it reached the server.
-    const trail = await conn.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, run.id), eq(auditEvents.action, 'cut.tick')))
+    const trail = await conn.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.entityId, run.id), eq(auditEvents.action, 'cut.tick')))
     expect(trail).toHaveLength(2)
     for (const e of trail) {
       expect(e.takenAt).not.toBeNull()
@@ -168,14 +179,20 @@ describe('the cut bench with the network cut', () => {
     await openForOffline(offline.page, `/bench/cut?run=${run.id}`, () => stickB.getByText(/^0 of \d+ pieces cut$/).waitFor())
     await offline.context.setOffline(true)
     await banner(offline.page).getByText('Offline.').waitFor()
-    await stickB.getByRole('button', { name: /^Tick one / }).first().click()
+    await stickB
+      .getByRole('button', { name: /^Tick one / })
+      .first()
+      .click()
     await banner(offline.page).getByText('1 action waiting.').waitFor()
 
     // Meanwhile the planner, online at the saw, ticks the same piece.
     const stickA = planner.getByRole('region', { name: `Stick ${stick1.position}` })
     await planner.goto(`${baseUrl}/bench/cut?run=${run.id}`)
     await stickA.getByText(/^0 of \d+ pieces cut$/).waitFor()
-    await stickA.getByRole('button', { name: /^Tick one / }).first().click()
+    await stickA
+      .getByRole('button', { name: /^Tick one / })
+      .first()
+      .click()
     await stickA.getByText(/^1 of \d+ pieces cut$/).waitFor()
 
     await offline.context.setOffline(false)
@@ -183,9 +200,15 @@ describe('the cut bench with the network cut', () => {
     await stickB.getByText(/^1 of \d+ pieces cut$/).waitFor()
     // Not refused, not cut twice: one piece, ticked by the planner; the late tap is in the trail as changing nothing.
     expect(await offline.page.getByRole('alert', { name: 'Refused actions' }).count()).toBe(0)
-    const cut = await conn.db.select().from(cutRunCuts).where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut')))
+    const cut = await conn.db
+      .select()
+      .from(cutRunCuts)
+      .where(and(eq(cutRunCuts.stickId, stick1.id), eq(cutRunCuts.status, 'cut')))
     expect(cut.map((c) => c.id)).toEqual([first.id])
-    const trail = await conn.db.select({ action: auditEvents.action, takenAt: auditEvents.takenAt }).from(auditEvents).where(and(eq(auditEvents.entityId, run.id), inArray(auditEvents.action, ['cut.tick', 'cut.tick_again'])))
+    const trail = await conn.db
+      .select({ action: auditEvents.action, takenAt: auditEvents.takenAt })
+      .from(auditEvents)
+      .where(and(eq(auditEvents.entityId, run.id), inArray(auditEvents.action, ['cut.tick', 'cut.tick_again'])))
     expect(trail.map((e) => e.action).sort()).toEqual(['cut.tick', 'cut.tick_again'])
     expect(trail.find((e) => e.action === 'cut.tick_again')!.takenAt).not.toBeNull()
   })
@@ -213,21 +236,38 @@ describe('the build bench with the network cut', () => {
 
     await page.reload()
     await page.getByRole('heading', { name: `Unit ${wo.serial}` }).waitFor()
-    for (const step of firstTwo) await page.getByRole('listitem', { name: `Step ${step.position}`, exact: true }).getByText(/Ticked by you \(not sent yet\)/).waitFor()
+    for (const step of firstTwo)
+      await page
+        .getByRole('listitem', { name: `Step ${step.position}`, exact: true })
+        .getByText(/Ticked by you \(not sent yet\)/)
+        .waitFor()
     await forServer.getByText('Photo of the unit').waitFor()
     // The next step is open to tick: the bench goes on in order with no network.
     expect(await page.getByRole('button', { name: `Tick step ${steps[2]!.position}` }).isVisible()).toBe(true)
 
     await context.setOffline(false)
     await banner(page).getByText('Back online.').waitFor()
-    const ticks = await conn.db.select().from(buildStepTicks).where(and(eq(buildStepTicks.workOrderId, wo.id), isNull(buildStepTicks.undoneAt)))
+    const ticks = await conn.db
+      .select()
+      .from(buildStepTicks)
+      .where(and(eq(buildStepTicks.workOrderId, wo.id), isNull(buildStepTicks.undoneAt)))
     expect(ticks.map((t) => t.buildStepId).sort()).toEqual(firstTwo.map((s) => s.id).sort())
-    const trail = await conn.db.select().from(auditEvents).where(and(eq(auditEvents.entityId, wo.id), eq(auditEvents.action, 'build.tick'), isNotNull(auditEvents.takenAt)))
+    const trail = await conn.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.entityId, wo.id), eq(auditEvents.action, 'build.tick'), isNotNull(auditEvents.takenAt)))
     expect(trail).toHaveLength(2)
     // The photo went to the store once the network was back, and the server confirmed it.
-    const photos = await conn.db.select().from(unitPhotos).where(and(eq(unitPhotos.workOrderId, wo.id), isNotNull(unitPhotos.uploadedAt)))
+    const photos = await conn.db
+      .select()
+      .from(unitPhotos)
+      .where(and(eq(unitPhotos.workOrderId, wo.id), isNotNull(unitPhotos.uploadedAt)))
     expect(photos).toHaveLength(1)
-    for (const step of firstTwo) await page.getByRole('listitem', { name: `Step ${step.position}`, exact: true }).getByText(`Ticked by ${demo('assembler').name}`).waitFor()
+    for (const step of firstTwo)
+      await page
+        .getByRole('listitem', { name: `Step ${step.position}`, exact: true })
+        .getByText(`Ticked by ${demo('assembler').name}`)
+        .waitFor()
   })
 
   it('shows the person a step refused because the unit was cancelled while the tablet was offline', async () => {
@@ -240,7 +280,9 @@ describe('the build bench with the network cut', () => {
 
     // The planner cancels the order meanwhile.
     const { page: planner } = await tablet('planner')
-    const cancelled = await planner.context().request.post(`${baseUrl}/api/orders/${wo.orderId}/cancel`, { data: { reason: 'Customer moved house and asked to cancel' } })
+    const cancelled = await planner
+      .context()
+      .request.post(`${baseUrl}/api/orders/${wo.orderId}/cancel`, { data: { reason: 'Customer moved house and asked to cancel' } })
     expect(cancelled.status(), await cancelled.text()).toBe(200)
 
     await context.setOffline(false)

@@ -29,7 +29,6 @@ afterAll(async () => {
   pg?.destroy()
 })
 
-
 describe('the database stops and starts again in the middle of the work', () => {
   it('answers 503 while it is down, recovers by itself, and turns every accepted webhook into its order once', async () => {
     const rev = await insertBuildRevision(conn.db)
@@ -61,7 +60,8 @@ describe('the database stops and starts again in the middle of the work', () => 
     for (const e of refusedEvents) await during(`webhook ${e.orderNumber}`, () => deliver(built.app, e))
     for (const a of downAnswers) expect(a.status, a.what).toBe(503)
     const bodies = await Promise.all([agent.get('/api/build/lookup').query({ code: wo.serial })])
-    for (const b of bodies) expect(ApiErrorBodySchema.parse(b.body).error).toEqual({ code: 'unavailable', message: 'The database is not reachable; try again in a moment' })
+    for (const b of bodies)
+      expect(ApiErrorBodySchema.parse(b.body).error).toEqual({ code: 'unavailable', message: 'The database is not reachable; try again in a moment' })
 
     pg.start()
     const back = Date.now()
@@ -73,10 +73,14 @@ describe('the database stops and starts again in the middle of the work', () => 
     for (const e of refusedEvents) expect((await deliver(built.app, e)).status).toBe(200)
     expect((await agent.post(`/api/build/${wo.id}/steps/${step(2)}/tick`).send({})).status).toBe(200)
     const all = [...accepted, ...refusedEvents.map((e) => e.orderNumber)]
-    await waitFor('every accepted webhook to become its order', async () => {
-      const rows = await conn.db.select({ number: orders.number }).from(orders).where(inArray(orders.number, all))
-      return rows.length === all.length ? true : undefined
-    }, 30_000)
+    await waitFor(
+      'every accepted webhook to become its order',
+      async () => {
+        const rows = await conn.db.select({ number: orders.number }).from(orders).where(inArray(orders.number, all))
+        return rows.length === all.length ? true : undefined
+      },
+      30_000,
+    )
     const ordersBack = Date.now() - back
     // Redeliveries of the first events change nothing: still one order each.
     for (const e of events.slice(0, 2)) expect((await deliver(built.app, e)).status).toBe(200)

@@ -55,7 +55,10 @@ describe('the photo store stops and starts again in the middle of a build', () =
     const down = await confirm(pending.key)
     const answeredIn = Date.now() - asked
     expect(down.status).toBe(503)
-    expect(ApiErrorBodySchema.parse(down.body).error).toMatchObject({ code: 'unavailable', message: expect.stringMatching(/photo store \(S3\) is not reachable.*ticks already made are kept/) })
+    expect(ApiErrorBodySchema.parse(down.body).error).toMatchObject({
+      code: 'unavailable',
+      message: expect.stringMatching(/photo store \(S3\) is not reachable.*ticks already made are kept/),
+    })
     // Nothing about the photo was recorded as taken.
     expect((await conn.db.select().from(unitPhotos).where(eq(unitPhotos.workOrderId, wo.id))).every((p) => p.uploadedAt === null)).toBe(true)
 
@@ -78,6 +81,8 @@ describe('the photo store stops and starts again in the middle of a build', () =
     expect((await agent.post(`/api/build/${wo.id}/steps/${step(4)}/tick`).send({})).status).toBe(200)
     expect((await agent.post(`/api/build/${wo.id}/leak-tests`).send(PASSING)).status).toBe(201)
     expect(await conn.db.select().from(leakTests).where(eq(leakTests.workOrderId, wo.id))).toHaveLength(1)
-    console.log(`[faults] S3 down ${seconds(back - stoppedAt)}: confirm answered 503 in ${answeredIn} ms; photo confirmed ${seconds(recovered)} after the store came back; ticks kept, leak test recorded once the photo step was done`)
+    console.log(
+      `[faults] S3 down ${seconds(back - stoppedAt)}: confirm answered 503 in ${answeredIn} ms; photo confirmed ${seconds(recovered)} after the store came back; ticks kept, leak test recorded once the photo step was done`,
+    )
   })
 })

@@ -87,9 +87,16 @@ describe('two API processes over one database and queue', () => {
   it('takes a session signed in on one process on the other', async () => {
     const [a, b] = apis
     const user = await insertUser(conn.db, { role: 'planner' })
-    const signIn = await fetch(`${a!.url}/api/auth/sign-in`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: user.email, password: TEST_PASSWORD }) })
+    const signIn = await fetch(`${a!.url}/api/auth/sign-in`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: JSON.stringify({ email: user.email, password: TEST_PASSWORD }),
+    })
     expect(signIn.status).toBe(200)
-    const cookie = signIn.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ')
+    const cookie = signIn.headers
+      .getSetCookie()
+      .map((c) => c.split(';')[0])
+      .join('; ')
     const me = await fetch(`${b!.url}/api/auth/me`, { headers: { cookie } })
     expect(me.status).toBe(200)
     expect(SessionSchema.parse(await me.json()).user).toMatchObject({ id: user.id, email: user.email })
@@ -101,13 +108,24 @@ describe('two API processes over one database and queue', () => {
     const events = Array.from({ length: 20 }, (_, i) => paidEvent(`MW-P-${1001 + i}`))
     const started = Date.now()
     const answers = await Promise.all(events.flatMap((e) => apis.map((api) => deliverTo(api.url, e).then((r) => r.status))))
-    expect(answers.every((s) => s === 200), `answers: ${answers.join(',')}`).toBe(true)
+    expect(
+      answers.every((s) => s === 200),
+      `answers: ${answers.join(',')}`,
+    ).toBe(true)
     const numbers = events.map((e) => e.orderNumber)
-    await waitFor('every order', async () => ((await conn.db.select().from(orders).where(inArray(orders.number, numbers))).length === numbers.length ? true : undefined), 30_000)
-    await waitFor('every e-mail sent', async () => {
-      const rows = await conn.db.select({ status: mailMessages.status }).from(mailMessages)
-      return rows.length === numbers.length && rows.every((r) => r.status === 'sent') ? true : undefined
-    }, 30_000)
+    await waitFor(
+      'every order',
+      async () => ((await conn.db.select().from(orders).where(inArray(orders.number, numbers))).length === numbers.length ? true : undefined),
+      30_000,
+    )
+    await waitFor(
+      'every e-mail sent',
+      async () => {
+        const rows = await conn.db.select({ status: mailMessages.status }).from(mailMessages)
+        return rows.length === numbers.length && rows.every((r) => r.status === 'sent') ? true : undefined
+      },
+      30_000,
+    )
     const settled = Date.now() - started
     await waitForQueueIdle(conn.db) // every job done: a stray second send would have landed by now
 
@@ -120,6 +138,8 @@ describe('two API processes over one database and queue', () => {
     const parsed = await Promise.all(files.map((f) => simpleParser(readFileSync(path.join(smtp.directory, f)))))
     const to = parsed.flatMap((m) => (Array.isArray(m.to) ? m.to : m.to ? [m.to] : []).flatMap((x) => x.value.map((v) => v.address)))
     expect(to.sort()).toEqual(numbers.map((n) => `${n.toLowerCase()}@buyer.example`).sort())
-    console.log(`[two-processes] ${answers.length} deliveries (${events.length} events, each to both processes at once) → ${rows.length} orders, ${files.length} e-mails sent once each, settled in ${seconds(settled)}`)
+    console.log(
+      `[two-processes] ${answers.length} deliveries (${events.length} events, each to both processes at once) → ${rows.length} orders, ${files.length} e-mails sent once each, settled in ${seconds(settled)}`,
+    )
   })
 })

@@ -23,7 +23,10 @@ export const TEST_STORE_SECRET = 'kitwright-test-store-secret-0123456789abcdef'
  * (most files never enqueue anything); `t.drop()` stops it. Workers run only where a test starts
  * them (`startWorkers(built.deps)`).
  */
-export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>, options: { logger?: Deps['logger']; storage?: StorageConfig; payments?: Deps['payments']; now?: Deps['now'] } = {}) {
+export function buildApp(
+  t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, 'onDrop'>>,
+  options: { logger?: Deps['logger']; storage?: StorageConfig; payments?: Deps['payments']; now?: Deps['now'] } = {},
+) {
   const logger = options.logger ?? createLogger('silent')
   const jobs = createJobs({ pool: t.pool, logger, maintenance: false, retryDelaySeconds: 1, pollingIntervalSeconds: 0.5, stopTimeoutMs: 1000 })
   t.onDrop?.(() => jobs.stop())
@@ -48,7 +51,8 @@ export function buildApp(t: Pick<TestDb, 'db' | 'pool'> & Partial<Pick<TestDb, '
 /** The run's S3 stand-in (s3rver, started by `npm test`). */
 export function testStorageConfig(): StorageConfig {
   const { S3_ENDPOINT, S3_BUCKET, S3_ACCESS_KEY_ID, S3_SECRET_ACCESS_KEY } = process.env
-  if (!S3_ENDPOINT || !S3_BUCKET || !S3_ACCESS_KEY_ID || !S3_SECRET_ACCESS_KEY) throw new Error('S3_* is not set: run the suite with `npm test`, which starts the S3 stand-in')
+  if (!S3_ENDPOINT || !S3_BUCKET || !S3_ACCESS_KEY_ID || !S3_SECRET_ACCESS_KEY)
+    throw new Error('S3_* is not set: run the suite with `npm test`, which starts the S3 stand-in')
   return { endpoint: S3_ENDPOINT, bucket: S3_BUCKET, accessKeyId: S3_ACCESS_KEY_ID, secretAccessKey: S3_SECRET_ACCESS_KEY, region: 'us-east-1' }
 }
 

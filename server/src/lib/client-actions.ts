@@ -71,14 +71,20 @@ export function benchActions(db: Db): RequestHandler {
     const takenAt = new Date(parsed.data.takenAt)
     const now = Date.now()
     if (takenAt.getTime() > now + TAKEN_AT_MAX_AHEAD_MS) {
-      throw new BadRequest(`The tablet says this action was taken at ${takenAt.toISOString()}, later than now on the server; set the tablet's clock right, then do it again on the bench`, {
-        [BENCH_ACTION_TAKEN_AT_HEADER]: 'Later than the server’s clock',
-      })
+      throw new BadRequest(
+        `The tablet says this action was taken at ${takenAt.toISOString()}, later than now on the server; set the tablet's clock right, then do it again on the bench`,
+        {
+          [BENCH_ACTION_TAKEN_AT_HEADER]: 'Later than the server’s clock',
+        },
+      )
     }
     if (takenAt.getTime() < now - TAKEN_AT_MAX_AGE_MS) {
-      throw new BadRequest(`This action was taken on ${takenAt.toISOString().slice(0, 10)}, more than 30 days ago; it is too old to apply now. Do it again on the bench if it still holds`, {
-        [BENCH_ACTION_TAKEN_AT_HEADER]: 'More than 30 days old',
-      })
+      throw new BadRequest(
+        `This action was taken on ${takenAt.toISOString().slice(0, 10)}, more than 30 days ago; it is too old to apply now. Do it again on the bench if it still holds`,
+        {
+          [BENCH_ACTION_TAKEN_AT_HEADER]: 'More than 30 days old',
+        },
+      )
     }
     const path = req.originalUrl
     const fingerprint = createHash('sha256')
@@ -107,7 +113,8 @@ export function benchActions(db: Db): RequestHandler {
         return
       }
       // Another request with this id is being applied right now: the bench sends it again shortly.
-      if (now - first.receivedAt.getTime() < STALE_CLAIM_MS) throw new Unavailable('This action is being applied right now; the bench sends it again in a moment')
+      if (now - first.receivedAt.getTime() < STALE_CLAIM_MS)
+        throw new Unavailable('This action is being applied right now; the bench sends it again in a moment')
     }
     actions.set(req, { id, takenAt })
 
@@ -118,7 +125,10 @@ export function benchActions(db: Db): RequestHandler {
       kept = true
       const status = res.statusCode
       const settle = keepsAnswer(status)
-        ? db.update(clientActions).set({ status, result: body ?? null, answeredAt: new Date() }).where(eq(clientActions.id, id))
+        ? db
+            .update(clientActions)
+            .set({ status, result: body ?? null, answeredAt: new Date() })
+            .where(eq(clientActions.id, id))
         : db.delete(clientActions).where(and(eq(clientActions.id, id), isNull(clientActions.answeredAt)))
       settle.then(
         () => send(body),

@@ -92,7 +92,14 @@ export function createStorage(config: StorageConfig | null): Storage {
 }
 
 /** The storage settings from the environment, or null when no bucket is configured. */
-export function storageConfigFromEnv(env: { S3_ENDPOINT?: string; S3_PUBLIC_URL?: string; S3_BUCKET?: string; S3_ACCESS_KEY_ID?: string; S3_SECRET_ACCESS_KEY?: string; S3_REGION: string }): StorageConfig | null {
+export function storageConfigFromEnv(env: {
+  S3_ENDPOINT?: string
+  S3_PUBLIC_URL?: string
+  S3_BUCKET?: string
+  S3_ACCESS_KEY_ID?: string
+  S3_SECRET_ACCESS_KEY?: string
+  S3_REGION: string
+}): StorageConfig | null {
   if (!env.S3_BUCKET || !env.S3_ACCESS_KEY_ID || !env.S3_SECRET_ACCESS_KEY) return null
   return {
     endpoint: env.S3_ENDPOINT,

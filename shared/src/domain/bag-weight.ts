@@ -29,8 +29,19 @@ export const UNIT_WEIGHT_STEP_MG = 10
 export type ParseWeightResult = { ok: true; mg: number } | { ok: false; message: string }
 
 const UNIT_WORDS: Record<string, WeightUnit> = {
-  g: 'g', gram: 'g', grams: 'g', kg: 'kg', kilogram: 'kg', kilograms: 'kg',
-  lb: 'lb', lbs: 'lb', pound: 'lb', pounds: 'lb', oz: 'oz', ounce: 'oz', ounces: 'oz',
+  g: 'g',
+  gram: 'g',
+  grams: 'g',
+  kg: 'kg',
+  kilogram: 'kg',
+  kilograms: 'kg',
+  lb: 'lb',
+  lbs: 'lb',
+  pound: 'lb',
+  pounds: 'lb',
+  oz: 'oz',
+  ounce: 'oz',
+  ounces: 'oz',
 }
 
 /** Converts a value in a unit to milligrams (unrounded), with the NIST factors. */
@@ -53,7 +64,8 @@ export function parseWeight(text: string): ParseWeightResult {
   if (/^-/.test(s)) return { ok: false, message: 'A weight cannot be negative: enter what the scale shows, e.g. 212.4 g' }
   const parts = [...s.matchAll(/(\d+(?:\.\d*)?|\.\d+)\s*([a-z]*)/g)]
   const rest = s.replace(/(\d+(?:\.\d*)?|\.\d+)\s*([a-z]*)/g, '').trim()
-  if (parts.length === 0 || rest !== '') return { ok: false, message: `"${text.trim()}" is not a weight: enter a number and its unit, e.g. 212.4 g or 1 lb 2.5 oz` }
+  if (parts.length === 0 || rest !== '')
+    return { ok: false, message: `"${text.trim()}" is not a weight: enter a number and its unit, e.g. 212.4 g or 1 lb 2.5 oz` }
   if (parts.length > 2) return { ok: false, message: `"${text.trim()}" has too many numbers: enter one weight, e.g. 212.4 g or 1 lb 2.5 oz` }
   let mg = 0
   const units: WeightUnit[] = []
@@ -64,9 +76,11 @@ export function parseWeight(text: string): ParseWeightResult {
     units.push(unit)
     mg += toMilligrams(Number(num), unit)
   }
-  if (units.length === 2 && !(units[0] === 'lb' && units[1] === 'oz')) return { ok: false, message: 'Two numbers are read as pounds and ounces, e.g. 1 lb 2.5 oz' }
+  if (units.length === 2 && !(units[0] === 'lb' && units[1] === 'oz'))
+    return { ok: false, message: 'Two numbers are read as pounds and ounces, e.g. 1 lb 2.5 oz' }
   const rounded = Math.round(mg)
-  if (!Number.isSafeInteger(rounded) || rounded > 1_000_000_000) return { ok: false, message: 'That weight is too large for a bench scale: check the number and its unit' }
+  if (!Number.isSafeInteger(rounded) || rounded > 1_000_000_000)
+    return { ok: false, message: 'That weight is too large for a bench scale: check the number and its unit' }
   return { ok: true, mg: rounded }
 }
 
@@ -189,13 +203,25 @@ export function bagExpectation(lines: readonly BagLine[]): BagExpectation {
   const reasoning = [
     `Expected: ${lines.map((l) => `${l.quantity} × ${formatGrams(l.unitMg)} (${l.name})`).join(' + ')} = ${formatWeightBoth(expectedMg)}`,
     `Summed spread: ${lines.map((l) => `${l.quantity} × ±${formatGrams(l.spreadMg)}`).join(' + ')} = ±${formatGrams(summedSpreadMg)}`,
-    lightestLine ? `Floor: half the lightest part, ${lightestLine.name} ${formatGrams(lightestLine.unitMg)} ÷ 2 = ±${formatGrams(floorMg)}` : 'Floor: none (the bag holds no parts)',
+    lightestLine
+      ? `Floor: half the lightest part, ${lightestLine.name} ${formatGrams(lightestLine.unitMg)} ÷ 2 = ±${formatGrams(floorMg)}`
+      : 'Floor: none (the bag holds no parts)',
     `Tolerance: the larger, ±${formatGrams(toleranceMg)}; a bag from ${formatGrams(expectedMg - toleranceMg)} to ${formatGrams(expectedMg + toleranceMg)} passes`,
   ]
   if (missingPartCouldPass && lightestLine) {
-    reasoning.push(`Caution: the tolerance is not below one ${lightestLine.name} (${formatGrams(lightestLine.unitMg)}), so one missing could pass; weigh the spreads again or split the bag`)
+    reasoning.push(
+      `Caution: the tolerance is not below one ${lightestLine.name} (${formatGrams(lightestLine.unitMg)}), so one missing could pass; weigh the spreads again or split the bag`,
+    )
   }
-  return { expectedMg, toleranceMg, summedSpreadMg, floorMg, lightest: lightestLine && { sku: lightestLine.sku, name: lightestLine.name, unitMg: lightestLine.unitMg }, missingPartCouldPass, reasoning }
+  return {
+    expectedMg,
+    toleranceMg,
+    summedSpreadMg,
+    floorMg,
+    lightest: lightestLine && { sku: lightestLine.sku, name: lightestLine.name, unitMg: lightestLine.unitMg },
+    missingPartCouldPass,
+    reasoning,
+  }
 }
 
 /** What is wrong with a bag's lines, in words, or null. */
@@ -264,11 +290,16 @@ export function explainDifference(lines: readonly BagLine[], differenceMg: numbe
   walk(0, 0, 0)
   found.sort((a, b) => a.pieces - b.pieces || Math.abs(a.residual) - Math.abs(b.residual))
   const simplest = found[0]?.pieces
-  return found.filter((f) => f.pieces === simplest).slice(0, limit).map((f) => {
-    const named = f.counts.flatMap((c, i) => (c === 0 ? [] : [{ sku: parts[i]!.sku, name: parts[i]!.name, count: c, mg: c * parts[i]!.unitMg }]))
-    const words = named.map((n) => `${Math.abs(n.count)} × ${n.name} ${n.count < 0 ? 'missing' : 'extra'} (${n.count < 0 ? '−' : '+'}${formatGrams(Math.abs(n.mg))})`).join(', ')
-    return { parts: named, residualMg: f.residual, words }
-  })
+  return found
+    .filter((f) => f.pieces === simplest)
+    .slice(0, limit)
+    .map((f) => {
+      const named = f.counts.flatMap((c, i) => (c === 0 ? [] : [{ sku: parts[i]!.sku, name: parts[i]!.name, count: c, mg: c * parts[i]!.unitMg }]))
+      const words = named
+        .map((n) => `${Math.abs(n.count)} × ${n.name} ${n.count < 0 ? 'missing' : 'extra'} (${n.count < 0 ? '−' : '+'}${formatGrams(Math.abs(n.mg))})`)
+        .join(', ')
+      return { parts: named, residualMg: f.residual, words }
+    })
 }
 
 /** The bench's verdict on one weighed bag. */
@@ -287,12 +318,24 @@ export function judgeBag(lines: readonly BagLine[], expectation: BagExpectation,
   const differenceMg = measuredMg - expectation.expectedMg
   const signed = `${differenceMg < 0 ? '−' : '+'}${formatGrams(Math.abs(differenceMg))}`
   if (Math.abs(differenceMg) <= expectation.toleranceMg) {
-    return { accepted: true, differenceMg, explanations: [], words: `Accepted: ${formatGrams(measuredMg)} is ${signed} from ${formatGrams(expectation.expectedMg)}, within ±${formatGrams(expectation.toleranceMg)}` }
+    return {
+      accepted: true,
+      differenceMg,
+      explanations: [],
+      words: `Accepted: ${formatGrams(measuredMg)} is ${signed} from ${formatGrams(expectation.expectedMg)}, within ±${formatGrams(expectation.toleranceMg)}`,
+    }
   }
   const explanations = explainDifference(lines, differenceMg, Math.max(expectation.summedSpreadMg, SCALE_STEP_MG))
   const head = `Refused: ${formatGrams(measuredMg)} is ${signed} from ${formatGrams(expectation.expectedMg)}, outside ±${formatGrams(expectation.toleranceMg)}`
   const why = explanations[0]
-    ? `. Likely ${explanations[0].words}${explanations.length > 1 ? `; or ${explanations.slice(1).map((e) => e.words).join('; or ')}` : ''}`
+    ? `. Likely ${explanations[0].words}${
+        explanations.length > 1
+          ? `; or ${explanations
+              .slice(1)
+              .map((e) => e.words)
+              .join('; or ')}`
+          : ''
+      }`
     : ". No count of this bag's parts explains it: look for a wrong part or something else in the bag"
   return { accepted: false, differenceMg, explanations, words: head + why }
 }

@@ -146,7 +146,7 @@ describe('fittings table (ASTM D1785 pipe, ASTM D2466 Schedule 40 socket fitting
     expect(DEMO_TOTE_12_REV_A_FRAME.riser.pumpAdapter.socketDepth).toBe(schedule40SocketDepth('1/2'))
   })
 
-  it('checks the pipe left showing between sockets with the table\'s socket depth (demo revision A, by hand)', () => {
+  it("checks the pipe left showing between sockets with the table's socket depth (demo revision A, by hand)", () => {
     // Revision A's 3-5/16 in long-side pieces (worked above) sit 0.688 in into each socket:
     // 3.3125 − 2 × 0.688 = 1.9365 in shows, about 1-15/16 in. The 6-1/2 in riser: 6.5 − 2 × 0.688 = 5.124 in.
     const result = computeFrame(DEMO_TOTE_12_REV_A_FRAME)
@@ -293,9 +293,7 @@ describe('hand-worked frame', () => {
 
   it('writes the derivation in millimetres for a metric shop', () => {
     const metric = computeFrame(HAND_WORKED, { unit: 'mm' })
-    expect(metric.derivation[0]).toBe(
-      'centreline width = inside width 304.8 mm − 2 × (wall clearance 12.7 mm + half pipe OD 12.7 mm) = 254.0 mm',
-    )
+    expect(metric.derivation[0]).toBe('centreline width = inside width 304.8 mm − 2 × (wall clearance 12.7 mm + half pipe OD 12.7 mm) = 254.0 mm')
     expect(metric.cutList).toEqual(result.cutList.map((l) => ({ ...l, derivation: expect.any(Array) })))
   })
 
@@ -424,10 +422,9 @@ describe('impossible inputs give clear errors', () => {
       'Enter the pipe outside diameter as a length.',
       'The number of cross runs must be a whole number from 0 to 20.',
     ])
-    expect(
-      computeFrame({ ...HAND_WORKED, enclosure: { ...HAND_WORKED.enclosure, insideWidth: inches(21) } }).warnings[0]
-        ?.message,
-    ).toBe('The inside width (21") is more than the inside length (20"): enter the shorter side as the width.')
+    expect(computeFrame({ ...HAND_WORKED, enclosure: { ...HAND_WORKED.enclosure, insideWidth: inches(21) } }).warnings[0]?.message).toBe(
+      'The inside width (21") is more than the inside length (20"): enter the shorter side as the width.',
+    )
     expect(computeFrame({ ...HAND_WORKED, recessBelowRim: inches(14) }).warnings[0]?.message).toBe(
       'The recess below the rim (14") must be less than the inside height (14").',
     )
@@ -482,9 +479,7 @@ describe('properties', () => {
         // four corner-to-corner sides: sum of (cut + 2e) over the pieces of a side = the side's span
         // (both sides of a pair are summed together, hence ÷ 2)
         const perSide = (prefix: string) =>
-          result.cutList
-            .filter((l) => l.key.startsWith(prefix))
-            .reduce((sum, l) => sum + l.quantity * (l.length + 2 * e), 0) / 2
+          result.cutList.filter((l) => l.key.startsWith(prefix)).reduce((sum, l) => sum + l.quantity * (l.length + 2 * e), 0) / 2
         const longPieces = result.cutList.filter((l) => l.key.startsWith('long:')).reduce((n, l) => n + l.quantity, 0)
         const shortPieces = result.cutList.filter((l) => l.key.startsWith('short:')).reduce((n, l) => n + l.quantity, 0)
         expect(Math.abs(perSide('long:') - length)).toBeLessThanOrEqual((longPieces / 2) * half)
@@ -495,9 +490,7 @@ describe('properties', () => {
           expect(Math.abs(cross.length + 2 * e - width)).toBeLessThanOrEqual(half)
         }
         const s = inputs.sprayers
-        expect(result.sprayerHoles).toHaveLength(
-          2 * s.perLongSide + 2 * s.perShortSide + inputs.layout.crossRuns * s.perCrossRun,
-        )
+        expect(result.sprayerHoles).toHaveLength(2 * s.perLongSide + 2 * s.perShortSide + inputs.layout.crossRuns * s.perCrossRun)
         expect(result.ok).toBe(!result.warnings.some((w) => w.severity === 'error'))
       }),
       { numRuns: 200 },

@@ -91,7 +91,10 @@ export function promiseShipDate(input: PromiseInput): PromiseResult {
     const queueClears = t0 + input.unitsAhead[bench] * m
     if (input.unitsAhead[bench] > 0) {
       const days = Math.ceil((input.unitsAhead[bench] * m) / dayMinutes)
-      reasons.push({ weight: queueClears - done, words: `${bench} bench has ${input.unitsAhead[bench]} unit${input.unitsAhead[bench] === 1 ? '' : 's'} ahead (about ${days} working day${days === 1 ? '' : 's'})` })
+      reasons.push({
+        weight: queueClears - done,
+        words: `${bench} bench has ${input.unitsAhead[bench]} unit${input.unitsAhead[bench] === 1 ? '' : 's'} ahead (about ${days} working day${days === 1 ? '' : 's'})`,
+      })
     }
     done = Math.max(done, queueClears) + input.ownUnits[bench] * m
   }
@@ -99,7 +102,10 @@ export function promiseShipDate(input: PromiseInput): PromiseResult {
   const floor = input.minimumDate
   if (floor > date) {
     date = floor
-    reasons.push({ weight: Number.MAX_SAFE_INTEGER, words: `the shop's minimum lead time of ${input.minimumWorkingDays} working day${input.minimumWorkingDays === 1 ? '' : 's'}` })
+    reasons.push({
+      weight: Number.MAX_SAFE_INTEGER,
+      words: `the shop's minimum lead time of ${input.minimumWorkingDays} working day${input.minimumWorkingDays === 1 ? '' : 's'}`,
+    })
   }
   if (!isWorkingDay(date)) date = workingDayOnOrAfter(date)
   return { date, reasons: reasons.sort((a, b) => b.weight - a.weight).map((r) => r.words) }

@@ -21,8 +21,7 @@ export const CUTTING_CAUTION =
   'Cutting: wear eye protection (PVC chips fly). Clamp the work; never hold a short piece by hand near the blade, and let the blade stop before reaching in. Follow the saw or cutter maker’s instructions.'
 
 /** Drilling and tapping holes in pipe. */
-export const DRILLING_CAUTION =
-  'Drilling: wear eye protection and clamp the pipe or manifold; never hold it by hand near the bit.'
+export const DRILLING_CAUTION = 'Drilling: wear eye protection and clamp the pipe or manifold; never hold it by hand near the bit.'
 
 /** Primer and solvent cement. */
 export const SOLVENT_CEMENT_CAUTION =

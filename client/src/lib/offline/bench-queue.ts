@@ -53,7 +53,15 @@ const RECENT_MS = 10_000
 /** A send with no answer in this time counts as "no network" (a weak Wi-Fi can hang a request for minutes). */
 const SEND_TIMEOUT_MS = 20_000
 
-let state: QueueState = { online: typeof navigator === 'undefined' ? true : navigator.onLine, backOnlineAt: null, actions: [], recent: [], replayed: 0, stalled: false, userId: null }
+let state: QueueState = {
+  online: typeof navigator === 'undefined' ? true : navigator.onLine,
+  backOnlineAt: null,
+  actions: [],
+  recent: [],
+  replayed: 0,
+  stalled: false,
+  userId: null,
+}
 const listeners = new Set<() => void>()
 
 function update(patch: Partial<QueueState>) {
@@ -219,13 +227,18 @@ async function sendOne(action: QueuedAction): Promise<'next' | 'stop'> {
     const headers = { [BENCH_ACTION_ID_HEADER]: action.id, [BENCH_ACTION_TAKEN_AT_HEADER]: action.takenAt, 'x-kitwright-bench': action.bench }
     const signal = AbortSignal.timeout(SEND_TIMEOUT_MS)
     // The photo sender (and the build contract it reads) loads only when a photo is sent.
-    const data = action.photo ? await (await import('./photo-upload')).sendPhoto(action, headers, signal) : await apiFetch(action.path, z.unknown(), { method: 'POST', body: action.body, headers, signal })
+    const data = action.photo
+      ? await (await import('./photo-upload')).sendPhoto(action, headers, signal)
+      : await apiFetch(action.path, z.unknown(), { method: 'POST', body: action.body, headers, signal })
     await removeAction(action.seq!)
     const now = Date.now()
     const sent: QueuedAction = { ...action }
     delete sent.photo
     sentAt.set(sent, now)
-    update({ actions: state.actions.filter((a) => a.seq !== action.seq), recent: [...state.recent.filter((a) => now - (sentAt.get(a) ?? 0) < RECENT_MS), sent] })
+    update({
+      actions: state.actions.filter((a) => a.seq !== action.seq),
+      recent: [...state.recent.filter((a) => now - (sentAt.get(a) ?? 0) < RECENT_MS), sent],
+    })
     forgetRecentLater()
     markOnline()
     if (waiter) {
@@ -258,4 +271,3 @@ async function sendOne(action: QueuedAction): Promise<'next' | 'stop'> {
     sendingId = null
   }
 }
-

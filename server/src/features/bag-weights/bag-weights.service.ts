@@ -1,6 +1,15 @@
 import { z } from 'zod'
 import { bagExpectation, judgeBag, sampleUnitWeight, spreadFromSingles, type BagLine } from '@kitwright/shared/domain/bag-weight'
-import type { BagCheck, BagLineView, BagWeighing, PartUnitWeight, RecordUnitWeightSchema, UnitWeight, WeighBagResult, WeighBagSchema } from '@kitwright/shared/bag-weights'
+import type {
+  BagCheck,
+  BagLineView,
+  BagWeighing,
+  PartUnitWeight,
+  RecordUnitWeightSchema,
+  UnitWeight,
+  WeighBagResult,
+  WeighBagSchema,
+} from '@kitwright/shared/bag-weights'
 import { ExplanationSchema } from '@kitwright/shared/bag-weights'
 import type { Db, Tx } from '../../db/client'
 import { bagWeighings, unitWeightSamples } from '../../db/schema/index'
@@ -11,7 +20,16 @@ import { Conflict, HttpError, NotFound } from '../../lib/http-errors'
 import { loadPackData } from '../pack/pack-view'
 import { bomOfRevisions } from '../pack/pack.queries'
 import { tickItem, undoItem } from '../pack/pack.service'
-import { countableParts, findPart, latestSamples, latestWeighingsOfOrder, samplesOfPart, weighingByRequestKey, type SampleWithNames, type WeighingWithName } from './bag-weights.queries'
+import {
+  countableParts,
+  findPart,
+  latestSamples,
+  latestWeighingsOfOrder,
+  samplesOfPart,
+  weighingByRequestKey,
+  type SampleWithNames,
+  type WeighingWithName,
+} from './bag-weights.queries'
 
 type Conn = Db | Tx
 type PackDeps = Pick<Deps, 'db' | 'carrier'>
@@ -53,7 +71,13 @@ export async function unitWeightHistory(db: Conn, partId: string): Promise<UnitW
  * Records a part's unit weight from a counted sample: divides, keeps it to 0.01 g, takes the spread
  * from the single pieces or the typed tolerance. Only parts stocked "each" can be counted.
  */
-export async function recordUnitWeight(db: Db, partId: string, input: z.output<typeof RecordUnitWeightSchema>, actor: SessionUser, ctx: AuditContext): Promise<UnitWeight> {
+export async function recordUnitWeight(
+  db: Db,
+  partId: string,
+  input: z.output<typeof RecordUnitWeightSchema>,
+  actor: SessionUser,
+  ctx: AuditContext,
+): Promise<UnitWeight> {
   const part = await findPart(db, partId)
   if (!part) throw new NotFound('No such part')
   if (part.kind === 'stock_length' || part.unitOfMeasure !== 'each') {
@@ -77,7 +101,13 @@ export async function recordUnitWeight(db: Db, partId: string, input: z.output<t
         recordedBy: actor.id,
       })
       .returning()
-    await recordAudit(tx, ctx, { action: 'unit_weight.recorded', entityType: 'part', entityId: partId, summary: `${sample.words}; spread ±${(spreadMg / 1000).toFixed(2)} g`, data: { unitMg: sample.unitMg, spreadMg, sampleCount: input.sampleCount, sampleMg: input.sampleWeight.mg } })
+    await recordAudit(tx, ctx, {
+      action: 'unit_weight.recorded',
+      entityType: 'part',
+      entityId: partId,
+      summary: `${sample.words}; spread ±${(spreadMg / 1000).toFixed(2)} g`,
+      data: { unitMg: sample.unitMg, spreadMg, sampleCount: input.sampleCount, sampleMg: input.sampleWeight.mg },
+    })
     return toUnitWeight({ ...row!, recordedByName: actor.name, partName: part.name })
   })
 }
@@ -142,10 +172,14 @@ async function bagFacts(db: Conn, orderId: string): Promise<BagFacts[]> {
     let problem: string | null = null
     const notEach = chosen.find(({ b }) => b.unitOfMeasure !== 'each')
     const unweighed = views.filter((v) => v.unitMg === null)
-    if (views.filter((v) => !v.isBag).length === 0) problem = `No parts are marked to go loose in this bag: a planner ticks "goes loose in the hardware bag" on the parts' unit weights`
+    if (views.filter((v) => !v.isBag).length === 0)
+      problem = `No parts are marked to go loose in this bag: a planner ticks "goes loose in the hardware bag" on the parts' unit weights`
     else if (notEach) problem = `${notEach.b.name} is stocked by the ${notEach.b.unitOfMeasure}: this bag cannot be checked by weight`
-    else if (unweighed.length > 0) problem = `No unit weight yet for ${unweighed.map((v) => v.name).join(', ')}: a planner weighs a counted sample on the Unit weights page`
-    const lines: BagLine[] = problem ? [] : views.map((v) => ({ partId: v.partId, sku: v.sku, name: v.name, quantity: v.quantity, unitMg: v.unitMg!, spreadMg: v.spreadMg!, isBag: v.isBag }))
+    else if (unweighed.length > 0)
+      problem = `No unit weight yet for ${unweighed.map((v) => v.name).join(', ')}: a planner weighs a counted sample on the Unit weights page`
+    const lines: BagLine[] = problem
+      ? []
+      : views.map((v) => ({ partId: v.partId, sku: v.sku, name: v.name, quantity: v.quantity, unitMg: v.unitMg!, spreadMg: v.spreadMg!, isBag: v.isBag }))
     const e = problem ? null : bagExpectation(lines)
     const last = weighings.get(`${item.workOrderId} ${item.key}`)
     facts.push({
@@ -155,7 +189,14 @@ async function bagFacts(db: Conn, orderId: string): Promise<BagFacts[]> {
         serial: item.serial,
         description: item.description,
         lines: views,
-        expectation: e && { expectedMg: e.expectedMg, toleranceMg: e.toleranceMg, summedSpreadMg: e.summedSpreadMg, floorMg: e.floorMg, missingPartCouldPass: e.missingPartCouldPass, reasoning: e.reasoning },
+        expectation: e && {
+          expectedMg: e.expectedMg,
+          toleranceMg: e.toleranceMg,
+          summedSpreadMg: e.summedSpreadMg,
+          floorMg: e.floorMg,
+          missingPartCouldPass: e.missingPartCouldPass,
+          reasoning: e.reasoning,
+        },
         problem,
         lastWeighing: last ? toWeighing(last) : null,
       },
@@ -183,7 +224,8 @@ export async function weighBag(deps: PackDeps, orderId: string, input: z.output<
   if (input.requestKey) {
     const earlier = await weighingByRequestKey(deps.db, input.requestKey)
     if (earlier) {
-      if (earlier.weighing.orderId !== orderId || earlier.weighing.itemKey !== input.itemKey) throw new Conflict('That request key was used for another bag: send a new one')
+      if (earlier.weighing.orderId !== orderId || earlier.weighing.itemKey !== input.itemKey)
+        throw new Conflict('That request key was used for another bag: send a new one')
       const facts = (await bagFacts(deps.db, orderId)).find((f) => f.check.itemKey === input.itemKey)
       return { weighing: toWeighing(earlier), confirmed: facts?.confirmed ?? false, confirmProblem: null }
     }
@@ -248,4 +290,3 @@ export async function bagLabelFacts(db: Conn, orderId: string, itemKey: string) 
   if (!last || !last.accepted) throw new Conflict('Weigh the bag first: its label carries the accepted weight')
   return { itemKey, serial: bag.check.serial, orderNumber: bag.orderNumber, lines: bag.check.lines, measuredMg: last.measuredMg, weighedAt: last.weighedAt }
 }
-

@@ -48,13 +48,19 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
     const alike = benchActionOf(req) ? await pageIfTickedAlike(deps.db, deps.storage, workOrderId, stepId, input) : null
     if (alike) {
       const step = alike.steps.find((s) => s.id === stepId)
-      await audit(req, 'build.tick_again', workOrderId, `Step ${step?.position ?? ''} of ${alike.workOrder.serial} was ticked already by ${step?.tick?.by.name ?? 'someone'}; this tick changed nothing`)
+      await audit(
+        req,
+        'build.tick_again',
+        workOrderId,
+        `Step ${step?.position ?? ''} of ${alike.workOrder.serial} was ticked already by ${step?.tick?.by.name ?? 'someone'}; this tick changed nothing`,
+      )
       res.json(alike)
       return
     }
     const { page, outOfLimits } = await tickStep(deps.db, deps.storage, workOrderId, stepId, input, currentUser(req))
     const step = page.steps.find((s) => s.id === stepId)
-    const flagged = outOfLimits && step?.tick ? ` (out of limits: ${step.tick.measurement} ${step.measurementUnit ?? ''}, ${step.tick.outOfLimitsReason ?? ''})` : ''
+    const flagged =
+      outOfLimits && step?.tick ? ` (out of limits: ${step.tick.measurement} ${step.measurementUnit ?? ''}, ${step.tick.outOfLimitsReason ?? ''})` : ''
     await audit(req, 'build.tick', workOrderId, `Ticked step ${step?.position ?? ''} of ${page.workOrder.serial}${flagged}`)
     res.json(page)
   })
@@ -77,7 +83,12 @@ export function buildRouter(deps: Deps, routes: RouteTable) {
     const { workOrderId } = WorkOrderParamsSchema.parse(req.params)
     const page = await recordLeakTest(deps.db, deps.storage, workOrderId, RecordLeakTestSchema.parse(req.body), currentUser(req))
     const latest = page.leakTests.at(-1)
-    await audit(req, 'build.leak_test', workOrderId, `Leak test ${latest ? `attempt ${latest.attempt} ${latest.passed ? 'passed' : 'failed'}` : 'recorded'} on ${page.workOrder.serial}`)
+    await audit(
+      req,
+      'build.leak_test',
+      workOrderId,
+      `Leak test ${latest ? `attempt ${latest.attempt} ${latest.passed ? 'passed' : 'failed'}` : 'recorded'} on ${page.workOrder.serial}`,
+    )
     res.status(201).json(page)
   })
   return r

@@ -129,7 +129,14 @@ function stepsBefore(step: BuildStepRow, steps: readonly BuildStepRow[], ticked:
  * a value outside the limits needs a reason, is recorded and flagged, and sends the unit to rework
  * when the revision says so. A step that needs a photo needs the photo first. The first tick starts the build.
  */
-export async function tickStep(db: Db, storage: Storage, workOrderId: string, stepId: string, input: TickStep, actor: SessionUser): Promise<{ page: BuildPage; outOfLimits: boolean }> {
+export async function tickStep(
+  db: Db,
+  storage: Storage,
+  workOrderId: string,
+  stepId: string,
+  input: TickStep,
+  actor: SessionUser,
+): Promise<{ page: BuildPage; outOfLimits: boolean }> {
   let outOfLimits = false
   await db.transaction(async (tx) => {
     const wo = await lockBuildable(tx, workOrderId)
@@ -151,7 +158,9 @@ export async function tickStep(db: Db, storage: Storage, workOrderId: string, st
     const unit = step.measurementUnit ?? ''
     if (step.measurementRequired) {
       if (input.measurement === null) {
-        throw new BadRequest(`Step ${step.position} needs a measurement in ${unit} before it can be ticked`, { measurement: `Enter the measurement in ${unit}` })
+        throw new BadRequest(`Step ${step.position} needs a measurement in ${unit} before it can be ticked`, {
+          measurement: `Enter the measurement in ${unit}`,
+        })
       }
       if (typeof input.measurement === 'number') measurement = input.measurement
       else {
@@ -164,14 +173,24 @@ export async function tickStep(db: Db, storage: Storage, workOrderId: string, st
       outOfLimits = outsideLimits(measurement, min, max)
       if (outOfLimits && !input.reason) {
         const then = step.outOfLimitsRework ? 'the unit then goes to rework' : 'it is flagged to the planner'
-        throw new BadRequest(`${measurement} ${unit} is outside the limits of step ${step.position} (${limitsText(min, max, step.measurementUnit)}): measure again, or give a reason to record it (${then})`, {
-          reason: 'Say why this out-of-limits value is recorded',
-        })
+        throw new BadRequest(
+          `${measurement} ${unit} is outside the limits of step ${step.position} (${limitsText(min, max, step.measurementUnit)}): measure again, or give a reason to record it (${then})`,
+          {
+            reason: 'Say why this out-of-limits value is recorded',
+          },
+        )
       }
       if (outOfLimits && step.outOfLimitsRework) {
         const [tick] = await tx
           .insert(buildStepTicks)
-          .values({ workOrderId: wo.id, buildStepId: step.id, tickedBy: actor.id, measurement: String(measurement), outOfLimits, outOfLimitsReason: input.reason })
+          .values({
+            workOrderId: wo.id,
+            buildStepId: step.id,
+            tickedBy: actor.id,
+            measurement: String(measurement),
+            outOfLimits,
+            outOfLimitsReason: input.reason,
+          })
           .returning()
         await tx.insert(reworkEntries).values({
           workOrderId: wo.id,
@@ -245,7 +264,8 @@ export async function recordLeakTest(
     const wo = await lockBuildable(tx, workOrderId)
     const found = await findRevisionWithKit(tx, wo.kitRevisionId)
     const protocol = found ? protocolOf(found.revision) : null
-    if (!protocol) throw new Conflict(`Revision ${found?.revision.code ?? ''} of ${found?.kit.sku ?? 'this kit'} has no leak test protocol; there is no leak test to record`)
+    if (!protocol)
+      throw new Conflict(`Revision ${found?.revision.code ?? ''} of ${found?.kit.sku ?? 'this kit'} has no leak test protocol; there is no leak test to record`)
     // The leak test comes after the build: every step must be ticked first.
     const steps = await stepsOfRevision(tx, wo.kitRevisionId)
     const ticked = new Set((await ticksOfWorkOrder(tx, wo.id)).filter((t) => t.undoneAt === null).map((t) => t.buildStepId))
@@ -284,7 +304,9 @@ export async function recordLeakTest(
         .where(and(eq(reworkEntries.workOrderId, wo.id), isNull(reworkEntries.resolvedAt), isNull(reworkEntries.stepTickId)))
     } else {
       const note = input.leakNote ? ` (${input.leakNote})` : ''
-      await tx.insert(reworkEntries).values({ workOrderId: wo.id, leakTestId: test!.id, reason: `Leak test ${attempt} failed: ${reason}${note}`, createdBy: actor.id })
+      await tx
+        .insert(reworkEntries)
+        .values({ workOrderId: wo.id, leakTestId: test!.id, reason: `Leak test ${attempt} failed: ${reason}${note}`, createdBy: actor.id })
     }
     await settle(tx, wo)
   })

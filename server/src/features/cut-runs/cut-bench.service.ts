@@ -28,7 +28,10 @@ async function publishedRun(tx: Tx | Db, id: string): Promise<CutRunRow> {
 
 /** The cut and its stick, the stick locked so ticks on one stick queue one behind the other. */
 async function lockCut(tx: Tx, runId: string, cutId: string) {
-  const [found] = await tx.select().from(cutRunCuts).where(and(eq(cutRunCuts.id, cutId), eq(cutRunCuts.cutRunId, runId)))
+  const [found] = await tx
+    .select()
+    .from(cutRunCuts)
+    .where(and(eq(cutRunCuts.id, cutId), eq(cutRunCuts.cutRunId, runId)))
   if (!found) throw new NotFound('No such cut in this run')
   const [stick] = await tx.select().from(cutRunSticks).where(eq(cutRunSticks.id, found.stickId)).for('update')
   const [cut] = await tx.select().from(cutRunCuts).where(eq(cutRunCuts.id, cutId))
@@ -40,11 +43,15 @@ async function lockCut(tx: Tx, runId: string, cutId: string) {
  * or spoiled piece sends a `cut` work order back to waiting.
  */
 async function settleWorkOrder(tx: Tx, workOrderId: string) {
-  const [counts] = await tx.execute<{ pending: number; total: number }>(sql`
+  const [counts] = await tx
+    .execute<{ pending: number; total: number }>(
+      sql`
     select count(*) filter (where c.status = 'pending')::int as pending, count(*)::int as total
     from cut_run_cuts c join cut_runs r on r.id = c.cut_run_id
     where c.work_order_id = ${workOrderId} and r.status in ('published', 'done') and c.status <> 'replanned'
-  `).then((r) => r.rows)
+  `,
+    )
+    .then((r) => r.rows)
   const [bin] = await tx.select({ id: bins.id }).from(bins).where(eq(bins.workOrderId, workOrderId))
   const [wo] = await tx.select().from(workOrders).where(eq(workOrders.id, workOrderId)).for('update')
   if (!wo) return
@@ -82,12 +89,23 @@ export async function tickCutOnce(db: Db, runId: string, cutId: string, actor: A
     if (cut.status === 'replanned') throw new Conflict('This piece was moved to another stick by a re-plan; cut it there')
     if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} was marked damaged; its pieces are on other sticks now`)
     await startStick(tx, run, stick, actor)
-    await tx.update(cutRunCuts).set({ status: 'cut', cutBy: actor.id, cutAt: new Date() }).where(and(eq(cutRunCuts.id, cut.id), eq(cutRunCuts.status, 'pending')))
+    await tx
+      .update(cutRunCuts)
+      .set({ status: 'cut', cutBy: actor.id, cutAt: new Date() })
+      .where(and(eq(cutRunCuts.id, cut.id), eq(cutRunCuts.status, 'pending')))
     // A piece of a unit cancelled after the run was published goes straight to the offcut rack.
     const [owner] = await tx.select({ status: workOrders.status, serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, cut.workOrderId))
     if (owner?.status === 'cancelled') {
       const note = `Piece cut for cancelled unit ${owner.serial} (cut run ${run.number})`
-      await stockCutPiece(tx, { partId: stick.partId, length: cut.length, workOrderId: cut.workOrderId, minOffcut: run.minOffcut, note, reason: `Cut run ${run.number}: unit ${owner.serial} was cancelled`, actorId: actor.id })
+      await stockCutPiece(tx, {
+        partId: stick.partId,
+        length: cut.length,
+        workOrderId: cut.workOrderId,
+        minOffcut: run.minOffcut,
+        note,
+        reason: `Cut run ${run.number}: unit ${owner.serial} was cancelled`,
+        actorId: actor.id,
+      })
     }
     const [left] = await tx
       .select({ id: cutRunCuts.id })
@@ -113,9 +131,11 @@ export async function undoCut(db: Db, runId: string, cutId: string, actor: Actor
     if (cut.status !== 'cut') throw new Conflict('This piece is not ticked; there is nothing to undo')
     if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} was marked damaged; its ticks stay as they are`)
     const [wo] = await tx.select().from(workOrders).where(eq(workOrders.id, cut.workOrderId))
-    if (wo && !['waiting_cut', 'cut'].includes(wo.status)) throw new Conflict(`Work order ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)} already; its pieces left the cut bench`)
+    if (wo && !['waiting_cut', 'cut'].includes(wo.status))
+      throw new Conflict(`Work order ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)} already; its pieces left the cut bench`)
     if (stick.status === 'done') {
-      if (!(await unstockRemnant(tx, run, stick, actor))) throw new Conflict(`The offcut from stick ${stick.position} is already planned or used elsewhere; the tick stays`)
+      if (!(await unstockRemnant(tx, run, stick, actor)))
+        throw new Conflict(`The offcut from stick ${stick.position} is already planned or used elsewhere; the tick stays`)
       await tx.update(cutRunSticks).set({ status: 'in_progress', finishedAt: null }).where(eq(cutRunSticks.id, stick.id))
     }
     await tx.update(cutRunCuts).set({ status: 'pending', cutBy: null, cutAt: null }).where(eq(cutRunCuts.id, cut.id))
@@ -134,7 +154,10 @@ export async function undoCut(db: Db, runId: string, cutId: string, actor: Actor
 export async function damageStick(db: Db, runId: string, stickId: string, input: DamageStick, actor: Actor): Promise<CutRunDetail> {
   const run = await publishedRun(db, runId)
   if (run.status !== 'published') throw new Conflict(`Cut run ${run.number} is ${statusInSentence(CUT_RUN_STATUS_LABELS, run.status)}`)
-  const [stick] = await db.select().from(cutRunSticks).where(and(eq(cutRunSticks.id, stickId), eq(cutRunSticks.cutRunId, runId)))
+  const [stick] = await db
+    .select()
+    .from(cutRunSticks)
+    .where(and(eq(cutRunSticks.id, stickId), eq(cutRunSticks.cutRunId, runId)))
   if (!stick) throw new NotFound('No such stick in this run')
   if (stick.status === 'damaged') throw new Conflict(`Stick ${stick.position} is already marked damaged`)
   const cuts = await db.select().from(cutRunCuts).where(eq(cutRunCuts.stickId, stickId))
@@ -174,15 +197,33 @@ export async function damageStick(db: Db, runId: string, stickId: string, input:
     const same = locked!.status === stick.status && now.every((c) => c.status === cuts.find((x) => x.id === c.id)?.status)
     if (!same) throw new Conflict('The stick changed while it was being re-planned; mark it again')
     await startStick(tx, run, locked!, actor)
-    await tx.update(cutRunSticks).set({ status: 'damaged', damagedReason: input.reason, damagedBy: actor.id, damagedAt: new Date() }).where(eq(cutRunSticks.id, stickId))
+    await tx
+      .update(cutRunSticks)
+      .set({ status: 'damaged', damagedReason: input.reason, damagedBy: actor.id, damagedAt: new Date() })
+      .where(eq(cutRunSticks.id, stickId))
     if (locked!.sourceOffcutId) await tx.update(offcuts).set({ status: 'scrapped' }).where(eq(offcuts.id, locked!.sourceOffcutId))
     if (affected.length > 0) {
-      await tx.update(cutRunCuts).set({ status: 'replanned' }).where(inArray(cutRunCuts.id, affected.map((c) => c.id)))
+      await tx
+        .update(cutRunCuts)
+        .set({ status: 'replanned' })
+        .where(
+          inArray(
+            cutRunCuts.id,
+            affected.map((c) => c.id),
+          ),
+        )
       const plan = plans[0]!.plan
       const lines = plan.totals.stock.filter((s) => s.count > 0).map((s) => ({ partId: stick.partId, stickLength: s.length, quantity: s.count }))
       if (lines.length > 0) await reserveStock(tx, { workOrderId: null, lines, reason: `Cut run ${run.number}: re-plan of stick ${stick.position}` }, actor)
-      await reserveOffcuts(tx, plan.sticks.flatMap((s) => (s.source.kind === 'offcut' ? [s.source.offcutId] : [])), unit)
-      const [last] = await tx.select({ position: max(cutRunSticks.position), pattern: max(cutRunSticks.patternIndex) }).from(cutRunSticks).where(eq(cutRunSticks.cutRunId, runId))
+      await reserveOffcuts(
+        tx,
+        plan.sticks.flatMap((s) => (s.source.kind === 'offcut' ? [s.source.offcutId] : [])),
+        unit,
+      )
+      const [last] = await tx
+        .select({ position: max(cutRunSticks.position), pattern: max(cutRunSticks.patternIndex) })
+        .from(cutRunSticks)
+        .where(eq(cutRunSticks.cutRunId, runId))
       await insertPlanRows(
         tx,
         runId,

@@ -33,7 +33,9 @@ export function recallNoticeContent(input: {
     '',
     opening,
     ...(shipped.length ? ['', 'It is in the unit(s) we sent you:', ...shipped.map((u) => `  ${line(u)}`)] : []),
-    ...(here.length ? ['', 'These unit(s) are still in our workshop; we will not ship them with a part from that lot:', ...here.map((u) => `  ${line(u)}`)] : []),
+    ...(here.length
+      ? ['', 'These unit(s) are still in our workshop; we will not ship them with a part from that lot:', ...here.map((u) => `  ${line(u)}`)]
+      : []),
     '',
     input.message,
     ...(input.part.electrical && shipped.length ? ['', ELECTRICAL_CAUTION] : []),

@@ -14,7 +14,10 @@ import { getShopSettings } from '../settings/settings.service'
 import { recallNoticeContent, recallPurpose } from './recall-mail'
 
 type Conn = Db | Tx
-const ON_HAND = sql.join(ON_HAND_MOVE_KINDS.map((k) => sql`${k}`), sql`, `)
+const ON_HAND = sql.join(
+  ON_HAND_MOVE_KINDS.map((k) => sql`${k}`),
+  sql`, `,
+)
 const iso = (v: Date | string) => new Date(v).toISOString()
 
 interface LotRecord extends Record<string, unknown> {
@@ -120,7 +123,15 @@ function toRecallUnit(r: RecallRecord): RecallUnit {
     customer: { name: r.customerName, email: r.customerEmail },
     shippedAt: r.shippedAt === null ? null : iso(r.shippedAt),
     trackingNumber: r.trackingNumber,
-    shipTo: { name: r.shipName, line1: r.shipLine1, line2: r.shipLine2, city: r.shipCity, region: r.shipRegion, postalCode: r.shipPostalCode, country: r.shipCountry },
+    shipTo: {
+      name: r.shipName,
+      line1: r.shipLine1,
+      line2: r.shipLine2,
+      city: r.shipCity,
+      region: r.shipRegion,
+      postalCode: r.shipPostalCode,
+      country: r.shipCountry,
+    },
     notifiedAt: r.notifiedAt === null ? null : iso(r.notifiedAt),
   }
 }
@@ -144,23 +155,64 @@ export async function lotDetail(db: Conn, lotId: string): Promise<LotDetail> {
   const untold = new Set(units.filter((u) => u.notifiedAt === null).map((u) => u.customerEmail.toLowerCase()))
   return {
     ...toSummary(lot),
-    receipts: receipts.rows.map((r) => ({ quantity: r.quantity, reference: r.reference, at: iso(r.at), by: r.byId && r.byName ? { id: r.byId, name: r.byName } : null })),
+    receipts: receipts.rows.map((r) => ({
+      quantity: r.quantity,
+      reference: r.reference,
+      at: iso(r.at),
+      by: r.byId && r.byName ? { id: r.byId, name: r.byName } : null,
+    })),
     recall: units.map(toRecallUnit),
     customers: emails.size,
     customersNotified: emails.size - untold.size,
   }
 }
 
-export const RECALL_CSV_HEADER = ['Lot', 'Part SKU', 'Part', 'Serial', 'Unit status', 'Quantity fitted', 'Fitted at', 'Order', 'Customer', 'E-mail', 'Shipped at', 'Tracking', 'Ship to', 'Address', 'City', 'Region', 'Postal code', 'Country', 'Customer told at']
+export const RECALL_CSV_HEADER = [
+  'Lot',
+  'Part SKU',
+  'Part',
+  'Serial',
+  'Unit status',
+  'Quantity fitted',
+  'Fitted at',
+  'Order',
+  'Customer',
+  'E-mail',
+  'Shipped at',
+  'Tracking',
+  'Ship to',
+  'Address',
+  'City',
+  'Region',
+  'Postal code',
+  'Country',
+  'Customer told at',
+]
 
 /** Every unit built with the lot, as CSV: text cells neutralised so no cell runs as a spreadsheet formula. */
 export async function recallCsv(db: Db, lotId: string): Promise<{ csv: string; code: string }> {
   const detail = await lotDetail(db, lotId)
   const data = detail.recall.map((u) =>
     [
-      detail.code, detail.part.sku, detail.part.name, u.serial, u.status, u.quantity, u.fittedAt, u.order.number, u.customer.name, u.customer.email,
-      u.shippedAt ?? '', u.trackingNumber ?? '', u.shipTo.name, [u.shipTo.line1, u.shipTo.line2].filter(Boolean).join(', '), u.shipTo.city, u.shipTo.region ?? '',
-      u.shipTo.postalCode, u.shipTo.country, u.notifiedAt ?? '',
+      detail.code,
+      detail.part.sku,
+      detail.part.name,
+      u.serial,
+      u.status,
+      u.quantity,
+      u.fittedAt,
+      u.order.number,
+      u.customer.name,
+      u.customer.email,
+      u.shippedAt ?? '',
+      u.trackingNumber ?? '',
+      u.shipTo.name,
+      [u.shipTo.line1, u.shipTo.line2].filter(Boolean).join(', '),
+      u.shipTo.city,
+      u.shipTo.region ?? '',
+      u.shipTo.postalCode,
+      u.shipTo.country,
+      u.notifiedAt ?? '',
     ].map((cell) => (typeof cell === 'string' ? neutraliseCsvCell(cell) : cell)),
   )
   // A byte-order mark so spreadsheet programs read the file as UTF-8.
@@ -187,7 +239,10 @@ export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: strin
     for (const u of units) byCustomer.set(u.customerEmail.toLowerCase(), [...(byCustomer.get(u.customerEmail.toLowerCase()) ?? []), u])
     for (const [email, all] of [...byCustomer.entries()].sort(([a], [b]) => a.localeCompare(b))) {
       // Orders an earlier notice to this customer already spoke of are not told again.
-      const [earlier] = await tx.select().from(lotRecallNotices).where(and(eq(lotRecallNotices.lotId, lotId), eq(lotRecallNotices.customerEmail, email)))
+      const [earlier] = await tx
+        .select()
+        .from(lotRecallNotices)
+        .where(and(eq(lotRecallNotices.lotId, lotId), eq(lotRecallNotices.customerEmail, email)))
       const told = new Set(earlier?.orderIds ?? [])
       const theirs = all.filter((u) => !told.has(u.orderId))
       if (theirs.length === 0) {
@@ -197,10 +252,16 @@ export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: strin
       const orderIds = [...new Set(theirs.map((u) => u.orderId))]
       let noticeId: string
       if (earlier) {
-        await tx.update(lotRecallNotices).set({ orderIds: [...earlier.orderIds, ...orderIds] }).where(eq(lotRecallNotices.id, earlier.id))
+        await tx
+          .update(lotRecallNotices)
+          .set({ orderIds: [...earlier.orderIds, ...orderIds] })
+          .where(eq(lotRecallNotices.id, earlier.id))
         noticeId = earlier.id
       } else {
-        const [notice] = await tx.insert(lotRecallNotices).values({ lotId, customerEmail: email, orderIds, queuedBy: actor.id }).returning({ id: lotRecallNotices.id })
+        const [notice] = await tx
+          .insert(lotRecallNotices)
+          .values({ lotId, customerEmail: email, orderIds, queuedBy: actor.id })
+          .returning({ id: lotRecallNotices.id })
         noticeId = notice!.id
       }
       const first = theirs[0]!
@@ -209,13 +270,22 @@ export async function notifyRecall(deps: Pick<Deps, 'db' | 'jobs'>, lotId: strin
         customerName: first.customerName,
         part: { sku: lot.sku, name: lot.name, electrical: lot.electrical },
         lotCode: lot.code,
-        units: theirs.map((u) => ({ serial: u.serial, orderNumber: u.orderNumber, kitName: u.kitName, shipped: u.shippedAt !== null || u.status === 'shipped' })),
+        units: theirs.map((u) => ({
+          serial: u.serial,
+          orderNumber: u.orderNumber,
+          kitName: u.kitName,
+          shipped: u.shippedAt !== null || u.status === 'shipped',
+        })),
         message: input.message,
       })
       // The outbox keeps one message per order and purpose: the first order not yet told carries it.
       const mailId = await queueMail(tx, deps.jobs, { to: first.customerEmail, ...content, orderId: first.orderId, purpose: recallPurpose(lotId) })
       if (!earlier) await tx.update(lotRecallNotices).set({ mailId }).where(eq(lotRecallNotices.id, noticeId))
-      const serialsOf = (orderId: string) => theirs.filter((u) => u.orderId === orderId).map((u) => u.serial).join(', ')
+      const serialsOf = (orderId: string) =>
+        theirs
+          .filter((u) => u.orderId === orderId)
+          .map((u) => u.serial)
+          .join(', ')
       for (const orderId of orderIds) {
         await addOrderEvent(tx, {
           orderId,

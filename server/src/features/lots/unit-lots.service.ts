@@ -35,7 +35,7 @@ export async function fitLot(db: Db, storage: Storage, workOrderId: string, inpu
   await db.transaction(async (tx) => {
     const wo = await lockBuildable(tx, workOrderId)
     const [part] = await lockParts(tx, [input.partId])
-    if (!part) throw new BadRequest('No such part: choose the part from the unit\'s list of lot-tracked parts', { partId: 'No such part' })
+    if (!part) throw new BadRequest("No such part: choose the part from the unit's list of lot-tracked parts", { partId: 'No such part' })
     const needs = await lotNeedsOf(tx, wo)
     const need = needs.find((n) => n.partId === part.id)
     if (!need) {
@@ -44,7 +44,10 @@ export async function fitLot(db: Db, storage: Storage, workOrderId: string, inpu
       throw new BadRequest(`${part.sku} ${part.name} ${why}${list}`, { partId: `${part.sku} ${why}` })
     }
     if (need.left === 0) {
-      throw new Conflict(`All ${need.quantity} of ${part.sku} in unit ${wo.serial} already have their lot (${need.fitted.map((f) => f.lotCode).join(', ')}); undo one to change it`, { lotCode: 'Nothing left to record' })
+      throw new Conflict(
+        `All ${need.quantity} of ${part.sku} in unit ${wo.serial} already have their lot (${need.fitted.map((f) => f.lotCode).join(', ')}); undo one to change it`,
+        { lotCode: 'Nothing left to record' },
+      )
     }
     const quantity = input.quantity ?? need.left
     if (quantity > need.left) {
@@ -53,14 +56,19 @@ export async function fitLot(db: Db, storage: Storage, workOrderId: string, inpu
     const balances = (await lotBalances(tx, [part.id])).filter((l) => l.free > 0)
     const lot = await findLotByCode(tx, part.id, input.lotCode)
     if (!lot) {
-      throw new Conflict(`No lot "${input.lotCode}" of ${part.sku} has been received: scan the lot printed on the ${part.unitOfMeasure === 'each' ? 'bag or box' : part.unitOfMeasure} again, or pick one — ${choicesText(balances)}`, {
-        lotCode: `Lot ${input.lotCode} of ${part.sku} is not in stock`,
-      })
+      throw new Conflict(
+        `No lot "${input.lotCode}" of ${part.sku} has been received: scan the lot printed on the ${part.unitOfMeasure === 'each' ? 'bag or box' : part.unitOfMeasure} again, or pick one — ${choicesText(balances)}`,
+        {
+          lotCode: `Lot ${input.lotCode} of ${part.sku} is not in stock`,
+        },
+      )
     }
     const free = balances.find((l) => l.lotId === lot.id)?.free ?? 0
     if (free < quantity) {
       const others = balances.filter((l) => l.lotId !== lot.id)
-      throw new Conflict(`Lot ${lot.code} of ${part.sku} has ${free} free, not ${quantity}: fit from another lot — ${choicesText(others)}`, { lotCode: `Only ${free} of lot ${lot.code} free` })
+      throw new Conflict(`Lot ${lot.code} of ${part.sku} has ${free} free, not ${quantity}: fit from another lot — ${choicesText(others)}`, {
+        lotCode: `Only ${free} of lot ${lot.code} free`,
+      })
     }
     await tx.insert(unitLots).values({ workOrderId: wo.id, partId: part.id, lotId: lot.id, quantity, fittedBy: actor.id })
     await settle(tx, wo)
@@ -70,18 +78,30 @@ export async function fitLot(db: Db, storage: Storage, workOrderId: string, inpu
 }
 
 /** Undoes a lot fit (a wrong scan): only whoever recorded it, or a planner or admin. It stays on record as undone. */
-export async function undoLotFit(db: Db, storage: Storage, workOrderId: string, fitId: string, actor: SessionUser): Promise<{ page: BuildPage; summary: string }> {
+export async function undoLotFit(
+  db: Db,
+  storage: Storage,
+  workOrderId: string,
+  fitId: string,
+  actor: SessionUser,
+): Promise<{ page: BuildPage; summary: string }> {
   let summary = ''
   await db.transaction(async (tx) => {
     const wo = await lockBuildable(tx, workOrderId)
-    const [fit] = await tx.select().from(unitLots).where(and(eq(unitLots.id, fitId), eq(unitLots.workOrderId, wo.id)))
+    const [fit] = await tx
+      .select()
+      .from(unitLots)
+      .where(and(eq(unitLots.id, fitId), eq(unitLots.workOrderId, wo.id)))
     if (!fit) throw new NotFound(`No such lot record on unit ${wo.serial}`)
     if (fit.undoneAt) throw new Conflict('This lot record is already undone')
     if (fit.fittedBy !== actor.id && actor.role !== 'planner' && actor.role !== 'admin') {
       const names = await namesOf(tx, [fit.fittedBy])
       throw new Forbidden(`Only ${names.get(fit.fittedBy) ?? 'the person who recorded it'} or a planner can undo this lot`)
     }
-    await tx.update(unitLots).set({ undoneAt: new Date(), undoneBy: actor.id }).where(and(eq(unitLots.id, fit.id), isNull(unitLots.undoneAt)))
+    await tx
+      .update(unitLots)
+      .set({ undoneAt: new Date(), undoneBy: actor.id })
+      .where(and(eq(unitLots.id, fit.id), isNull(unitLots.undoneAt)))
     await settle(tx, wo)
     const [part] = await tx.select({ sku: parts.sku }).from(parts).where(eq(parts.id, fit.partId))
     summary = `Undid a lot of ${part?.sku ?? 'a part'} on ${wo.serial}`

@@ -44,7 +44,13 @@ export async function revisionContents(db: Conn, revisionIds: readonly string[])
     .where(inArray(cutParts.revisionId, ids))
     .orderBy(asc(cutParts.revisionId), asc(cutParts.position))
   const out = new Map<string, DeclaredContent[]>(revisionIds.map((id) => [id, []]))
-  const facts = (p: (typeof bom)[number] | (typeof pieces)[number]) => ({ sku: p.sku, name: p.name, customsDescription: p.customsDescription, hsCode: p.hsCode, originCountry: p.originCountry })
+  const facts = (p: (typeof bom)[number] | (typeof pieces)[number]) => ({
+    sku: p.sku,
+    name: p.name,
+    customsDescription: p.customsDescription,
+    hsCode: p.hsCode,
+    originCountry: p.originCountry,
+  })
   for (const b of bom) {
     if (b.kind === 'packaging') continue
     out.get(b.revisionId)?.push({ part: facts(b), quantity: b.quantity, netGrams: b.quantity * b.weightGrams, costCents: b.quantity * b.unitCostCents })
@@ -69,8 +75,20 @@ async function declaredUnits(db: Conn, data: PackData, workOrderIds: readonly st
   const units = data.units.filter((u) => workOrderIds.includes(u.workOrder.id))
   const contents = await revisionContents(db, [...new Set(units.map((u) => u.revision.id))])
   const lineIds = [...new Set(units.map((u) => u.workOrder.orderLineId))]
-  const prices = new Map((await db.select({ id: orderLines.id, unitPriceCents: orderLines.unitPriceCents }).from(orderLines).where(inArray(orderLines.id, lineIds.length ? lineIds : NONE))).map((l) => [l.id, l.unitPriceCents]))
-  return new Map(units.map((u) => [u.workOrder.id, { serial: u.workOrder.serial, priceCents: prices.get(u.workOrder.orderLineId) ?? 0, contents: contents.get(u.revision.id) ?? [] }]))
+  const prices = new Map(
+    (
+      await db
+        .select({ id: orderLines.id, unitPriceCents: orderLines.unitPriceCents })
+        .from(orderLines)
+        .where(inArray(orderLines.id, lineIds.length ? lineIds : NONE))
+    ).map((l) => [l.id, l.unitPriceCents]),
+  )
+  return new Map(
+    units.map((u) => [
+      u.workOrder.id,
+      { serial: u.workOrder.serial, priceCents: prices.get(u.workOrder.orderLineId) ?? 0, contents: contents.get(u.revision.id) ?? [] },
+    ]),
+  )
 }
 
 function missingText(d: CustomsDeclaration) {
@@ -95,7 +113,11 @@ async function parcelDeclarations(db: Db, shipmentId: string) {
   if (!shipment) throw new NotFound('No such shipment')
   const data = await loadPackData(db, shipment.orderId, shipment.id)
   const recorded = shipment.status === 'packing' || shipment.status === 'buying' ? [] : await parcelsOf(db, shipment.id)
-  const units = await declaredUnits(db, data, recorded.flatMap((p) => p.workOrderIds))
+  const units = await declaredUnits(
+    db,
+    data,
+    recorded.flatMap((p) => p.workOrderIds),
+  )
   const parcels = recorded.map((p) => {
     const declaration = declareContents(p.workOrderIds.map((id) => units.get(id)).filter((u) => u !== undefined))
     return { parcel: p, declaration, ...chooseCustomsForm(declaration.totalValueCents, data.order.currency) }
@@ -113,8 +135,16 @@ export async function customsSummary(db: Db, shipmentId: string): Promise<Custom
     shipToCountry: data.order.shipCountry,
     currency: data.order.currency,
     ready: required && parcels.length > 0 && parcels.every((p) => p.declaration.missing.length === 0),
-    problems: required ? (parcels.length > 0 ? parcels.filter((p) => p.declaration.missing.length > 0).map((p) => `Parcel ${p.parcel.position}: ${missingText(p.declaration)}`) : shipment.status === 'packing' || shipment.status === 'buying' ? await customsProblems(db, data) : []) : [],
-    parcels: required ? parcels.map((p) => ({ position: p.parcel.position, form: p.form, valueCents: p.declaration.totalValueCents, netGrams: p.declaration.totalNetGrams })) : [],
+    problems: required
+      ? parcels.length > 0
+        ? parcels.filter((p) => p.declaration.missing.length > 0).map((p) => `Parcel ${p.parcel.position}: ${missingText(p.declaration)}`)
+        : shipment.status === 'packing' || shipment.status === 'buying'
+          ? await customsProblems(db, data)
+          : []
+      : [],
+    parcels: required
+      ? parcels.map((p) => ({ position: p.parcel.position, form: p.form, valueCents: p.declaration.totalValueCents, netGrams: p.declaration.totalNetGrams }))
+      : [],
   }
 }
 
@@ -127,12 +157,22 @@ export async function customsDeclaration(db: Db, shipmentId: string): Promise<Bu
   if (!crossesBorder(data)) throw new Conflict(`Order ${data.order.number} ships within ${data.order.shipCountry}: no customs declaration is needed`)
   if (parcels.length === 0) throw new Conflict('The customs declaration is printed with the label: buy the label first')
   const missing = parcels.flatMap((p) => p.declaration.missing)
-  if (missing.length > 0) throw new Conflict(`The customs declaration cannot be printed: ${parcels.map((p) => missingText(p.declaration)).filter(Boolean).join('; ')}. A planner sets them on the part (Catalog → Parts)`)
+  if (missing.length > 0)
+    throw new Conflict(
+      `The customs declaration cannot be printed: ${parcels
+        .map((p) => missingText(p.declaration))
+        .filter(Boolean)
+        .join('; ')}. A planner sets them on the part (Catalog → Parts)`,
+    )
   const s = data.settings
   const o = data.order
   // The country is printed by name under each address.
-  const sender = [s.senderName, s.senderLine1, s.senderLine2, [s.senderCity, s.senderRegion, s.senderPostalCode].filter(Boolean).join(' ')].filter((l): l is string => Boolean(l))
-  const addressee = [o.shipName, o.shipLine1, o.shipLine2, [o.shipCity, o.shipRegion, o.shipPostalCode].filter(Boolean).join(' ')].filter((l): l is string => Boolean(l))
+  const sender = [s.senderName, s.senderLine1, s.senderLine2, [s.senderCity, s.senderRegion, s.senderPostalCode].filter(Boolean).join(' ')].filter(
+    (l): l is string => Boolean(l),
+  )
+  const addressee = [o.shipName, o.shipLine1, o.shipLine2, [o.shipCity, o.shipRegion, o.shipPostalCode].filter(Boolean).join(' ')].filter((l): l is string =>
+    Boolean(l),
+  )
   return customsDeclarationPdf({
     sender,
     senderCountry: s.senderCountry ?? '',

@@ -17,7 +17,15 @@ function addressLines(a: { name: string; line1: string; line2: string | null; ci
 }
 
 function shipToLines(o: OrderRow) {
-  return addressLines({ name: o.shipName, line1: o.shipLine1, line2: o.shipLine2, city: o.shipCity, region: o.shipRegion, postalCode: o.shipPostalCode, country: o.shipCountry })
+  return addressLines({
+    name: o.shipName,
+    line1: o.shipLine1,
+    line2: o.shipLine2,
+    city: o.shipCity,
+    region: o.shipRegion,
+    postalCode: o.shipPostalCode,
+    country: o.shipCountry,
+  })
 }
 
 /** The shop's ship-from address (also where returns go), as set on the settings page. */
@@ -49,7 +57,9 @@ export async function packingSlip(db: Db, shipmentId: string, paper: 'letter' | 
     const built = data.items.some((i) => i.workOrderId === u.workOrder.id && i.kind === 'unit') || u.revision.frameInputs !== null
     lineOf.set(u.workOrder.id, {
       title: `${u.kitName} (${u.kitSku}), serial ${u.workOrder.serial}`,
-      detail: built ? `Revision ${u.revision.code}, assembled and leak-tested${bags.length ? `; with ${bags.map((b) => b.description.split(' of loose')[0]!.toLowerCase()).join(', ')} of loose parts` : ''}` : `Spare-parts pack, revision ${u.revision.code}`,
+      detail: built
+        ? `Revision ${u.revision.code}, assembled and leak-tested${bags.length ? `; with ${bags.map((b) => b.description.split(' of loose')[0]!.toLowerCase()).join(', ')} of loose parts` : ''}`
+        : `Spare-parts pack, revision ${u.revision.code}`,
     })
   }
   const lines = [...lineOf.values()]

@@ -50,9 +50,11 @@ function unitProblem(u: UnitRow, latest: { passed: boolean } | undefined, built:
   if (!built) return null
   const hasProtocol = u.revision.leakTestWaterVolumeMl !== null && u.revision.leakTestMinPressurePa !== null
   if (wo.status === 'built' && (!hasProtocol || latest?.passed)) return null
-  if (wo.status === 'rework' || (latest && !latest.passed)) return `Unit ${wo.serial} has not passed its leak test (the last test failed): it goes back to the build bench for rework`
+  if (wo.status === 'rework' || (latest && !latest.passed))
+    return `Unit ${wo.serial} has not passed its leak test (the last test failed): it goes back to the build bench for rework`
   if (wo.status === 'built') return `Unit ${wo.serial} has not passed its leak test (none is recorded): it goes back to the build bench`
-  if (wo.status === 'waiting_cut' || wo.status === 'cut') return `Unit ${wo.serial} is not built yet (${wo.status === 'cut' ? 'cut, waiting for the build bench' : 'waiting for cutting'}) and has not passed its leak test`
+  if (wo.status === 'waiting_cut' || wo.status === 'cut')
+    return `Unit ${wo.serial} is not built yet (${wo.status === 'cut' ? 'cut, waiting for the build bench' : 'waiting for cutting'}) and has not passed its leak test`
   if (wo.status === 'building') return `Unit ${wo.serial} is still at the build bench and has not passed its leak test`
   return `Unit ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`
 }
@@ -70,7 +72,10 @@ export async function loadPackData(db: Conn, orderId: string, shipmentId?: strin
   const pieces = await cutPartsOfRevisions(db, revisionIds)
   const boxes = await activeBoxes(db)
   const shipment = shipmentId ? await findShipment(db, shipmentId) : await openShipmentOf(db, orderId)
-  const latest = await latestLeakTests(db, units.map((u) => u.workOrder.id))
+  const latest = await latestLeakTests(
+    db,
+    units.map((u) => u.workOrder.id),
+  )
   const checks = shipment ? await standingChecks(db, shipment.id) : []
   const checkOf = new Map(checks.map((c) => [c.check.itemKey, c]))
   const boxOfPart = new Map(boxes.filter((b) => b.partId).map((b) => [b.partId!, b.id]))
@@ -82,24 +87,63 @@ export async function loadPackData(db: Conn, orderId: string, shipmentId?: strin
     const revBom = bom.filter((b) => b.revisionId === u.revision.id)
     const revPieces = pieces.filter((p) => p.revisionId === u.revision.id)
     const built = revPieces.length > 0
-    weights.set(wo.id, { workOrderId: wo.id, serial: wo.serial, grams: unitGrams(revBom, revPieces, boxPartIds), boxId: revBom.map((b) => boxOfPart.get(b.partId)).find((id) => id !== undefined) ?? null })
+    weights.set(wo.id, {
+      workOrderId: wo.id,
+      serial: wo.serial,
+      grams: unitGrams(revBom, revPieces, boxPartIds),
+      boxId: revBom.map((b) => boxOfPart.get(b.partId)).find((id) => id !== undefined) ?? null,
+    })
     if (wo.status === 'shipped') continue
-    const base = { workOrderId: wo.id, serial: wo.serial, workOrderStatus: wo.status, kit: { sku: u.kitSku, name: u.kitName }, revisionCode: u.revision.code, binCode: u.binCode }
+    const base = {
+      workOrderId: wo.id,
+      serial: wo.serial,
+      workOrderStatus: wo.status,
+      kit: { sku: u.kitSku, name: u.kitName },
+      revisionCode: u.revision.code,
+      binCode: u.binCode,
+    }
     const check = (key: string) => {
       const c = checkOf.get(key)
       return c ? { method: c.check.method, code: c.check.code, by: { id: c.check.checkedBy, name: c.byName }, at: c.check.checkedAt.toISOString() } : null
     }
     const problem = unitProblem(u, latest.get(wo.id), built)
     if (built) {
-      items.push({ ...base, key: unitKey(wo.serial), kind: 'unit', description: `${u.kitName} (${u.kitSku} rev ${u.revision.code}), unit ${wo.serial}`, problem, tickable: false, check: check(unitKey(wo.serial)) })
+      items.push({
+        ...base,
+        key: unitKey(wo.serial),
+        kind: 'unit',
+        description: `${u.kitName} (${u.kitSku} rev ${u.revision.code}), unit ${wo.serial}`,
+        problem,
+        tickable: false,
+        check: check(unitKey(wo.serial)),
+      })
       // The kit's loose parts travel in bags beside the unit: each bag-like packaging line (counted "each", not a box).
       for (const b of revBom.filter((x) => x.kind === 'packaging' && x.unitOfMeasure === 'each' && !boxPartIds.has(x.partId))) {
         const key = bagKey(wo.serial, b.sku)
-        items.push({ ...base, key, kind: 'bag', description: `${b.name} of loose parts for ${wo.serial} (net cups, collars and fittings as listed)`, problem: null, tickable: true, check: check(key) })
+        items.push({
+          ...base,
+          key,
+          kind: 'bag',
+          description: `${b.name} of loose parts for ${wo.serial} (net cups, collars and fittings as listed)`,
+          problem: null,
+          tickable: true,
+          check: check(key),
+        })
       }
     } else {
-      const contents = revBom.filter((b) => b.kind !== 'packaging').map((b) => `${b.quantity} × ${b.name}`).join(', ')
-      items.push({ ...base, key: packKey(wo.serial), kind: 'pack', description: `${u.kitName} (${u.kitSku}), pack ${wo.serial}: ${contents}`, problem: wo.status === 'built' ? null : `Pack ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`, tickable: true, check: check(packKey(wo.serial)) })
+      const contents = revBom
+        .filter((b) => b.kind !== 'packaging')
+        .map((b) => `${b.quantity} × ${b.name}`)
+        .join(', ')
+      items.push({
+        ...base,
+        key: packKey(wo.serial),
+        kind: 'pack',
+        description: `${u.kitName} (${u.kitSku}), pack ${wo.serial}: ${contents}`,
+        problem: wo.status === 'built' ? null : `Pack ${wo.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, wo.status)}`,
+        tickable: true,
+        check: check(packKey(wo.serial)),
+      })
     }
   }
   const partialApprovedByName = await userName(db, shipment?.partialApprovedBy ?? null)
@@ -117,7 +161,8 @@ export function labelSettingsProblems(settings: ShopSettingsRow): string[] {
     problems.push('The ship-from address is not set: the owner sets it in the shop settings')
   }
   if (!settings.gs1CompanyPrefix) problems.push('The GS1 company prefix for parcel SSCCs is not set: the owner sets it in the shop settings')
-  if (!settings.carrierName) problems.push('The shop\'s carrier is not set: the owner sets it in the shop settings (the carrier name as the shipping service names it)')
+  if (!settings.carrierName)
+    problems.push("The shop's carrier is not set: the owner sets it in the shop settings (the carrier name as the shipping service names it)")
   return problems
 }
 
@@ -160,7 +205,13 @@ function buyingParcels(labelRequest: unknown) {
 
 function voidedLabels(db: Conn, shipmentId: string) {
   return voidedLabelsOf(db, shipmentId).then((rows) =>
-    rows.map((l) => ({ trackingNumbers: l.trackingNumbers, service: l.service, reason: l.voidReason ?? '', at: l.voidedAt?.toISOString() ?? '', refundStatus: l.refundStatus })),
+    rows.map((l) => ({
+      trackingNumbers: l.trackingNumbers,
+      service: l.service,
+      reason: l.voidReason ?? '',
+      at: l.voidedAt?.toISOString() ?? '',
+      refundStatus: l.refundStatus,
+    })),
   )
 }
 
@@ -187,7 +238,8 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
   const { shipping, backOrdered, byUnit } = shippingSplit(data)
   const serialOf = new Map(data.units.map((u) => [u.workOrder.id, u.workOrder.serial]))
   const blockers: string[] = []
-  if (order.status !== 'released' && order.status !== 'partially_shipped') blockers.push(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
+  if (order.status !== 'released' && order.status !== 'partially_shipped')
+    blockers.push(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
   if (order.heldAt) blockers.push(`Order ${order.number} is on hold (${order.holdReason ?? 'no reason given'}); a planner takes it off hold before it ships`)
   if (items.length === 0) blockers.push(`Order ${order.number} has nothing left to pack`)
   for (const id of shipping) {
@@ -229,8 +281,16 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
     }))
   } else {
     const boxById = new Map(data.boxes.map((b) => [b.id, b]))
-    parcels = proposeParcels(shipping.map((id) => data.weights.get(id)!), data.boxes).map((p, i) => ({
-      ...weighParcel({ position: i + 1, workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null }, boxById.get(p.boxId)!, data.weights, divisorOf(settings)),
+    parcels = proposeParcels(
+      shipping.map((id) => data.weights.get(id)!),
+      data.boxes,
+    ).map((p, i) => ({
+      ...weighParcel(
+        { position: i + 1, workOrderIds: p.workOrderIds, boxId: p.boxId, scaleGrams: null },
+        boxById.get(p.boxId)!,
+        data.weights,
+        divisorOf(settings),
+      ),
       sscc: null,
       trackingNumber: null,
     }))
@@ -242,7 +302,15 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
       number: order.number,
       status: order.status,
       customerName: order.customerName,
-      shipTo: { name: order.shipName, line1: order.shipLine1, line2: order.shipLine2, city: order.shipCity, region: order.shipRegion, postalCode: order.shipPostalCode, country: order.shipCountry },
+      shipTo: {
+        name: order.shipName,
+        line1: order.shipLine1,
+        line2: order.shipLine2,
+        city: order.shipCity,
+        region: order.shipRegion,
+        postalCode: order.shipPostalCode,
+        country: order.shipCountry,
+      },
     },
     shipment: shipment
       ? {
@@ -254,7 +322,11 @@ export async function buildPackView(db: Conn, data: PackData, options: { carrier
           chargeCents: shipment.chargeCents,
           partialApproval:
             shipment.partialApprovedAt && shipment.partialApprovedBy
-              ? { by: { id: shipment.partialApprovedBy, name: data.partialApprovedByName ?? 'Unknown user' }, at: shipment.partialApprovedAt.toISOString(), note: shipment.partialNote ?? '' }
+              ? {
+                  by: { id: shipment.partialApprovedBy, name: data.partialApprovedByName ?? 'Unknown user' },
+                  at: shipment.partialApprovedAt.toISOString(),
+                  note: shipment.partialNote ?? '',
+                }
               : null,
           shippedAt: shipment.shippedAt?.toISOString() ?? null,
           trackingStatus: shipment.trackingStatus,

@@ -27,7 +27,8 @@ async function resolveCode(db: Db | Tx, raw: string) {
   const code = raw.trim().toUpperCase()
   const bin = await findBinByCode(db, code)
   if (bin) {
-    if (!bin.workOrderId) throw new Conflict(`Bin ${bin.code} holds no unit (it is on the rack); scan the bin that came from the build bench, or type the serial`)
+    if (!bin.workOrderId)
+      throw new Conflict(`Bin ${bin.code} holds no unit (it is on the rack); scan the bin that came from the build bench, or type the serial`)
     const wo = await findWorkOrder(db, bin.workOrderId)
     if (!wo) throw new NotFound(`Bin ${bin.code} names a unit that does not exist`)
     return { wo, via: `bin ${bin.code}` }
@@ -49,20 +50,35 @@ export async function lookupForPacking(deps: PackDeps, code: string): Promise<Pa
 async function openShipment(tx: Tx, data: PackData, actor: SessionUser): Promise<ShipmentRow> {
   const order = await lockOrderRow(tx, data.order.id)
   if (!order) throw new NotFound('No such order')
-  if (order.status !== 'released' && order.status !== 'partially_shipped') throw new Conflict(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
+  if (order.status !== 'released' && order.status !== 'partially_shipped')
+    throw new Conflict(`Order ${order.number} is ${statusInSentence(ORDER_STATUS_LABELS, order.status)}; only released orders are packed`)
   const open = await openShipmentOf(tx, order.id)
   if (open) {
     const locked = (await lockShipment(tx, open.id))!
-    if (locked.status === 'buying') throw new Conflict(`The label for order ${order.number} is being bought; the box is closed. Wait for it, or void the label to open the box again`)
-    if (locked.status !== 'packing') throw new Conflict(`The label for order ${order.number} is bought; the box is closed. Ship it as labelled, or void the label (with the reason) to open the box again`)
+    if (locked.status === 'buying')
+      throw new Conflict(`The label for order ${order.number} is being bought; the box is closed. Wait for it, or void the label to open the box again`)
+    if (locked.status !== 'packing')
+      throw new Conflict(
+        `The label for order ${order.number} is bought; the box is closed. Ship it as labelled, or void the label (with the reason) to open the box again`,
+      )
     return locked
   }
   const [created] = await tx.insert(shipments).values({ orderId: order.id, createdBy: actor.id }).returning()
   return created!
 }
 
-async function confirm(tx: Tx, shipment: ShipmentRow, item: { key: string; workOrderId: string }, method: 'scan' | 'tick', code: string | null, actor: SessionUser) {
-  await tx.insert(packChecks).values({ shipmentId: shipment.id, workOrderId: item.workOrderId, itemKey: item.key, method, code, checkedBy: actor.id }).onConflictDoNothing()
+async function confirm(
+  tx: Tx,
+  shipment: ShipmentRow,
+  item: { key: string; workOrderId: string },
+  method: 'scan' | 'tick',
+  code: string | null,
+  actor: SessionUser,
+) {
+  await tx
+    .insert(packChecks)
+    .values({ shipmentId: shipment.id, workOrderId: item.workOrderId, itemKey: item.key, method, code, checkedBy: actor.id })
+    .onConflictDoNothing()
 }
 
 /**
@@ -77,7 +93,9 @@ export async function scanItem(deps: PackDeps, orderId: string, code: string, ac
     if (wo.orderId !== orderId) {
       // Only for the other order's number in the answer; if it cannot be read the answer says "another order" and still refuses.
       const other = await findOrder(tx, wo.orderId)
-      throw new Conflict(`Wrong box: ${via} holds unit ${wo.serial} of order ${other?.number ?? 'another order'}, not of order ${data.order.number}. Set it aside and scan this order's bins`)
+      throw new Conflict(
+        `Wrong box: ${via} holds unit ${wo.serial} of order ${other?.number ?? 'another order'}, not of order ${data.order.number}. Set it aside and scan this order's bins`,
+      )
     }
     if (wo.status === 'shipped') throw new Conflict(`Unit ${wo.serial} has already shipped`)
     const item = data.items.find((i) => i.key === unitKey(wo.serial) || i.key === packKey(wo.serial))
@@ -99,7 +117,10 @@ export async function tickItem(deps: PackDeps, orderId: string, itemKey: string,
     if (item.problem) throw new Conflict(item.problem)
     // A bag the scale refused stays out of the box until it is put right and weighed again.
     const weighed = await latestWeighingOf(tx, item.workOrderId, item.key)
-    if (weighed && !weighed.accepted) throw new Conflict(`${item.kind === 'pack' ? 'Pack' : 'Bag'} ${item.serial}: ${weighed.words}. Put right what is named and weigh it again before it goes in the box`)
+    if (weighed && !weighed.accepted)
+      throw new Conflict(
+        `${item.kind === 'pack' ? 'Pack' : 'Bag'} ${item.serial}: ${weighed.words}. Put right what is named and weigh it again before it goes in the box`,
+      )
     const shipment = await openShipment(tx, data, actor)
     await confirm(tx, shipment, item, 'tick', null, actor)
   })
@@ -170,9 +191,30 @@ export async function weighRequest(deps: PackDeps, orderId: string, input: Quote
   const s = data.settings
   const o = data.order
   const request: ShipmentRequest = {
-    from: { name: s.senderName!, line1: s.senderLine1!, line2: s.senderLine2, city: s.senderCity!, region: s.senderRegion, postalCode: s.senderPostalCode!, country: s.senderCountry! },
-    to: { name: o.shipName, line1: o.shipLine1, line2: o.shipLine2, city: o.shipCity, region: o.shipRegion, postalCode: o.shipPostalCode, country: o.shipCountry },
-    parcels: weighed.map((p) => ({ weightGrams: p.billableGrams, lengthMm: p.length / LENGTH_BASE_PER_MM, widthMm: p.width / LENGTH_BASE_PER_MM, heightMm: p.height / LENGTH_BASE_PER_MM })),
+    from: {
+      name: s.senderName!,
+      line1: s.senderLine1!,
+      line2: s.senderLine2,
+      city: s.senderCity!,
+      region: s.senderRegion,
+      postalCode: s.senderPostalCode!,
+      country: s.senderCountry!,
+    },
+    to: {
+      name: o.shipName,
+      line1: o.shipLine1,
+      line2: o.shipLine2,
+      city: o.shipCity,
+      region: o.shipRegion,
+      postalCode: o.shipPostalCode,
+      country: o.shipCountry,
+    },
+    parcels: weighed.map((p) => ({
+      weightGrams: p.billableGrams,
+      lengthMm: p.length / LENGTH_BASE_PER_MM,
+      widthMm: p.width / LENGTH_BASE_PER_MM,
+      heightMm: p.height / LENGTH_BASE_PER_MM,
+    })),
     reference: o.number,
   }
   return { data, weighed, request }
@@ -186,7 +228,10 @@ function carrierOf(deps: PackDeps) {
 /** Asks the carrier whether it can deliver to the order's ship-to address; refuses with what to fix when not. */
 export async function checkShipTo(carrier: Carrier, request: ShipmentRequest, orderNumber: string) {
   const check = await carrier.checkAddress(request.to)
-  if (!check.ok) throw new Conflict(`The carrier cannot deliver to order ${orderNumber}'s ship-to address: ${check.message}. Correct the address on the order (a planner), then quote again`)
+  if (!check.ok)
+    throw new Conflict(
+      `The carrier cannot deliver to order ${orderNumber}'s ship-to address: ${check.message}. Correct the address on the order (a planner), then quote again`,
+    )
 }
 
 /** The carrier's services and prices for these parcels, of the shop's carrier only. */
@@ -197,6 +242,7 @@ export async function quoteShipment(deps: PackDeps, orderId: string, input: Quot
   if (!carrierName) throw new Conflict('The shop has no carrier set: an owner sets it in shop settings (the carrier name as the shipping service names it)')
   await checkShipTo(carrier, request, data.order.number)
   const quotes = (await carrier.quote(request)).filter((q) => q.carrier.toLowerCase() === carrierName.toLowerCase())
-  if (quotes.length === 0) throw new Conflict(`The carrier account offers no service of ${carrierName} for these parcels; check the carrier name in shop settings`)
+  if (quotes.length === 0)
+    throw new Conflict(`The carrier account offers no service of ${carrierName} for these parcels; check the carrier name in shop settings`)
   return quotes.map((q) => ({ service: q.service, name: q.name, days: q.days, chargeCents: q.chargeCents }))
 }

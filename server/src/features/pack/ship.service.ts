@@ -19,14 +19,18 @@ import { unitRecordLink } from '../build/public-record'
 import { shippedMailContent } from './shipped-mail'
 import { WORK_ORDER_STATUS_LABELS, statusInSentence } from '@kitwright/shared/status-words'
 
-
 /**
  * Ships a labelled shipment in one transaction: its units and the order marked shipped (or partly
  * shipped, the rest back-ordered), their bins freed, each unit's BOM taken off the shelf in the
  * ledger (`ship` moves) with its reservations released, and the customer's e-mail queued with the
  * tracking number and a link to each unit's build record. Parcels were recorded with the label.
  */
-export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'publicUrl' | 'tokens'>, orderId: string, actor: SessionUser, audit: AuditContext): Promise<ShipResult> {
+export async function shipShipment(
+  deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 'publicUrl' | 'tokens'>,
+  orderId: string,
+  actor: SessionUser,
+  audit: AuditContext,
+): Promise<ShipResult> {
   let shipmentId = ''
   let mailQueued = false
   await deps.db.transaction(async (tx) => {
@@ -43,7 +47,10 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
     const units = data.units.filter((u) => ids.includes(u.workOrder.id))
     const locked = await tx.select().from(workOrders).where(inArray(workOrders.id, ids)).for('update')
     const notReady = locked.filter((w) => w.status !== 'built')
-    if (notReady.length > 0) throw new Conflict(`Cannot ship: ${notReady.map((w) => `${w.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, w.status)}`).join('; ')}. Take it out of the box and void the label (with the reason) to open the box again`)
+    if (notReady.length > 0)
+      throw new Conflict(
+        `Cannot ship: ${notReady.map((w) => `${w.serial} is ${statusInSentence(WORK_ORDER_STATUS_LABELS, w.status)}`).join('; ')}. Take it out of the box and void the label (with the reason) to open the box again`,
+      )
 
     const now = new Date()
     await tx.update(workOrders).set({ status: 'shipped', updatedAt: now }).where(inArray(workOrders.id, ids))
@@ -51,12 +58,25 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
 
     // The ledger: parts locked in id order, each unit's reservations released, its BOM shipped off the shelf.
     const bom = await bomOfRevisions(tx, [...new Set(units.map((u) => u.revision.id))])
-    await lockParts(tx, bom.map((b) => b.partId))
+    await lockParts(
+      tx,
+      bom.map((b) => b.partId),
+    )
     for (const u of units) {
       const why = `Order ${order.number}, unit ${u.workOrder.serial} shipped`
       await releaseReservation(tx, { workOrderId: u.workOrder.id, lines: [], reason: why }, actor)
       // Lot-tracked parts leave the shelf from the lots the build bench fitted into the unit.
-      const moves = bom.filter((b) => b.revisionId === u.revision.id).map((b) => ({ partId: b.partId, kind: 'ship' as const, quantity: -b.quantity, workOrderId: u.workOrder.id, reason: why, reference: shipment.trackingNumber, createdBy: actor.id }))
+      const moves = bom
+        .filter((b) => b.revisionId === u.revision.id)
+        .map((b) => ({
+          partId: b.partId,
+          kind: 'ship' as const,
+          quantity: -b.quantity,
+          workOrderId: u.workOrder.id,
+          reason: why,
+          reference: shipment.trackingNumber,
+          createdBy: actor.id,
+        }))
       await insertMoves(tx, await splitShipMovesByLot(tx, u.workOrder.id, moves))
     }
 
@@ -65,14 +85,28 @@ export async function shipShipment(deps: Pick<Deps, 'db' | 'carrier' | 'jobs' | 
       .from(workOrders)
       .where(and(eq(workOrders.orderId, order.id), ne(workOrders.status, 'shipped'), ne(workOrders.status, 'cancelled')))
     const status = remaining.length === 0 ? 'shipped' : 'partially_shipped'
-    await tx.update(orders).set({ status, shippedAt: remaining.length === 0 ? now : null, updatedAt: now }).where(eq(orders.id, order.id))
+    await tx
+      .update(orders)
+      .set({ status, shippedAt: remaining.length === 0 ? now : null, updatedAt: now })
+      .where(eq(orders.id, order.id))
     await tx.update(shipments).set({ status: 'shipped', shippedAt: now, shippedBy: actor.id }).where(eq(shipments.id, shipment.id))
     const serials = units.map((u) => u.workOrder.serial)
     const backOrdered = remaining.map((r) => r.serial)
     // Each parcel has its own tracking number; shipments labelled before that carry one for all.
-    const tracking = packed.map((p) => p.trackingNumber).filter((t): t is string => Boolean(t)).join(', ') || (shipment.trackingNumber ?? '')
+    const tracking =
+      packed
+        .map((p) => p.trackingNumber)
+        .filter((t): t is string => Boolean(t))
+        .join(', ') ||
+      (shipment.trackingNumber ?? '')
     const summary = `Shipped ${serials.join(', ')} of order ${order.number}: ${shipment.carrier} ${shipment.service}, tracking ${tracking}, ${packed.length} parcel${packed.length === 1 ? '' : 's'}${backOrdered.length ? `; back-ordered ${backOrdered.join(', ')}` : ''}`
-    await addOrderEvent(tx, { orderId: order.id, kind: status === 'shipped' ? 'shipped' : 'partially_shipped', message: summary, data: { shipmentId: shipment.id, trackingNumber: shipment.trackingNumber, serials }, actor })
+    await addOrderEvent(tx, {
+      orderId: order.id,
+      kind: status === 'shipped' ? 'shipped' : 'partially_shipped',
+      message: summary,
+      data: { shipmentId: shipment.id, trackingNumber: shipment.trackingNumber, serials },
+      actor,
+    })
     await recordAudit(tx, audit, { action: 'shipment.create', entityType: 'order', entityId: order.id, summary, data: { shipmentId: shipment.id } })
 
     const content = shippedMailContent({

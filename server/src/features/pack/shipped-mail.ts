@@ -42,7 +42,9 @@ export function shippedMailContent(input: ShippedMailInput) {
     `The ${input.shopName} workshop`,
   ].join('\n')
   const items = input.units
-    .map((u) => `<li>${escapeHtml(u.description)}${u.recordUrl ? ` — <a href="${escapeHtml(u.recordUrl)}">build record of ${escapeHtml(u.serial)}</a>` : ''}</li>`)
+    .map(
+      (u) => `<li>${escapeHtml(u.description)}${u.recordUrl ? ` — <a href="${escapeHtml(u.recordUrl)}">build record of ${escapeHtml(u.serial)}</a>` : ''}</li>`,
+    )
     .join('')
   const html = [
     `<p>Hello ${escapeHtml(firstName)},</p>`,

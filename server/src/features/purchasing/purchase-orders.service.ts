@@ -58,7 +58,10 @@ async function toPurchaseOrders(db: Conn, rows: PurchaseOrderRow[]): Promise<Pur
       .leftJoin(supplierParts, and(eq(supplierParts.partId, purchaseOrderLines.partId), eq(supplierParts.supplierId, purchaseOrders.supplierId)))
       .where(inArray(purchaseOrderLines.purchaseOrderId, ids))
       .orderBy(asc(purchaseOrderLines.createdAt), asc(parts.sku)),
-    db.select().from(suppliers).where(inArray(suppliers.id, [...new Set(rows.map((r) => r.supplierId))])),
+    db
+      .select()
+      .from(suppliers)
+      .where(inArray(suppliers.id, [...new Set(rows.map((r) => r.supplierId))])),
   ])
   const supplierOf = new Map(sups.map((s) => [s.id, s]))
   return rows.map((po) => {
@@ -144,7 +147,12 @@ export async function draftFromShortages(db: Db, actor: Actor): Promise<DraftFro
       else if (!part.supplierId) skipped.push({ sku: w.sku, reason: 'No supplier: choose one on the Suppliers page' })
       else bySupplier.set(part.supplierId, [...(bySupplier.get(part.supplierId) ?? []), w])
     }
-    const sups = bySupplier.size ? await tx.select().from(suppliers).where(inArray(suppliers.id, [...bySupplier.keys()])) : []
+    const sups = bySupplier.size
+      ? await tx
+          .select()
+          .from(suppliers)
+          .where(inArray(suppliers.id, [...bySupplier.keys()]))
+      : []
     const created: string[] = []
     for (const supplier of sups.sort((a, b) => a.name.localeCompare(b.name))) {
       const rows = bySupplier.get(supplier.id)!
@@ -191,7 +199,9 @@ export async function updateDraft(db: Db, id: string, input: UpdatePurchaseOrder
     const ids = [...new Set(input.lines.map((l) => l.partId))]
     if (ids.length !== input.lines.length) {
       const dup = input.lines.findIndex((l, i) => input.lines.findIndex((m) => m.partId === l.partId) !== i)
-      throw new BadRequest(`Line ${dup + 1}: that part is on the order twice; put the quantities on one line`, { [`lines.${dup}.partId`]: 'On the order twice' })
+      throw new BadRequest(`Line ${dup + 1}: that part is on the order twice; put the quantities on one line`, {
+        [`lines.${dup}.partId`]: 'On the order twice',
+      })
     }
     const found = await tx.select({ id: parts.id }).from(parts).where(inArray(parts.id, ids))
     const missing = input.lines.findIndex((l) => !found.some((f) => f.id === l.partId))
@@ -207,7 +217,10 @@ export async function updateDraft(db: Db, id: string, input: UpdatePurchaseOrder
 export async function cancelPurchaseOrder(db: Db, id: string): Promise<PurchaseOrder> {
   return db.transaction(async (tx) => {
     const po = await lockPurchaseOrder(tx, id)
-    if (po.status !== 'draft' && po.status !== 'sent') throw new Conflict(`${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft or a sent order with nothing received can be cancelled`)
+    if (po.status !== 'draft' && po.status !== 'sent')
+      throw new Conflict(
+        `${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft or a sent order with nothing received can be cancelled`,
+      )
     await tx.update(purchaseOrders).set({ status: 'cancelled', updatedAt: new Date() }).where(eq(purchaseOrders.id, id))
     return getPurchaseOrder(tx, id)
   })
@@ -219,7 +232,9 @@ export async function purchaseOrderPdfOf(db: Conn, id: string, paper: 'letter' |
   const [settings] = await db.select().from(shopSettings).where(eq(shopSettings.id, 1))
   const [supplier] = await db.select().from(suppliers).where(eq(suppliers.id, po.supplier.id))
   const a = settings ? shipFromOf(settings) : null
-  const deliverTo = a ? [a.name, a.line1, ...(a.line2 ? [a.line2] : []), `${a.city}${a.region ? `, ${a.region}` : ''} ${a.postalCode}`, a.country, ...(a.phone ? [a.phone] : [])] : []
+  const deliverTo = a
+    ? [a.name, a.line1, ...(a.line2 ? [a.line2] : []), `${a.city}${a.region ? `, ${a.region}` : ''} ${a.postalCode}`, a.country, ...(a.phone ? [a.phone] : [])]
+    : []
   const pdf = await purchaseOrderPdf(
     {
       shopName: settings?.shopName ?? 'Kitwright',
@@ -249,7 +264,8 @@ export async function sendPurchaseOrder(deps: Pick<Deps, 'db' | 'jobs'>, id: str
     if (po.sentMailId) return { purchaseOrder: await getPurchaseOrder(tx, id), alreadySent: true }
     if (po.status !== 'draft') throw new Conflict(`${po.number} is ${statusInSentence(PURCHASE_ORDER_STATUS_WORDS, po.status)}: only a draft can be sent`)
     const [supplier] = await tx.select().from(suppliers).where(eq(suppliers.id, po.supplierId))
-    if (!supplier?.email) throw new Conflict(`${supplier?.name ?? 'The supplier'} has no e-mail address: add one on the Suppliers page, then send`, { email: 'Needed to send' })
+    if (!supplier?.email)
+      throw new Conflict(`${supplier?.name ?? 'The supplier'} has no e-mail address: add one on the Suppliers page, then send`, { email: 'Needed to send' })
     const current = await getPurchaseOrder(tx, id)
     if (current.lines.length === 0) throw new Conflict(`${po.number} has no lines: add what to buy first`)
     const expectedDate = po.expectedDate ?? addDays(today(), supplier.leadTimeDays ?? 0)
@@ -311,7 +327,12 @@ export async function receiveOnPurchaseOrder<M extends { id: string }>(
     const why = po.status === 'draft' ? 'is still a draft: send it first' : po.status === 'received' ? 'is received in full already' : 'is cancelled'
     throw new Conflict(`${po.number} ${why}; nothing was received`)
   }
-  const poLines = await tx.select().from(purchaseOrderLines).where(eq(purchaseOrderLines.purchaseOrderId, po.id)).orderBy(asc(purchaseOrderLines.id)).for('update')
+  const poLines = await tx
+    .select()
+    .from(purchaseOrderLines)
+    .where(eq(purchaseOrderLines.purchaseOrderId, po.id))
+    .orderBy(asc(purchaseOrderLines.id))
+    .for('update')
   const fields: Record<string, string> = {}
   const coming = new Map<string, number>()
   const plan = lines.map((l) => {
@@ -350,7 +371,9 @@ export async function receiveOnPurchaseOrder<M extends { id: string }>(
     const s = state.get(receipt.partId)!
     s.cost = movingAverageCost(s.onHand, s.cost, receipt.quantity, line.unitPriceCents)
     s.onHand += receipt.quantity
-    await tx.insert(purchaseOrderReceipts).values({ lineId: line.id, quantity: receipt.quantity, stockMoveId: moves[i]?.id ?? null, reason: receipt.reason, createdBy: actor.id })
+    await tx
+      .insert(purchaseOrderReceipts)
+      .values({ lineId: line.id, quantity: receipt.quantity, stockMoveId: moves[i]?.id ?? null, reason: receipt.reason, createdBy: actor.id })
     await tx
       .update(purchaseOrderLines)
       .set({ received: sql`${purchaseOrderLines.received} + ${receipt.quantity}`, ...(receipt.closeShort ? { closedShortReason: receipt.reason } : {}) })
@@ -359,16 +382,22 @@ export async function receiveOnPurchaseOrder<M extends { id: string }>(
   for (const [partId, s] of state) await tx.update(parts).set({ unitCostCents: s.cost, updatedAt: new Date() }).where(eq(parts.id, partId))
   const after = await tx.select().from(purchaseOrderLines).where(eq(purchaseOrderLines.purchaseOrderId, po.id))
   const done = after.every((l) => outstandingOf(l) === 0)
-  await tx.update(purchaseOrders).set({ status: done ? 'received' : 'partly_received', updatedAt: new Date() }).where(eq(purchaseOrders.id, po.id))
+  await tx
+    .update(purchaseOrders)
+    .set({ status: done ? 'received' : 'partly_received', updatedAt: new Date() })
+    .where(eq(purchaseOrders.id, po.id))
   return { number: po.number, moves }
 }
 
 /** A purchase order found by its number (`PO-00012`, any case), for packing lists that name it. */
 export async function findPurchaseOrderByNumber(db: Conn, number: string) {
-  const [row] = await db.select({
-    id: purchaseOrders.id,
-    number: purchaseOrders.number,
-    supplierId: purchaseOrders.supplierId,
-  }).from(purchaseOrders).where(sql`upper(${purchaseOrders.number}) = upper(${number})`)
+  const [row] = await db
+    .select({
+      id: purchaseOrders.id,
+      number: purchaseOrders.number,
+      supplierId: purchaseOrders.supplierId,
+    })
+    .from(purchaseOrders)
+    .where(sql`upper(${purchaseOrders.number}) = upper(${number})`)
   return row ?? null
 }

@@ -98,7 +98,17 @@ export const lateOrdersReport = define({
   },
   csv: (r) => ({
     header: ['Order', 'Customer', 'State', 'Placed (UTC)', 'Promised ship date', 'Days late', 'Units', 'Units shipped', 'State code'],
-    rows: r.rows.map((x) => [x.number, x.customerName, ORDER_STATUS_LABELS[x.status], x.placedAt, x.promisedShipDate, x.daysLate, x.units, x.unitsShipped, x.status]),
+    rows: r.rows.map((x) => [
+      x.number,
+      x.customerName,
+      ORDER_STATUS_LABELS[x.status],
+      x.placedAt,
+      x.promisedShipDate,
+      x.daysLate,
+      x.units,
+      x.unitsShipped,
+      x.status,
+    ]),
   }),
 })
 
@@ -113,7 +123,16 @@ export const wipReport = define({
   },
   csv: (r) => ({
     header: ['Bench', 'Units', 'In rework', `Stuck (no change for ${r.stuckDays}+ days)`, 'Oldest unit', 'Its order', 'Released (UTC)', 'Age (days)'],
-    rows: r.rows.map((x) => [BENCH_NAMES[x.bench], x.units, x.rework, x.stuck, x.oldestSerial, x.oldestOrderNumber, x.oldestReleasedAt, daysCell(x.oldestAgeDays)]),
+    rows: r.rows.map((x) => [
+      BENCH_NAMES[x.bench],
+      x.units,
+      x.rework,
+      x.stuck,
+      x.oldestSerial,
+      x.oldestOrderNumber,
+      x.oldestReleasedAt,
+      daysCell(x.oldestAgeDays),
+    ]),
   }),
 })
 
@@ -125,7 +144,17 @@ export const shortagesReport = define({
   csv: (rows) => ({
     header: ['SKU', 'Part', 'Unit', 'Needed', 'Reserved', 'Free in stock', 'Short', 'Work orders', 'Supplier', 'Lead time (days)', 'Reorder quantity'],
     rows: rows.map((x) => [
-      x.sku, x.name, x.kind === 'stock_length' ? 'sticks' : x.unitOfMeasure, x.needed, x.reserved, x.available, x.short, x.workOrderCount, x.supplier, x.leadTimeDays, x.reorderQuantity,
+      x.sku,
+      x.name,
+      x.kind === 'stock_length' ? 'sticks' : x.unitOfMeasure,
+      x.needed,
+      x.reserved,
+      x.available,
+      x.short,
+      x.workOrderCount,
+      x.supplier,
+      x.leadTimeDays,
+      x.reorderQuantity,
     ]),
   }),
 })
@@ -152,12 +181,29 @@ export const cutRunYieldReport = define({
     return { ...stamp(ctx), ...range, rows: await selectCutRunYield(db, range) }
   },
   csv: (r, unit) => ({
-    header: ['Cut run', 'Finished (UTC)', `Planned pieces (${unit})`, `Planned consumed (${unit})`, 'Planned yield (%)', `Actual pieces (${unit})`, `Actual consumed (${unit})`, 'Actual yield (%)', 'Damaged sticks', 'Pieces cut again'],
+    header: [
+      'Cut run',
+      'Finished (UTC)',
+      `Planned pieces (${unit})`,
+      `Planned consumed (${unit})`,
+      'Planned yield (%)',
+      `Actual pieces (${unit})`,
+      `Actual consumed (${unit})`,
+      'Actual yield (%)',
+      'Damaged sticks',
+      'Pieces cut again',
+    ],
     rows: r.rows.map((x) => [
-      x.number, x.completedAt,
-      lengthCell(x.planned.pieceLength, unit), lengthCell(x.planned.consumedLength, unit), percentCell(x.planned.yield),
-      lengthCell(x.actual.pieceLength, unit), lengthCell(x.actual.consumedLength, unit), percentCell(x.actual.yield),
-      x.damagedSticks, x.spoiledPieces,
+      x.number,
+      x.completedAt,
+      lengthCell(x.planned.pieceLength, unit),
+      lengthCell(x.planned.consumedLength, unit),
+      percentCell(x.planned.yield),
+      lengthCell(x.actual.pieceLength, unit),
+      lengthCell(x.actual.consumedLength, unit),
+      percentCell(x.actual.yield),
+      x.damagedSticks,
+      x.spoiledPieces,
     ]),
   }),
 })

@@ -17,8 +17,18 @@ const EXTENSIONS: Record<PhotoContentType, string> = { 'image/jpeg': 'jpg', 'ima
  * Presigns the browser's upload of one photo of a returned unit, exactly as the build bench does: the
  * promise (type, size) is written down unconfirmed, and `confirmReturnPhoto` checks the upload against it.
  */
-export async function presignReturnPhoto(db: Db, storage: Storage, returnId: string, input: z.infer<typeof PresignReturnPhotoSchema>, actor: SessionUser): Promise<PresignedPhoto> {
-  const [ret] = await db.select({ id: returns.id, number: returns.number, serial: workOrders.serial }).from(returns).innerJoin(workOrders, eq(workOrders.id, returns.workOrderId)).where(eq(returns.id, returnId))
+export async function presignReturnPhoto(
+  db: Db,
+  storage: Storage,
+  returnId: string,
+  input: z.infer<typeof PresignReturnPhotoSchema>,
+  actor: SessionUser,
+): Promise<PresignedPhoto> {
+  const [ret] = await db
+    .select({ id: returns.id, number: returns.number, serial: workOrders.serial })
+    .from(returns)
+    .innerJoin(workOrders, eq(workOrders.id, returns.workOrderId))
+    .where(eq(returns.id, returnId))
   if (!ret) throw new NotFound('No such return')
   // Kept beside the unit's build photos in the bucket, under its serial and the return's number.
   const key = `photos/${ret.serial}/returns/${ret.number}/${randomUUID()}.${EXTENSIONS[input.contentType]}`
@@ -29,12 +39,20 @@ export async function presignReturnPhoto(db: Db, storage: Storage, returnId: str
 
 /** Records the photo once a HEAD finds it in the bucket with the type and size promised at presign. */
 export async function confirmReturnPhoto(db: Db, storage: Storage, returnId: string, key: string, actor: SessionUser): Promise<void> {
-  const [photo] = await db.select().from(returnPhotos).where(and(eq(returnPhotos.returnId, returnId), eq(returnPhotos.key, key)))
+  const [photo] = await db
+    .select()
+    .from(returnPhotos)
+    .where(and(eq(returnPhotos.returnId, returnId), eq(returnPhotos.key, key)))
   if (!photo) throw new BadRequest('No upload was presigned for this return under this key; take the photo again', { key: 'Unknown key' })
   if (photo.uploadedAt) return
   const stored = await storage.head(key)
-  if (!stored) throw new BadRequest('The photo is not in the store: the upload did not finish. Take the photo again.', { key: 'Nothing uploaded under this key' })
-  if (stored.contentType !== photo.contentType) throw new BadRequest(`The upload is ${stored.contentType ?? 'of no type'}, not the ${photo.contentType} promised; take the photo again`, { key: 'Wrong type' })
-  if (stored.size !== photo.size) throw new BadRequest(`The upload is ${stored.size ?? 0} bytes, not the ${photo.size} promised; take the photo again`, { key: 'Wrong size' })
+  if (!stored)
+    throw new BadRequest('The photo is not in the store: the upload did not finish. Take the photo again.', { key: 'Nothing uploaded under this key' })
+  if (stored.contentType !== photo.contentType)
+    throw new BadRequest(`The upload is ${stored.contentType ?? 'of no type'}, not the ${photo.contentType} promised; take the photo again`, {
+      key: 'Wrong type',
+    })
+  if (stored.size !== photo.size)
+    throw new BadRequest(`The upload is ${stored.size ?? 0} bytes, not the ${photo.size} promised; take the photo again`, { key: 'Wrong size' })
   await db.update(returnPhotos).set({ uploadedAt: new Date(), uploadedBy: actor.id }).where(eq(returnPhotos.id, photo.id))
 }

@@ -11,7 +11,16 @@ const PHOTO_URL_SECONDS = 3600
 /** One return as its page shows it. */
 export async function loadReturn(db: Db, storage: Storage, returnId: string): Promise<Return> {
   const [row] = await db
-    .select({ r: returns, wo: workOrders, kitSku: kits.sku, kitName: kits.name, revisionCode: kitRevisions.code, orderNumber: orders.number, customerName: orders.customerName, currency: orders.currency })
+    .select({
+      r: returns,
+      wo: workOrders,
+      kitSku: kits.sku,
+      kitName: kits.name,
+      revisionCode: kitRevisions.code,
+      orderNumber: orders.number,
+      customerName: orders.customerName,
+      currency: orders.currency,
+    })
     .from(returns)
     .innerJoin(workOrders, eq(workOrders.id, returns.workOrderId))
     .innerJoin(kitRevisions, eq(kitRevisions.id, workOrders.kitRevisionId))
@@ -21,7 +30,11 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
   if (!row) throw new NotFound('No such return')
   const r: ReturnRow = row.r
   const [photos, steps] = await Promise.all([
-    db.select().from(returnPhotos).where(and(eq(returnPhotos.returnId, r.id), sql`${returnPhotos.uploadedAt} is not null`)).orderBy(asc(returnPhotos.uploadedAt)),
+    db
+      .select()
+      .from(returnPhotos)
+      .where(and(eq(returnPhotos.returnId, r.id), sql`${returnPhotos.uploadedAt} is not null`))
+      .orderBy(asc(returnPhotos.uploadedAt)),
     stepsOfRevision(db, row.wo.kitRevisionId),
   ])
   const names = await namesOf(db, [r.openedBy, r.receivedBy, r.decidedBy, ...photos.map((p) => p.uploadedBy)])
@@ -41,7 +54,14 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
       .from(workOrders)
       .innerJoin(orders, eq(orders.id, workOrders.orderId))
       .where(eq(workOrders.id, r.replacementWorkOrderId))
-    if (made) replacement = { orderId: r.replacementOrderId, orderNumber: made.orderNumber, workOrderId: r.replacementWorkOrderId, serial: made.serial, status: made.status }
+    if (made)
+      replacement = {
+        orderId: r.replacementOrderId,
+        orderNumber: made.orderNumber,
+        workOrderId: r.replacementWorkOrderId,
+        serial: made.serial,
+        status: made.status,
+      }
   }
   const reopened = (r.reopenedStepIds ?? []).flatMap((id) => {
     const s = steps.find((x) => x.id === id)
@@ -57,11 +77,27 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
     order: { id: r.orderId, number: row.orderNumber, customerName: row.customerName, currency: row.currency },
     openedBy: person(r.openedBy),
     openedAt: r.openedAt.toISOString(),
-    label: { status: r.labelStatus, carrier: r.carrier, service: r.service, trackingNumber: r.trackingNumber, chargeCents: r.chargeCents, boughtAt: r.labelBoughtAt?.toISOString() ?? null },
+    label: {
+      status: r.labelStatus,
+      carrier: r.carrier,
+      service: r.service,
+      trackingNumber: r.trackingNumber,
+      chargeCents: r.chargeCents,
+      boughtAt: r.labelBoughtAt?.toISOString() ?? null,
+    },
     received: r.receivedAt && r.receivedBy ? { at: r.receivedAt.toISOString(), by: person(r.receivedBy), code: r.receivedCode } : null,
     decision:
       r.decision && r.decidedAt && r.decidedBy
-        ? { kind: r.decision, note: r.decisionNote, at: r.decidedAt.toISOString(), by: person(r.decidedBy), reopenedSteps: reopened, repaired, replacement, refundCents: r.refundCents }
+        ? {
+            kind: r.decision,
+            note: r.decisionNote,
+            at: r.decidedAt.toISOString(),
+            by: person(r.decidedBy),
+            reopenedSteps: reopened,
+            repaired,
+            replacement,
+            refundCents: r.refundCents,
+          }
         : null,
     photos: photos.map((p, i) => ({ id: p.id, key: p.key, url: urls[i] ?? null, by: person(p.uploadedBy), at: p.uploadedAt!.toISOString() })),
     steps: steps.map((s) => ({ id: s.id, position: s.position, text: s.text })),
@@ -71,7 +107,11 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
 /** Returns, newest first; `undecided` is waiting for the parcel or back in the shop. */
 export async function listReturns(db: Db, status: string): Promise<ReturnListRow[]> {
   const where =
-    status === 'all' ? undefined : status === 'undecided' ? inArray(returns.status, ['awaiting_parcel', 'received']) : eq(returns.status, status as ReturnRow['status'])
+    status === 'all'
+      ? undefined
+      : status === 'undecided'
+        ? inArray(returns.status, ['awaiting_parcel', 'received'])
+        : eq(returns.status, status as ReturnRow['status'])
   const rows = await db
     .select({ r: returns, serial: workOrders.serial, kitSku: kits.sku, revisionCode: kitRevisions.code, orderNumber: orders.number })
     .from(returns)
@@ -113,9 +153,19 @@ export async function returnSummary(db: Db): Promise<ReturnSummary> {
     left join shipped s on s.kit_revision_id = kr.id
     group by k.sku, k.name, kr.code, r.reason
     order by k.sku, kr.code, count(*) desc, r.reason`)
-  const [open] = await db.select({ n: count() }).from(returns).where(inArray(returns.status, ['awaiting_parcel', 'received']))
+  const [open] = await db
+    .select({ n: count() })
+    .from(returns)
+    .where(inArray(returns.status, ['awaiting_parcel', 'received']))
   return {
-    rows: rows.rows.map((r) => ({ kitSku: r.kit_sku, kitName: r.kit_name, revisionCode: r.revision_code, reason: r.reason, returns: Number(r.returns), shipped: Number(r.shipped) })),
+    rows: rows.rows.map((r) => ({
+      kitSku: r.kit_sku,
+      kitName: r.kit_name,
+      revisionCode: r.revision_code,
+      reason: r.reason,
+      returns: Number(r.returns),
+      shipped: Number(r.shipped),
+    })),
     open: open?.n ?? 0,
   }
 }
@@ -126,7 +176,9 @@ export async function returnsOfSerial(db: Db, serial: string): Promise<UnitRetur
   if (!wo) throw new NotFound(`No unit with serial "${serial.trim()}"`)
   const rows = await db.select().from(returns).where(eq(returns.workOrderId, wo.id)).orderBy(asc(returns.openedAt))
   const replacementIds = rows.flatMap((r) => (r.replacementWorkOrderId ? [r.replacementWorkOrderId] : []))
-  const serials = replacementIds.length ? await db.select({ id: workOrders.id, serial: workOrders.serial }).from(workOrders).where(inArray(workOrders.id, replacementIds)) : []
+  const serials = replacementIds.length
+    ? await db.select({ id: workOrders.id, serial: workOrders.serial }).from(workOrders).where(inArray(workOrders.id, replacementIds))
+    : []
   return rows.map((r) => ({
     id: r.id,
     number: r.number,

@@ -34,14 +34,19 @@ const RECORD_READERS = ['admin', 'planner', 'assembler', 'packer'] as const
 /** Returns by serial: open, label, receive, photograph, decide; the shop's reasons; the owner's summary. */
 export function returnsRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/returns')
-  const audit = (req: Request, action: string, returnId: string, summary: string) => recordAudit(deps.db, auditContext(req), { action, entityType: 'return', entityId: returnId, summary })
+  const audit = (req: Request, action: string, returnId: string, summary: string) =>
+    recordAudit(deps.db, auditContext(req), { action, entityType: 'return', entityId: returnId, summary })
 
   r.get('/reasons', READERS, async (_req, res) => {
     res.json(await listReturnReasons(deps.db))
   })
   r.put('/reasons', ['admin'], async (req, res) => {
     const saved = await setReturnReasons(deps.db, UpdateReturnReasonsSchema.parse(req.body))
-    await recordAudit(deps.db, auditContext(req), { action: 'returns.reasons', entityType: 'settings', summary: `Return reasons set: ${saved.reasons.join(', ')}` })
+    await recordAudit(deps.db, auditContext(req), {
+      action: 'returns.reasons',
+      entityType: 'settings',
+      summary: `Return reasons set: ${saved.reasons.join(', ')}`,
+    })
     res.json(saved)
   })
   r.get('/summary', OFFICE, async (_req, res) => {
@@ -100,7 +105,12 @@ export function returnsRouter(deps: Deps, routes: RouteTable) {
     const { returnId } = ReturnParamsSchema.parse(req.params)
     const input = DecideReturnSchema.parse(req.body)
     const decided = await decideReturn(deps.db, returnId, input, currentUser(req))
-    await audit(req, 'return.decide', decided.id, `Return ${decided.number}: ${RETURN_DECISION_LABELS[input.decision]}${decided.refundCents !== null ? ` (${(decided.refundCents / 100).toFixed(2)})` : ''}`)
+    await audit(
+      req,
+      'return.decide',
+      decided.id,
+      `Return ${decided.number}: ${RETURN_DECISION_LABELS[input.decision]}${decided.refundCents !== null ? ` (${(decided.refundCents / 100).toFixed(2)})` : ''}`,
+    )
     res.json(await loadReturn(deps.db, deps.storage, returnId))
   })
   return r

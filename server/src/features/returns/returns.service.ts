@@ -42,7 +42,7 @@ type DecideReturn = z.infer<typeof DecideReturnSchema>
 
 const money = (cents: number, currency: string) => `${(cents / 100).toFixed(2)} ${currency}`
 
-// ── Reasons ─────────────────────────────────────────────────────────────────────────────────────
+// ── Reasons ────────────
 
 /** The shop's reasons in order; the defaults while the owner has set none. */
 export async function listReturnReasons(db: Db | Tx): Promise<ReturnReasons> {
@@ -62,11 +62,18 @@ export async function setReturnReasons(db: Db, input: z.infer<typeof UpdateRetur
   return listReturnReasons(db)
 }
 
-// ── Finding the unit ────────────────────────────────────────────────────────────────────────────
+// ── Finding the unit ────────────
 
 async function unitsWithKit(db: Db | Tx, where: SQL) {
   return db
-    .select({ wo: workOrders, kitSku: kits.sku, kitName: kits.name, revisionCode: kitRevisions.code, orderNumber: orders.number, orderShippedAt: orders.shippedAt })
+    .select({
+      wo: workOrders,
+      kitSku: kits.sku,
+      kitName: kits.name,
+      revisionCode: kitRevisions.code,
+      orderNumber: orders.number,
+      orderShippedAt: orders.shippedAt,
+    })
     .from(workOrders)
     .innerJoin(kitRevisions, eq(kitRevisions.id, workOrders.kitRevisionId))
     .innerJoin(kits, eq(kits.id, kitRevisions.kitId))
@@ -99,7 +106,10 @@ export async function lookupReturnable(db: Db, code: string): Promise<ReturnLook
   const wanted = code.trim()
   let rows = await unitsWithKit(db, sql`upper(${workOrders.serial}) = ${wanted.toUpperCase()}`)
   if (rows.length === 0) {
-    const [order] = await db.select({ id: orders.id, number: orders.number }).from(orders).where(sql`upper(${orders.number}) = ${wanted.toUpperCase()}`)
+    const [order] = await db
+      .select({ id: orders.id, number: orders.number })
+      .from(orders)
+      .where(sql`upper(${orders.number}) = ${wanted.toUpperCase()}`)
     if (!order) throw new NotFound(`No unit with serial "${wanted}" and no order numbered "${wanted}": check the label or the packing slip and scan again`)
     rows = (await unitsWithKit(db, eq(workOrders.orderId, order.id))).filter((r) => r.wo.status === 'shipped')
     if (rows.length === 0) throw new Conflict(`Order ${order.number} has no shipped unit; only a unit the customer has can be returned`)
@@ -111,7 +121,15 @@ export async function lookupReturnable(db: Db, code: string): Promise<ReturnLook
     ? await db
         .select({ id: returns.id, number: returns.number, workOrderId: returns.workOrderId })
         .from(returns)
-        .where(and(inArray(returns.workOrderId, rows.map((r) => r.wo.id)), inArray(returns.status, ['awaiting_parcel', 'received'])))
+        .where(
+          and(
+            inArray(
+              returns.workOrderId,
+              rows.map((r) => r.wo.id),
+            ),
+            inArray(returns.status, ['awaiting_parcel', 'received']),
+          ),
+        )
     : []
   const units = []
   for (const r of rows) {
@@ -132,7 +150,7 @@ export async function lookupReturnable(db: Db, code: string): Promise<ReturnLook
   return { code: wanted, units }
 }
 
-// ── Opening ─────────────────────────────────────────────────────────────────────────────────────
+// ── Opening ────────────
 
 async function lockReturn(tx: Tx, id: string): Promise<ReturnRow | undefined> {
   const [row] = await tx.select().from(returns).where(eq(returns.id, id)).for('update')
@@ -153,12 +171,22 @@ export async function openReturn(db: Db, input: OpenReturn, actor: SessionUser):
     if (why) throw new Conflict(why, { serial: 'Not shipped' })
     const { reasons } = await listReturnReasons(tx)
     const reason = reasons.find((r) => r.toLowerCase() === input.reason.toLowerCase())
-    if (!reason) throw new BadRequest(`"${input.reason}" is not one of the shop's return reasons (${reasons.join(', ')}); choose one, or ask the owner to add it in settings`, { reason: 'Choose one of the shop\'s reasons' })
+    if (!reason)
+      throw new BadRequest(
+        `"${input.reason}" is not one of the shop's return reasons (${reasons.join(', ')}); choose one, or ask the owner to add it in settings`,
+        { reason: "Choose one of the shop's reasons" },
+      )
     const earlier = await tx.select().from(returns).where(eq(returns.workOrderId, wo.id)).orderBy(desc(returns.openedAt))
     const undecided = earlier.find((r) => r.status === 'awaiting_parcel' || r.status === 'received')
-    if (undecided) throw new Conflict(`Unit ${wo.serial} already has return ${undecided.number} (${RETURN_STATUS_LABELS[undecided.status]}); open that one`, { serial: `Return ${undecided.number} is open` })
+    if (undecided)
+      throw new Conflict(`Unit ${wo.serial} already has return ${undecided.number} (${RETURN_STATUS_LABELS[undecided.status]}); open that one`, {
+        serial: `Return ${undecided.number} is open`,
+      })
     const kept = earlier.find((r) => r.status === 'replace' || r.status === 'refund')
-    if (kept) throw new Conflict(`Unit ${wo.serial} came back on return ${kept.number} (${RETURN_STATUS_LABELS[kept.status]}); the customer no longer has it`, { serial: `Returned on ${kept.number}` })
+    if (kept)
+      throw new Conflict(`Unit ${wo.serial} came back on return ${kept.number} (${RETURN_STATUS_LABELS[kept.status]}); the customer no longer has it`, {
+        serial: `Returned on ${kept.number}`,
+      })
     const [{ n }] = (await tx.execute<{ n: string }>(sql`select nextval('return_number_seq')::text as n`)).rows as [{ n: string }]
     const [created] = await tx
       .insert(returns)
@@ -175,9 +203,18 @@ export async function openReturn(db: Db, input: OpenReturn, actor: SessionUser):
   })
 }
 
-// ── The return label (bought exactly once) ──────────────────────────────────────────────────────
+// ── The return label (bought exactly once) ────────────
 
-const AddressJson = z.object({ name: z.string(), line1: z.string(), line2: z.string().nullable(), city: z.string(), region: z.string().nullable(), postalCode: z.string(), country: z.string(), phone: z.string().nullish() })
+const AddressJson = z.object({
+  name: z.string(),
+  line1: z.string(),
+  line2: z.string().nullable(),
+  city: z.string(),
+  region: z.string().nullable(),
+  postalCode: z.string(),
+  country: z.string(),
+  phone: z.string().nullish(),
+})
 const ReturnLabelRequestSchema = z.object({
   carrier: z.string(),
   service: z.string(),
@@ -213,18 +250,36 @@ async function recordBuying(deps: LabelDeps, ret: ReturnRow, input: BuyReturnLab
   const [settings] = await deps.db.select().from(shopSettings).limit(1)
   const from = settings ? shipFromOf(settings) : null
   if (!settings || !from) throw new Conflict('The shop has no ship-from address: an owner sets it in shop settings; the return comes back to it')
-  if (!settings.carrierName) throw new Conflict('The shop has no carrier set: an owner sets it in shop settings (the carrier name as the shipping service names it)')
+  if (!settings.carrierName)
+    throw new Conflict('The shop has no carrier set: an owner sets it in shop settings (the carrier name as the shipping service names it)')
   const [order] = await deps.db.select().from(orders).where(eq(orders.id, ret.orderId))
   const [wo] = await deps.db.select().from(workOrders).where(eq(workOrders.id, ret.workOrderId))
   const parcel = await outboundParcel(deps.db, ret.workOrderId)
   if (!order || !wo) throw new NotFound('No such return')
-  if (!parcel) throw new Conflict(`Unit ${wo.serial} left without a parcel on record, so its size and weight are unknown; the customer sends it back at their own cost`)
-  const customer = { name: order.shipName, line1: order.shipLine1, line2: order.shipLine2, city: order.shipCity, region: order.shipRegion, postalCode: order.shipPostalCode, country: order.shipCountry, phone: order.customerPhone }
+  if (!parcel)
+    throw new Conflict(`Unit ${wo.serial} left without a parcel on record, so its size and weight are unknown; the customer sends it back at their own cost`)
+  const customer = {
+    name: order.shipName,
+    line1: order.shipLine1,
+    line2: order.shipLine2,
+    city: order.shipCity,
+    region: order.shipRegion,
+    postalCode: order.shipPostalCode,
+    country: order.shipCountry,
+    phone: order.customerPhone,
+  }
   // As the outbound label (shop → customer) with the return flag: the carrier swaps the two.
   const request = {
     from,
     to: customer,
-    parcels: [{ weightGrams: parcel.billableGrams, lengthMm: parcel.length / LENGTH_BASE_PER_MM, widthMm: parcel.width / LENGTH_BASE_PER_MM, heightMm: parcel.height / LENGTH_BASE_PER_MM }],
+    parcels: [
+      {
+        weightGrams: parcel.billableGrams,
+        lengthMm: parcel.length / LENGTH_BASE_PER_MM,
+        widthMm: parcel.width / LENGTH_BASE_PER_MM,
+        heightMm: parcel.height / LENGTH_BASE_PER_MM,
+      },
+    ],
     reference: `${ret.number} ${wo.serial}`,
     isReturn: true,
   }
@@ -234,14 +289,19 @@ async function recordBuying(deps: LabelDeps, ret: ReturnRow, input: BuyReturnLab
     const locked = await lockReturn(tx, ret.id)
     if (!locked) throw new NotFound('No such return')
     if (locked.labelStatus !== 'none') return locked
-    const [updated] = await tx.update(returns).set({ labelStatus: 'buying', labelKey: randomUUID(), labelRequest: stored, carrierRef: null }).where(eq(returns.id, ret.id)).returning()
+    const [updated] = await tx
+      .update(returns)
+      .set({ labelStatus: 'buying', labelKey: randomUUID(), labelRequest: stored, carrierRef: null })
+      .where(eq(returns.id, ret.id))
+      .returning()
     return updated!
   })
 }
 
 async function recordLabel(deps: LabelDeps, ret: ReturnRow, label: CarrierLabel, actor: SessionUser | null) {
   const parcel = label.parcels[0]
-  if (!parcel || label.parcels.length !== 1) throw new Unavailable(`The carrier sold ${label.parcels.length} parcel labels for one return parcel; ask the office to check the carrier account`)
+  if (!parcel || label.parcels.length !== 1)
+    throw new Unavailable(`The carrier sold ${label.parcels.length} parcel labels for one return parcel; ask the office to check the carrier account`)
   await deps.db.transaction(async (tx) => {
     const locked = await lockReturn(tx, ret.id)
     if (!locked || locked.labelStatus !== 'buying' || locked.labelKey !== ret.labelKey) return
@@ -280,7 +340,10 @@ async function finishPurchase(deps: LabelDeps, ret: ReturnRow, actor: SessionUse
     let label: CarrierLabel | null = null
     if (!ref) {
       ref = await carrier.prepareLabel(stored.request, key)
-      await deps.db.update(returns).set({ carrierRef: ref }).where(and(eq(returns.id, ret.id), eq(returns.labelKey, key)))
+      await deps.db
+        .update(returns)
+        .set({ carrierRef: ref })
+        .where(and(eq(returns.id, ret.id), eq(returns.labelKey, key)))
     } else if (resuming) {
       label = await carrier.findLabel(ref)
     }
@@ -311,7 +374,8 @@ export async function buyReturnLabel(deps: LabelDeps, returnId: string, input: B
     const [current] = await deps.db.select().from(returns).where(eq(returns.id, returnId))
     if (!current) throw new NotFound('No such return')
     if (current.labelStatus === 'bought') return
-    if (current.labelStatus === 'none' && current.status !== 'awaiting_parcel') throw new Conflict(`Return ${current.number} is already back in the shop; it needs no return label`)
+    if (current.labelStatus === 'none' && current.status !== 'awaiting_parcel')
+      throw new Conflict(`Return ${current.number} is already back in the shop; it needs no return label`)
     const resuming = current.labelStatus === 'buying'
     const ret = resuming ? current : await recordBuying(deps, current, input)
     if (ret.labelStatus !== 'buying') return
@@ -319,7 +383,7 @@ export async function buyReturnLabel(deps: LabelDeps, returnId: string, input: B
   })
 }
 
-// ── Receiving ───────────────────────────────────────────────────────────────────────────────────
+// ── Receiving ────────────
 
 /**
  * The packer scans the return label's tracking number or the unit's serial: the return waiting for
@@ -328,7 +392,10 @@ export async function buyReturnLabel(deps: LabelDeps, returnId: string, input: B
 export async function receiveReturn(db: Db, code: string, actor: SessionUser): Promise<ReturnRow> {
   const wanted = code.trim().toUpperCase()
   return db.transaction(async (tx) => {
-    const [byTracking] = await tx.select().from(returns).where(sql`upper(${returns.trackingNumber}) = ${wanted}`)
+    const [byTracking] = await tx
+      .select()
+      .from(returns)
+      .where(sql`upper(${returns.trackingNumber}) = ${wanted}`)
     let candidate = byTracking
     if (!candidate) {
       const wo = await findWorkOrderBySerial(tx, wanted)
@@ -339,16 +406,28 @@ export async function receiveReturn(db: Db, code: string, actor: SessionUser): P
     }
     const ret = (await lockReturn(tx, candidate.id))!
     if (ret.status !== 'awaiting_parcel') {
-      throw new Conflict(`Return ${ret.number} was already received${ret.receivedAt ? ` on ${ret.receivedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : ''}; nothing to do`)
+      throw new Conflict(
+        `Return ${ret.number} was already received${ret.receivedAt ? ` on ${ret.receivedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : ''}; nothing to do`,
+      )
     }
-    const [updated] = await tx.update(returns).set({ status: 'received', receivedAt: new Date(), receivedBy: actor.id, receivedCode: code.trim() }).where(eq(returns.id, ret.id)).returning()
+    const [updated] = await tx
+      .update(returns)
+      .set({ status: 'received', receivedAt: new Date(), receivedBy: actor.id, receivedCode: code.trim() })
+      .where(eq(returns.id, ret.id))
+      .returning()
     const [wo] = await tx.select({ serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, ret.workOrderId))
-    await addOrderEvent(tx, { orderId: ret.orderId, kind: 'return_received', message: `Return ${ret.number} received back: unit ${wo?.serial ?? ''}`, data: { returnId: ret.id, code: code.trim() }, actor })
+    await addOrderEvent(tx, {
+      orderId: ret.orderId,
+      kind: 'return_received',
+      message: `Return ${ret.number} received back: unit ${wo?.serial ?? ''}`,
+      data: { returnId: ret.id, code: code.trim() },
+      actor,
+    })
     return updated!
   })
 }
 
-// ── Deciding ────────────────────────────────────────────────────────────────────────────────────
+// ── Deciding ────────────
 
 async function lockUndecided(tx: Tx, returnId: string): Promise<ReturnRow> {
   const ret = await lockReturn(tx, returnId)
@@ -367,41 +446,89 @@ async function decideRepair(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn,
   const wo = (await lockWorkOrder(tx, ret.workOrderId))!
   const found = await findRevisionWithKit(tx, wo.kitRevisionId)
   if (!found || !protocolOf(found.revision)) {
-    throw new Conflict(`Unit ${wo.serial} (${found?.kit.sku ?? 'its kit'} rev ${found?.revision.code ?? ''}) has no leak test to repeat, so the build bench cannot repair it; replace it or note a refund`)
+    throw new Conflict(
+      `Unit ${wo.serial} (${found?.kit.sku ?? 'its kit'} rev ${found?.revision.code ?? ''}) has no leak test to repeat, so the build bench cannot repair it; replace it or note a refund`,
+    )
   }
   const steps = await stepsOfRevision(tx, wo.kitRevisionId)
   const unknown = input.reopenStepIds.filter((id) => !steps.some((s) => s.id === id))
-  if (unknown.length > 0) throw new BadRequest(`Only the build steps of ${found.kit.sku} rev ${found.revision.code} can be reopened`, { reopenStepIds: 'Choose steps of this unit' })
+  if (unknown.length > 0)
+    throw new BadRequest(`Only the build steps of ${found.kit.sku} rev ${found.revision.code} can be reopened`, { reopenStepIds: 'Choose steps of this unit' })
   const reopened = steps.filter((s) => input.reopenStepIds.includes(s.id))
   const now = new Date()
   if (reopened.length > 0) {
     await tx
       .update(buildStepTicks)
       .set({ undoneAt: now, undoneBy: actor.id })
-      .where(and(eq(buildStepTicks.workOrderId, wo.id), inArray(buildStepTicks.buildStepId, reopened.map((s) => s.id)), isNull(buildStepTicks.undoneAt)))
+      .where(
+        and(
+          eq(buildStepTicks.workOrderId, wo.id),
+          inArray(
+            buildStepTicks.buildStepId,
+            reopened.map((s) => s.id),
+          ),
+          isNull(buildStepTicks.undoneAt),
+        ),
+      )
   }
   const stepWords = reopened.length ? `steps ${reopened.map((s) => s.position).join(', ')} to do again, then a new leak test` : 'a new leak test'
   const [entry] = await tx
     .insert(reworkEntries)
-    .values({ workOrderId: wo.id, reason: `Returned on ${ret.number} (${ret.reason}): ${stepWords}${input.note ? `. ${input.note}` : ''}`, createdBy: actor.id })
+    .values({
+      workOrderId: wo.id,
+      reason: `Returned on ${ret.number} (${ret.reason}): ${stepWords}${input.note ? `. ${input.note}` : ''}`,
+      createdBy: actor.id,
+    })
     .returning()
   await tx.update(workOrders).set({ status: 'rework', updatedAt: now }).where(eq(workOrders.id, wo.id))
   // The ledger: the unit's parts are back in the shop (inside the unit, from the lots fitted into it)
   // and held for it, so shipping it again after the repair takes them off once more, net nothing.
   const bom = await bomOfRevisions(tx, [wo.kitRevisionId])
-  await lockParts(tx, bom.map((b) => b.partId))
+  await lockParts(
+    tx,
+    bom.map((b) => b.partId),
+  )
   const why = `Back in the shop inside unit ${wo.serial} (return ${ret.number}), held for its repair`
-  const outward = bom.map((b) => ({ partId: b.partId, kind: 'receive' as const, quantity: -b.quantity, workOrderId: wo.id, reason: why, reference: ret.number, createdBy: actor.id }))
-  await insertMoves(tx, (await splitShipMovesByLot(tx, wo.id, outward)).map((m) => ({ ...m, quantity: -m.quantity })))
-  if (bom.length > 0) await reserveStock(tx, { workOrderId: wo.id, lines: bom.map((b) => ({ partId: b.partId, quantity: b.quantity, stickLength: null })), reason: why }, actor)
+  const outward = bom.map((b) => ({
+    partId: b.partId,
+    kind: 'receive' as const,
+    quantity: -b.quantity,
+    workOrderId: wo.id,
+    reason: why,
+    reference: ret.number,
+    createdBy: actor.id,
+  }))
+  await insertMoves(
+    tx,
+    (await splitShipMovesByLot(tx, wo.id, outward)).map((m) => ({ ...m, quantity: -m.quantity })),
+  )
+  if (bom.length > 0)
+    await reserveStock(tx, { workOrderId: wo.id, lines: bom.map((b) => ({ partId: b.partId, quantity: b.quantity, stickLength: null })), reason: why }, actor)
   // The order owes the customer this unit again: once repaired it is packed and shipped as any unit
   // of a partly shipped order, and the order is shipped again when it leaves.
-  await tx.update(orders).set({ status: 'partially_shipped', shippedAt: null, updatedAt: now }).where(and(eq(orders.id, ret.orderId), eq(orders.status, 'shipped')))
+  await tx
+    .update(orders)
+    .set({ status: 'partially_shipped', shippedAt: null, updatedAt: now })
+    .where(and(eq(orders.id, ret.orderId), eq(orders.status, 'shipped')))
   await tx
     .update(returns)
-    .set({ status: 'repair', decision: 'repair', decisionNote: input.note, decidedAt: now, decidedBy: actor.id, reopenedStepIds: reopened.map((s) => s.id), reworkEntryId: entry!.id })
+    .set({
+      status: 'repair',
+      decision: 'repair',
+      decisionNote: input.note,
+      decidedAt: now,
+      decidedBy: actor.id,
+      reopenedStepIds: reopened.map((s) => s.id),
+      reworkEntryId: entry!.id,
+    })
     .where(eq(returns.id, ret.id))
-  await addOrderEvent(tx, { orderId: ret.orderId, kind: 'return_decided', message: `Return ${ret.number}: unit ${wo.serial} back to the build bench for repair (${stepWords}); once ready it goes to the pack bench to ship back`, data: { returnId: ret.id, decision: 'repair' }, actor })
+  await addOrderEvent(tx, {
+    orderId: ret.orderId,
+    kind: 'return_decided',
+    message: `Return ${ret.number}: unit ${wo.serial} back to the build bench for repair (${stepWords}); once ready it goes to the pack bench to ship back`,
+    data: { returnId: ret.id, decision: 'repair' },
+    actor,
+  })
 }
 
 /**
@@ -425,7 +552,15 @@ async function decideReplace(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn
     {
       number: `${orig.number}-${ret.number}`,
       customer: { name: orig.customerName, email: orig.customerEmail, phone: orig.customerPhone ?? undefined },
-      shipTo: { name: orig.shipName, line1: orig.shipLine1, line2: orig.shipLine2 ?? undefined, city: orig.shipCity, region: orig.shipRegion ?? undefined, postalCode: orig.shipPostalCode, country: orig.shipCountry },
+      shipTo: {
+        name: orig.shipName,
+        line1: orig.shipLine1,
+        line2: orig.shipLine2 ?? undefined,
+        city: orig.shipCity,
+        region: orig.shipRegion ?? undefined,
+        postalCode: orig.shipPostalCode,
+        country: orig.shipCountry,
+      },
       placedAt: new Date().toISOString(),
       promisedShipDate: undefined,
       note: `Replacement for unit ${unit.serial} of order ${orig.number}, return ${ret.number} (${ret.reason})${input.note ? `: ${input.note}` : ''}`,
@@ -441,7 +576,15 @@ async function decideReplace(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn
   const now = new Date()
   await tx
     .update(returns)
-    .set({ status: 'replace', decision: 'replace', decisionNote: input.note, decidedAt: now, decidedBy: actor.id, replacementOrderId: order.id, replacementWorkOrderId: made.id })
+    .set({
+      status: 'replace',
+      decision: 'replace',
+      decisionNote: input.note,
+      decidedAt: now,
+      decidedBy: actor.id,
+      replacementOrderId: order.id,
+      replacementWorkOrderId: made.id,
+    })
     .where(eq(returns.id, ret.id))
   await addOrderEvent(tx, {
     orderId: ret.orderId,
@@ -454,10 +597,16 @@ async function decideReplace(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn
 
 /** Refund noted: the store moves the money; Kitwright records how much and the note. */
 async function decideRefund(tx: Tx, ret: ReturnRow, input: Extract<DecideReturn, { decision: 'refund' }>, actor: SessionUser) {
-  const [orig] = await tx.select({ totalCents: orders.totalCents, currency: orders.currency, number: orders.number }).from(orders).where(eq(orders.id, ret.orderId))
+  const [orig] = await tx
+    .select({ totalCents: orders.totalCents, currency: orders.currency, number: orders.number })
+    .from(orders)
+    .where(eq(orders.id, ret.orderId))
   if (!orig) throw new NotFound('No such return')
   if (orig.totalCents > 0 && input.amountCents > orig.totalCents) {
-    throw new BadRequest(`The refund (${money(input.amountCents, orig.currency)}) is more than order ${orig.number} came to (${money(orig.totalCents, orig.currency)}); check the amount`, { amountCents: 'More than the order total' })
+    throw new BadRequest(
+      `The refund (${money(input.amountCents, orig.currency)}) is more than order ${orig.number} came to (${money(orig.totalCents, orig.currency)}); check the amount`,
+      { amountCents: 'More than the order total' },
+    )
   }
   const now = new Date()
   await tx

@@ -58,7 +58,9 @@ async function kindOfCode(db: Db, code: string): Promise<{ kind: CodeKind; id: s
     limit 3`)
   if (rows.length > 1) {
     const names: Record<CodeKind, string> = { bin: 'bin', work_order: 'unit', order: 'order', offcut: 'offcut', part: 'part' }
-    throw new Conflict(`The code "${code}" names ${rows.map((r) => `${names[r.kind] ?? r.kind} ${r.label}`).join(' and ')}; Kitwright will not guess which. Scan the other label on it, or ask the planner to rename one`)
+    throw new Conflict(
+      `The code "${code}" names ${rows.map((r) => `${names[r.kind] ?? r.kind} ${r.label}`).join(' and ')}; Kitwright will not guess which. Scan the other label on it, or ask the planner to rename one`,
+    )
   }
   return rows[0]
 }
@@ -76,14 +78,15 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
   switch (found.kind) {
     case 'bin': {
       const [bin] = await db.select().from(bins).where(eq(bins.id, found.id))
-      if (!bin!.workOrderId) return {
-        ...base,
-        kind: 'bin',
-        code: bin!.code,
-        title: `Bin ${bin!.code} is empty`,
-        status: bin!.status,
-        next: { place: 'cut', message: 'Free: fill it at the cut bench' },
-      }
+      if (!bin!.workOrderId)
+        return {
+          ...base,
+          kind: 'bin',
+          code: bin!.code,
+          title: `Bin ${bin!.code} is empty`,
+          status: bin!.status,
+          next: { place: 'cut', message: 'Free: fill it at the cut bench' },
+        }
       const held = await unitById(db, bin!.workOrderId)
       if (!held) throw new NotFound(`Bin ${bin!.code} points at a unit Kitwright cannot find; tell the planner`)
       return {
@@ -120,11 +123,23 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
             : order!.status === 'cancelled'
               ? { place: 'office', message: 'Cancelled' }
               : { place: 'pack', message: 'In production; the pack bench ships it when every unit is built' }
-      return { ...base, kind: 'order', code: order!.number, title: `Order ${order!.number} for ${order!.customerName}`, status: order!.status, next, orderId: order!.id }
+      return {
+        ...base,
+        kind: 'order',
+        code: order!.number,
+        title: `Order ${order!.number} for ${order!.customerName}`,
+        status: order!.status,
+        next,
+        orderId: order!.id,
+      }
     }
     case 'offcut': {
       const [[oc], settings] = await Promise.all([
-        db.select({ oc: offcuts, sku: parts.sku, partId: parts.id }).from(offcuts).innerJoin(parts, eq(parts.id, offcuts.partId)).where(eq(offcuts.id, found.id)),
+        db
+          .select({ oc: offcuts, sku: parts.sku, partId: parts.id })
+          .from(offcuts)
+          .innerJoin(parts, eq(parts.id, offcuts.partId))
+          .where(eq(offcuts.id, found.id)),
         getShopSettings(db),
       ])
       const next: ScanResult['next'] =
@@ -133,7 +148,15 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
           : oc!.oc.status === 'reserved'
             ? { place: 'cut', message: 'Reserved by a published cut run: take it to the cut bench' }
             : { place: 'done', message: oc!.oc.status === 'used' ? 'Already cut up' : 'Scrapped' }
-      return { ...base, kind: 'offcut', code: oc!.oc.code, title: `Offcut of ${oc!.sku}, ${formatLength(oc!.oc.length, settings.displayUnit)}`, status: oc!.oc.status, next, partId: oc!.partId }
+      return {
+        ...base,
+        kind: 'offcut',
+        code: oc!.oc.code,
+        title: `Offcut of ${oc!.sku}, ${formatLength(oc!.oc.length, settings.displayUnit)}`,
+        status: oc!.oc.status,
+        next,
+        partId: oc!.partId,
+      }
     }
     case 'part': {
       const [part] = await db.select().from(parts).where(eq(parts.id, found.id))

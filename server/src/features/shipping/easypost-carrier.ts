@@ -40,13 +40,27 @@ function cents(amount: string): number {
 }
 
 function address(a: CarrierAddress) {
-  return { name: a.name, street1: a.line1, street2: a.line2 ?? undefined, city: a.city, state: a.region ?? undefined, zip: a.postalCode, country: a.country, phone: a.phone ?? undefined }
+  return {
+    name: a.name,
+    street1: a.line1,
+    street2: a.line2 ?? undefined,
+    city: a.city,
+    state: a.region ?? undefined,
+    zip: a.postalCode,
+    country: a.country,
+    phone: a.phone ?? undefined,
+  }
 }
 
 /** Size in inches and weight in ounces, rounded up to a tenth as the API takes them. */
 function parcel(p: CarrierParcel) {
   const tenth = (n: number) => Math.ceil(n * 10) / 10
-  return { length: tenth(p.lengthMm / MM_PER_IN), width: tenth(p.widthMm / MM_PER_IN), height: tenth(p.heightMm / MM_PER_IN), weight: tenth(p.weightGrams / G_PER_OZ) }
+  return {
+    length: tenth(p.lengthMm / MM_PER_IN),
+    width: tenth(p.widthMm / MM_PER_IN),
+    height: tenth(p.heightMm / MM_PER_IN),
+    weight: tenth(p.weightGrams / G_PER_OZ),
+  }
 }
 
 /** The SDK's error → an answer that tells the packer what happened, never a bare 500. */
@@ -55,7 +69,9 @@ function carrierError(err: unknown, doing: string): Error {
   const status = typeof e?.statusCode === 'number' ? e.statusCode : null
   const message = typeof e?.message === 'string' && e.message ? e.message : String(err)
   if (status !== null && status >= 400 && status < 500 && status !== 408 && status !== 429) {
-    const fields = Array.isArray(e.errors) ? e.errors.map((f: { field?: string; message?: string }) => [f.field, f.message].filter(Boolean).join(': ')).filter(Boolean) : []
+    const fields = Array.isArray(e.errors)
+      ? e.errors.map((f: { field?: string; message?: string }) => [f.field, f.message].filter(Boolean).join(': ')).filter(Boolean)
+      : []
     return new Conflict(`The carrier refused ${doing}: ${message}${fields.length ? ` (${fields.join('; ')})` : ''}`)
   }
   return new Unavailable(`The carrier could not be reached ${doing} (${message}); nothing was lost, try again in a minute`)
@@ -80,7 +96,11 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
   const options = { baseUrl: config.baseUrl, timeout: config.timeoutMs ?? 20_000 }
   const plain = new EasyPostClient(config.apiKey, options)
   /** A client whose every request carries the purchase's key. */
-  const keyed = (key: string) => new EasyPostClient(config.apiKey, { ...options, requestMiddleware: (req: { set(name: string, value: string): unknown }) => (req.set('Idempotency-Key', key), req) })
+  const keyed = (key: string) =>
+    new EasyPostClient(config.apiKey, {
+      ...options,
+      requestMiddleware: (req: { set(name: string, value: string): unknown }) => (req.set('Idempotency-Key', key), req),
+    })
 
   async function call<T>(doing: string, fn: () => Promise<T>): Promise<T> {
     try {
@@ -128,7 +148,13 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
     async quote(request) {
       const order = OrderSchema.parse(await call('to quote', () => plain.Order.create(orderParams(request, request.reference))))
       // The order's rates are per service for all its parcels together.
-      return order.rates.map((r) => ({ carrier: r.carrier, service: r.service, name: serviceName(r.service), days: r.delivery_days ?? 0, chargeCents: cents(r.rate) }))
+      return order.rates.map((r) => ({
+        carrier: r.carrier,
+        service: r.service,
+        name: serviceName(r.service),
+        days: r.delivery_days ?? 0,
+        chargeCents: cents(r.rate),
+      }))
     },
     async prepareLabel(request, key) {
       const order = OrderSchema.parse(await call('to record the parcels', () => keyed(key).Order.create(orderParams(request, key))))
@@ -160,14 +186,21 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
       return labelOf(OrderSchema.parse(await call('to look up the label', () => plain.Order.retrieve(carrierRef))))
     },
     async voidLabel(refs) {
-      const answers = await Promise.all(refs.map((id) => call('the refund', () => plain.Shipment.refund(id)).then((s) => ShipmentSchema.parse(s).refund_status ?? 'submitted')))
+      const answers = await Promise.all(
+        refs.map((id) => call('the refund', () => plain.Shipment.refund(id)).then((s) => ShipmentSchema.parse(s).refund_status ?? 'submitted')),
+      )
       if (answers.includes('rejected')) return 'rejected'
       return answers.every((a) => a === 'refunded') ? 'refunded' : 'submitted'
     },
     async trackingStatus(trackingNumber, carrier) {
       const t = TrackerSchema.parse(await call('to track the parcel', () => plain.Tracker.create({ tracking_code: trackingNumber, carrier })))
       const last = t.tracking_details.at(-1)
-      return { trackingNumber: t.tracking_code, status: t.status, detail: last?.message ?? null, at: last?.datetime ?? t.updated_at ?? new Date().toISOString() }
+      return {
+        trackingNumber: t.tracking_code,
+        status: t.status,
+        detail: last?.message ?? null,
+        at: last?.datetime ?? t.updated_at ?? new Date().toISOString(),
+      }
     },
     readEvent(rawBody, headers) {
       if (!config.webhookSecret) throw new CarrierEventRejected('CARRIER_WEBHOOK_SECRET is not set on this server')
@@ -185,7 +218,13 @@ export function easyPostCarrier(config: EasyPostCarrierConfig): Carrier {
       const tracker = TrackerSchema.safeParse(event.data.result)
       if (!tracker.success) throw new CarrierEventRejected('the tracking event has no tracker')
       const last = tracker.data.tracking_details.at(-1)
-      return { eventId: event.data.id, trackingNumber: tracker.data.tracking_code, status: tracker.data.status, detail: last?.message ?? null, at: last?.datetime ?? tracker.data.updated_at ?? new Date().toISOString() }
+      return {
+        eventId: event.data.id,
+        trackingNumber: tracker.data.tracking_code,
+        status: tracker.data.status,
+        detail: last?.message ?? null,
+        at: last?.datetime ?? tracker.data.updated_at ?? new Date().toISOString(),
+      }
     },
   }
 }
@@ -194,9 +233,12 @@ const CarrierEnvSchema = z.object({
   /** The carrier account's API key; unset → no labels can be bought. */
   CARRIER_API_KEY: z.string().min(1).optional(),
   /** The API's base URL (`…/v2/`); unset → the hosted service. `npm start` and `npm test` point it at the local stand-in. */
-  CARRIER_API_URL: z.string().url('CARRIER_API_URL must be the shipping API\'s base URL ending in /v2/, e.g. http://127.0.0.1:54331/v2/').optional(),
+  CARRIER_API_URL: z.string().url("CARRIER_API_URL must be the shipping API's base URL ending in /v2/, e.g. http://127.0.0.1:54331/v2/").optional(),
   /** The secret the carrier signs tracking events with (its webhook secret). */
-  CARRIER_WEBHOOK_SECRET: z.string().min(16, 'CARRIER_WEBHOOK_SECRET must be at least 16 characters, the same as the webhook secret in the carrier account').optional(),
+  CARRIER_WEBHOOK_SECRET: z
+    .string()
+    .min(16, 'CARRIER_WEBHOOK_SECRET must be at least 16 characters, the same as the webhook secret in the carrier account')
+    .optional(),
 })
 
 /**
@@ -207,7 +249,10 @@ const CarrierEnvSchema = z.object({
 export function carrierFromEnv(source: NodeJS.ProcessEnv = process.env): Carrier | null {
   // An empty variable counts as unset.
   const parsed = CarrierEnvSchema.safeParse(Object.fromEntries(Object.entries(source).filter(([, v]) => v !== '')))
-  if (!parsed.success) throw new Error(`Kitwright cannot start; fix these environment variables (see .env.example):\n${parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}`)
+  if (!parsed.success)
+    throw new Error(
+      `Kitwright cannot start; fix these environment variables (see .env.example):\n${parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n')}`,
+    )
   const env = parsed.data
   if (!env.CARRIER_API_KEY) return null
   const baseUrl = env.CARRIER_API_URL ? env.CARRIER_API_URL.replace(/\/*$/, '/') : undefined

@@ -15,13 +15,27 @@ import type { Carrier, CarrierLabel, TrackingUpdate } from './carrier'
 
 export type LabelDeps = Pick<Deps, 'db' | 'pool' | 'carrier' | 'logger'>
 
-const AddressJson = z.object({ name: z.string(), line1: z.string(), line2: z.string().nullable(), city: z.string(), region: z.string().nullable(), postalCode: z.string(), country: z.string(), phone: z.string().nullish() })
+const AddressJson = z.object({
+  name: z.string(),
+  line1: z.string(),
+  line2: z.string().nullable(),
+  city: z.string(),
+  region: z.string().nullable(),
+  postalCode: z.string(),
+  country: z.string(),
+  phone: z.string().nullish(),
+})
 
 /** What a purchase under way needs to be finished after a crash: kept on the shipment as `labelRequest`. */
 const LabelRequestSchema = z.object({
   carrier: z.string(),
   service: z.string(),
-  request: z.object({ from: AddressJson, to: AddressJson, parcels: z.array(z.object({ weightGrams: z.number(), lengthMm: z.number(), widthMm: z.number(), heightMm: z.number() })), reference: z.string() }),
+  request: z.object({
+    from: AddressJson,
+    to: AddressJson,
+    parcels: z.array(z.object({ weightGrams: z.number(), lengthMm: z.number(), widthMm: z.number(), heightMm: z.number() })),
+    reference: z.string(),
+  }),
   weighed: z.array(
     z.object({
       position: z.number().int(),
@@ -98,7 +112,12 @@ async function recordBuying(deps: LabelDeps, orderId: string, input: BuyLabel): 
   const carrierName = data.settings.carrierName
   if (!carrierName) throw new Conflict('The shop has no carrier set: an owner sets it in shop settings (the carrier name as the shipping service names it)')
   await checkShipTo(carrierOf(deps), request, data.order.number)
-  const stored: LabelRequest = { carrier: carrierName, service: input.service, request: { ...request }, weighed: weighed.map(({ serials: _serials, ...p }) => p) }
+  const stored: LabelRequest = {
+    carrier: carrierName,
+    service: input.service,
+    request: { ...request },
+    weighed: weighed.map(({ serials: _serials, ...p }) => p),
+  }
   return deps.db.transaction(async (tx) => {
     const shipment = await lockShipment(tx, data.shipment!.id)
     if (!shipment) throw new NotFound('No such shipment')
@@ -122,7 +141,10 @@ async function abandonPurchase(deps: LabelDeps, shipmentId: string, key: string)
 
 /** The last step: parcels with their SSCCs and tracking numbers, the label kept, the shipment labelled, all in one transaction. */
 async function recordLabel(deps: LabelDeps, shipment: ShipmentRow, stored: LabelRequest, label: CarrierLabel, actor: SessionUser | null) {
-  if (label.parcels.length !== stored.weighed.length) throw new Unavailable(`The carrier sold ${label.parcels.length} parcel labels for ${stored.weighed.length} parcels; ask the office to check the carrier account before shipping`)
+  if (label.parcels.length !== stored.weighed.length)
+    throw new Unavailable(
+      `The carrier sold ${label.parcels.length} parcel labels for ${stored.weighed.length} parcels; ask the office to check the carrier account before shipping`,
+    )
   await deps.db.transaction(async (tx) => {
     const locked = await lockShipment(tx, shipment.id)
     if (!locked || locked.status !== 'buying' || locked.labelKey !== shipment.labelKey) return
@@ -201,7 +223,10 @@ async function finishPurchase(deps: LabelDeps, shipment: ShipmentRow, actor: Ses
     let label: CarrierLabel | null = null
     if (!ref) {
       ref = await carrier.prepareLabel(stored.request, key)
-      await deps.db.update(shipments).set({ carrierRef: ref }).where(and(eq(shipments.id, shipment.id), eq(shipments.labelKey, key)))
+      await deps.db
+        .update(shipments)
+        .set({ carrierRef: ref })
+        .where(and(eq(shipments.id, shipment.id), eq(shipments.labelKey, key)))
     } else if (resuming) {
       label = await carrier.findLabel(ref)
     }
@@ -287,18 +312,45 @@ export async function voidLabel(deps: LabelDeps, shipmentId: string, input: Void
         const shipped = shipment.status === 'shipped'
         if (shipped && actor.role === 'packer') throw new Forbidden('The parcel has shipped: only a planner or the owner may void its label')
         const now = new Date()
-        await tx.update(shippingLabels).set({ status: 'voided', voidReason: input.reason, voidedAt: now, voidedBy: actor.id, refundStatus: 'requesting' }).where(eq(shippingLabels.id, label.id))
+        await tx
+          .update(shippingLabels)
+          .set({ status: 'voided', voidReason: input.reason, voidedAt: now, voidedBy: actor.id, refundStatus: 'requesting' })
+          .where(eq(shippingLabels.id, label.id))
         if (!shipped) {
           await tx.delete(parcels).where(eq(parcels.shipmentId, shipmentId))
           await tx
             .update(shipments)
-            .set({ status: 'packing', carrier: null, service: null, trackingNumber: null, chargeCents: null, labelData: null, labelledAt: null, labelledBy: null, labelKey: null, labelRequest: null, carrierRef: null })
+            .set({
+              status: 'packing',
+              carrier: null,
+              service: null,
+              trackingNumber: null,
+              chargeCents: null,
+              labelData: null,
+              labelledAt: null,
+              labelledBy: null,
+              labelKey: null,
+              labelRequest: null,
+              carrierRef: null,
+            })
             .where(eq(shipments.id, shipmentId))
         }
         const [order] = await tx.select({ number: orders.number }).from(orders).where(eq(orders.id, shipment.orderId))
         const summary = `Label voided${shipped ? ' after shipping' : ''} for order ${order?.number ?? ''}: ${label.carrier} ${label.service}, tracking ${label.trackingNumbers.join(', ')}; refund asked of the carrier. Reason: ${input.reason}`
-        await addOrderEvent(tx, { orderId: shipment.orderId, kind: 'label_voided', message: summary, data: { shipmentId, trackingNumbers: label.trackingNumbers, reason: input.reason }, actor })
-        await recordAudit(tx, audit, { action: 'shipment.void_label', entityType: 'order', entityId: shipment.orderId, summary, data: { shipmentId, labelId: label.id, reason: input.reason } })
+        await addOrderEvent(tx, {
+          orderId: shipment.orderId,
+          kind: 'label_voided',
+          message: summary,
+          data: { shipmentId, trackingNumbers: label.trackingNumbers, reason: input.reason },
+          actor,
+        })
+        await recordAudit(tx, audit, {
+          action: 'shipment.void_label',
+          entityType: 'order',
+          entityId: shipment.orderId,
+          summary,
+          data: { shipmentId, labelId: label.id, reason: input.reason },
+        })
       })
     }
     let refund: string
@@ -306,7 +358,12 @@ export async function voidLabel(deps: LabelDeps, shipmentId: string, input: Void
       refund = await carrier.voidLabel(label.carrierParcelRefs)
     } catch (err) {
       deps.logger.warn({ err, shipmentId }, 'label voided in Kitwright; the refund request did not reach the carrier yet')
-      if (err instanceof HttpError) throw new HttpError(err.status, err.code, `The label is voided in Kitwright, but the refund request did not go through: ${err.message}. Tap Void label again to ask again`)
+      if (err instanceof HttpError)
+        throw new HttpError(
+          err.status,
+          err.code,
+          `The label is voided in Kitwright, but the refund request did not go through: ${err.message}. Tap Void label again to ask again`,
+        )
       throw err
     }
     await deps.db.update(shippingLabels).set({ refundStatus: refund }).where(eq(shippingLabels.id, label.id))
@@ -314,7 +371,15 @@ export async function voidLabel(deps: LabelDeps, shipmentId: string, input: Void
   return packView(deps, orderId, found.status === 'shipped' ? shipmentId : undefined)
 }
 
-const RANK: Record<string, number> = { pre_transit: 1, in_transit: 2, out_for_delivery: 3, available_for_pickup: 3, delivered: 4, return_to_sender: 4, failure: 4 }
+const RANK: Record<string, number> = {
+  pre_transit: 1,
+  in_transit: 2,
+  out_for_delivery: 3,
+  available_for_pickup: 3,
+  delivered: 4,
+  return_to_sender: 4,
+  failure: 4,
+}
 
 /**
  * A signed tracking event from the carrier: kept by its id (a redelivery changes nothing), the

@@ -63,7 +63,9 @@ export async function stockLedger(db: Db, query: StockMovesQuery): Promise<Stock
   const [balance] = await selectStockRows(db, { partIds: [query.partId] })
   if (!balance) throw new NotFound('No such part in stock (it may have been retired)')
   const moves = await selectLedger(db, query.partId, query.limit)
-  const lots = (await lotBalances(db, [query.partId])).filter((l) => l.onHand !== 0).map(({ lotId, code, firstReceivedAt, onHand, free }) => ({ lotId, code, firstReceivedAt, onHand, free }))
+  const lots = (await lotBalances(db, [query.partId]))
+    .filter((l) => l.onHand !== 0)
+    .map(({ lotId, code, firstReceivedAt, onHand, free }) => ({ lotId, code, firstReceivedAt, onHand, free }))
   return { balance: toStockRow(balance), moves: moves.map(toLedgerEntry), totalMoves: moves[0]?.totalMoves ?? 0, lots }
 }
 
@@ -137,7 +139,11 @@ export function lotProblem(part: PartRow, lot: string | null): string | null {
 
 /** Appends one receive move per line, in one transaction, after checking each line against its locked part. */
 async function receiveLines(tx: Tx, lines: ResolvedReceiveLine[], actor: Actor, unit: LengthUnit) {
-  const byId = await lockActiveParts(tx, lines.map((l) => l.partId), (id) => `lines.${lines.findIndex((l) => l.partId === id)}.partId`)
+  const byId = await lockActiveParts(
+    tx,
+    lines.map((l) => l.partId),
+    (id) => `lines.${lines.findIndex((l) => l.partId === id)}.partId`,
+  )
   const fields: Record<string, string> = {}
   lines.forEach((line, i) => {
     const problem = stickLengthProblem(byId.get(line.partId)!, line.stickLength, unit, true)
@@ -150,7 +156,17 @@ async function receiveLines(tx: Tx, lines: ResolvedReceiveLine[], actor: Actor, 
   const lotIds = await lotIdsFor(tx, lines)
   const rows = await insertMoves(
     tx,
-    lines.map((l, i): NewStockMoveRow => ({ partId: l.partId, kind: 'receive', quantity: l.quantity, stickLength: l.stickLength, lotId: lotIds[i] ?? null, reference: l.reference, createdBy: actor.id })),
+    lines.map(
+      (l, i): NewStockMoveRow => ({
+        partId: l.partId,
+        kind: 'receive',
+        quantity: l.quantity,
+        stickLength: l.stickLength,
+        lotId: lotIds[i] ?? null,
+        reference: l.reference,
+        createdBy: actor.id,
+      }),
+    ),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }
@@ -160,7 +176,10 @@ export async function receiveStock(db: Db, input: ReceiveStock, actor: Actor): P
   const skus = input.lines.filter((l) => l.partId === undefined && l.sku !== undefined).map((l) => l.sku!.toLowerCase())
   const bySku = new Map<string, string>()
   if (skus.length > 0) {
-    const found = await db.select({ id: parts.id, sku: parts.sku }).from(parts).where(sql`lower(${parts.sku}) in ${[...new Set(skus)]}`)
+    const found = await db
+      .select({ id: parts.id, sku: parts.sku })
+      .from(parts)
+      .where(sql`lower(${parts.sku}) in ${[...new Set(skus)]}`)
     for (const p of found) bySku.set(p.sku.toLowerCase(), p.id)
   }
   const fields: Record<string, string> = {}
@@ -175,13 +194,34 @@ export async function receiveStock(db: Db, input: ReceiveStock, actor: Actor): P
   const purchaseOrderId = input.purchaseOrderId
   if (!purchaseOrderId) return db.transaction((tx) => receiveLines(tx, resolved, actor, unit))
   // Against a purchase order: its lines are checked and counted, and the receipt is priced from it.
-  const skuOf = new Map((await db.select({ id: parts.id, sku: parts.sku }).from(parts).where(sql`${parts.id} in ${[...new Set(resolved.map((l) => l.partId))]}`)).map((p) => [p.id, p.sku]))
+  const skuOf = new Map(
+    (
+      await db
+        .select({ id: parts.id, sku: parts.sku })
+        .from(parts)
+        .where(sql`${parts.id} in ${[...new Set(resolved.map((l) => l.partId))]}`)
+    ).map((p) => [p.id, p.sku]),
+  )
   const receipt = resolved.map(
-    (l, i): PurchaseReceiptLine => ({ partId: l.partId, quantity: l.quantity, reason: input.lines[i]!.reason, closeShort: input.lines[i]!.closeShort, field: `lines.${i}`, label: skuOf.get(l.partId) ?? 'that part' }),
+    (l, i): PurchaseReceiptLine => ({
+      partId: l.partId,
+      quantity: l.quantity,
+      reason: input.lines[i]!.reason,
+      closeShort: input.lines[i]!.closeShort,
+      field: `lines.${i}`,
+      label: skuOf.get(l.partId) ?? 'that part',
+    }),
   )
   return db.transaction(async (tx) => {
     const { moves } = await receiveOnPurchaseOrder(tx, purchaseOrderId, receipt, actor, async (number) => {
-      return (await receiveLines(tx, resolved.map((l) => ({ ...l, reference: l.reference ?? number })), actor, unit)).moves
+      return (
+        await receiveLines(
+          tx,
+          resolved.map((l) => ({ ...l, reference: l.reference ?? number })),
+          actor,
+          unit,
+        )
+      ).moves
     })
     return { moves }
   })
@@ -192,24 +232,41 @@ export async function previewPackingList(db: Db | Tx, input: PackingList): Promi
   const unit = await displayUnit(db)
   const { lines, fileErrors } = readPackingList(input.csv, input.defaultReference, unit)
   const skus = [...new Set(lines.map((l) => l.sku.toLowerCase()).filter((s) => s !== ''))]
-  const found = skus.length ? await db.select().from(parts).where(sql`lower(${parts.sku}) in ${skus}`) : []
+  const found = skus.length
+    ? await db
+        .select()
+        .from(parts)
+        .where(sql`lower(${parts.sku}) in ${skus}`)
+    : []
   const bySku = new Map(found.map((p) => [p.sku.toLowerCase(), p]))
   // Suppliers and purchase orders the file names (or the one chosen), each looked up once.
   const supplierNames = [...new Set(lines.map((l) => l.supplier?.toLowerCase()).filter((n): n is string => !!n))]
-  const knownSuppliers = supplierNames.length ? await db.select({ id: suppliers.id, name: suppliers.name }).from(suppliers).where(sql`lower(${suppliers.name}) in ${supplierNames}`) : []
+  const knownSuppliers = supplierNames.length
+    ? await db
+        .select({ id: suppliers.id, name: suppliers.name })
+        .from(suppliers)
+        .where(sql`lower(${suppliers.name}) in ${supplierNames}`)
+    : []
   const supplierByName = new Map(knownSuppliers.map((s) => [s.name.toLowerCase(), s]))
   const chosen = input.purchaseOrderId
-    ? ((await db.select({ id: purchaseOrders.id, number: purchaseOrders.number, supplierId: purchaseOrders.supplierId }).from(purchaseOrders).where(eq(purchaseOrders.id, input.purchaseOrderId)))[0] ?? null)
+    ? ((
+        await db
+          .select({ id: purchaseOrders.id, number: purchaseOrders.number, supplierId: purchaseOrders.supplierId })
+          .from(purchaseOrders)
+          .where(eq(purchaseOrders.id, input.purchaseOrderId))
+      )[0] ?? null)
     : null
   if (input.purchaseOrderId && !chosen) fileErrors.push('No such purchase order: choose it again from the list')
   const poByNumber = new Map<string, Awaited<ReturnType<typeof findPurchaseOrderByNumber>>>()
-  for (const n of new Set(lines.map((l) => l.purchaseOrder?.toUpperCase()).filter((n): n is string => !!n))) poByNumber.set(n, await findPurchaseOrderByNumber(db, n))
+  for (const n of new Set(lines.map((l) => l.purchaseOrder?.toUpperCase()).filter((n): n is string => !!n)))
+    poByNumber.set(n, await findPurchaseOrderByNumber(db, n))
   const rows = lines.map((line) => {
     const part = line.sku ? bySku.get(line.sku.toLowerCase()) : undefined
     const errors = [...line.errors]
     const po = line.purchaseOrder ? poByNumber.get(line.purchaseOrder.toUpperCase()) : chosen
     if (line.purchaseOrder && !po) errors.push(`No purchase order ${line.purchaseOrder}: correct the number or leave the cell empty`)
-    else if (line.purchaseOrder && chosen && po && po.id !== chosen.id) errors.push(`The row names ${po.number} but the list is received against ${chosen.number}`)
+    else if (line.purchaseOrder && chosen && po && po.id !== chosen.id)
+      errors.push(`The row names ${po.number} but the list is received against ${chosen.number}`)
     if (line.supplier) {
       const supplier = supplierByName.get(line.supplier.toLowerCase())
       if (!supplier) errors.push(`No supplier named "${line.supplier}": add it on the Suppliers page or correct the name`)
@@ -223,7 +280,10 @@ export async function previewPackingList(db: Db | Tx, input: PackingList): Promi
     }
     if (part?.active) {
       const problem = lotProblem(part, line.lot)
-      if (problem) errors.push(problem.replace('leave the lot empty', 'leave its lot cell empty').replace("give the supplier's lot", "fill its lot cell with the supplier's lot"))
+      if (problem)
+        errors.push(
+          problem.replace('leave the lot empty', 'leave its lot cell empty').replace("give the supplier's lot", "fill its lot cell with the supplier's lot"),
+        )
     }
     return {
       row: line.row,
@@ -241,7 +301,13 @@ export async function previewPackingList(db: Db | Tx, input: PackingList): Promi
     }
   })
   const errors = [...fileErrors, ...rows.flatMap((r) => r.errors.map((e) => `Row ${r.row}: ${e}`))]
-  return { rows: rows.map(({ purchaseOrderId: _id, ...r }) => r), rowPurchaseOrders: rows.map((r) => r.purchaseOrderId), fileErrors, errors, ok: errors.length === 0 }
+  return {
+    rows: rows.map(({ purchaseOrderId: _id, ...r }) => r),
+    rowPurchaseOrders: rows.map((r) => r.purchaseOrderId),
+    fileErrors,
+    errors,
+    ok: errors.length === 0,
+  }
 }
 
 /** Receives a whole packing list in one transaction, or nothing when any row has a problem. */
@@ -267,7 +333,14 @@ export async function receivePackingList(db: Db, input: PackingList, actor: Acto
         return { partId: r.partId!, quantity: r.quantity!, reason: r.reason, closeShort: false, field: `rows.${r.row}`, label: r.sku }
       })
       const done = await receiveOnPurchaseOrder(tx, poId, receipt, actor, async (number) => {
-        return (await receiveLines(tx, idx.map((i) => ({ ...lines[i]!, reference: lines[i]!.reference ?? number })), actor, unit)).moves
+        return (
+          await receiveLines(
+            tx,
+            idx.map((i) => ({ ...lines[i]!, reference: lines[i]!.reference ?? number })),
+            actor,
+            unit,
+          )
+        ).moves
       })
       moves.push(...done.moves)
     }
@@ -287,7 +360,10 @@ async function adjustableLot(tx: Tx, part: PartRow, code: string, quantity: numb
   const lots = await lotBalances(tx, [part.id])
   const lot = await findLotByCode(tx, part.id, code)
   if (!lot) {
-    const known = lots.filter((l) => l.onHand > 0).map((l) => l.code).join(', ')
+    const known = lots
+      .filter((l) => l.onHand > 0)
+      .map((l) => l.code)
+      .join(', ')
     const message = `No lot "${code}" of ${part.sku} has been received: ${known ? `choose one of ${known}` : 'none is in stock'}, or receive a new lot on Receive stock`
     throw new Conflict(message, { lot: `No lot ${code} of ${part.sku}` })
   }
@@ -329,7 +405,9 @@ export async function adjustStock(db: Db, input: AdjustStock, actor: Actor): Pro
       const message = `Cannot take ${-input.quantity} off ${what}: ${total.reserved} ${total.reserved === 1 ? 'is' : 'are'} reserved for work orders and only ${free} could go. Release the reservation first.`
       throw new Conflict(message, { quantity: 'More than is free of reservations' })
     }
-    const rows = await insertMoves(tx, [{ partId: part.id, kind: 'adjust', quantity: input.quantity, stickLength: input.stickLength, lotId, reason: input.reason, createdBy: actor.id }])
+    const rows = await insertMoves(tx, [
+      { partId: part.id, kind: 'adjust', quantity: input.quantity, stickLength: input.stickLength, lotId, reason: input.reason, createdBy: actor.id },
+    ])
     return { moves: rows.map((r) => toStockMove(r, actor)) }
   })
 }
@@ -356,9 +434,17 @@ function mergeLines(lines: readonly ReservationLine[]) {
  * for the part. Throws Conflict (409) saying what is short, and reserves nothing, when any line
  * cannot be met. `actor` is null when the system reserved it (a paid order released automatically).
  */
-export async function reserveStock(tx: Tx, input: Pick<ReserveStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor | null): Promise<StockMovesResult> {
+export async function reserveStock(
+  tx: Tx,
+  input: Pick<ReserveStock, 'workOrderId' | 'lines'> & { reason?: string | null },
+  actor: Actor | null,
+): Promise<StockMovesResult> {
   const lines = mergeLines(input.lines)
-  const byId = await lockActiveParts(tx, lines.map((l) => l.partId), (id) => `lines.${lines.find((l) => l.partId === id)!.index}.partId`)
+  const byId = await lockActiveParts(
+    tx,
+    lines.map((l) => l.partId),
+    (id) => `lines.${lines.find((l) => l.partId === id)!.index}.partId`,
+  )
   const unit = await displayUnit(tx)
   for (const l of lines) {
     const problem = stickLengthProblem(byId.get(l.partId)!, l.stickLength, unit, false)
@@ -383,14 +469,26 @@ export async function reserveStock(tx: Tx, input: Pick<ReserveStock, 'workOrderI
     const bucket = balances.bucket(l.partId, l.stickLength)
     const available = bucket.onHand - bucket.reserved
     if (l.quantity > available) {
-      shortages.push(`${partLabel(byId.get(l.partId)!)} in ${formatStickLength(l.stickLength, unit)} sticks: wanted ${l.quantity}, available ${Math.max(0, available)}`)
+      shortages.push(
+        `${partLabel(byId.get(l.partId)!)} in ${formatStickLength(l.stickLength, unit)} sticks: wanted ${l.quantity}, available ${Math.max(0, available)}`,
+      )
       fields[`lines.${l.index}.quantity`] = `Only ${Math.max(0, available)} available in ${formatStickLength(l.stickLength, unit)} sticks`
     }
   }
   if (shortages.length > 0) throw new Conflict(`Not enough stock to reserve: ${shortages.join('; ')}`, fields)
   const rows = await insertMoves(
     tx,
-    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'reserve', quantity: l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
+    lines.map(
+      (l): NewStockMoveRow => ({
+        partId: l.partId,
+        kind: 'reserve',
+        quantity: l.quantity,
+        stickLength: l.stickLength,
+        workOrderId: input.workOrderId,
+        reason: input.reason ?? null,
+        createdBy: actor?.id ?? null,
+      }),
+    ),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }
@@ -406,21 +504,42 @@ export function reserveStockNow(db: Db, input: ReserveStock, actor: Actor) {
  * holds when `workOrderId` is null). Refuses to release more than is held. `actor` is null when the
  * store or the system released it (a cancellation from the web store).
  */
-export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'workOrderId' | 'lines'> & { reason?: string | null }, actor: Actor | null): Promise<StockMovesResult> {
+export async function releaseReservation(
+  tx: Tx,
+  input: Pick<ReleaseStock, 'workOrderId' | 'lines'> & { reason?: string | null },
+  actor: Actor | null,
+): Promise<StockMovesResult> {
   const lines = mergeLines(input.lines)
   const whose = input.workOrderId === null ? 'the manual holds have' : 'this work order holds'
   if (lines.length === 0) {
     if (input.workOrderId === null) throw new BadRequest('Give the lines to release from the manual holds', { lines: 'Add at least one line' })
     const held = await selectHeld(tx, input.workOrderId)
-    await lockParts(tx, held.map((h) => h.partId))
+    await lockParts(
+      tx,
+      held.map((h) => h.partId),
+    )
     const current = await selectHeld(tx, input.workOrderId)
     const rows = await insertMoves(
       tx,
-      current.map((h): NewStockMoveRow => ({ partId: h.partId, kind: 'release', quantity: -h.reserved, stickLength: h.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
+      current.map(
+        (h): NewStockMoveRow => ({
+          partId: h.partId,
+          kind: 'release',
+          quantity: -h.reserved,
+          stickLength: h.stickLength,
+          workOrderId: input.workOrderId,
+          reason: input.reason ?? null,
+          createdBy: actor?.id ?? null,
+        }),
+      ),
     )
     return { moves: rows.map((r) => toStockMove(r, actor)) }
   }
-  const byId = await lockActiveParts(tx, lines.map((l) => l.partId), (id) => `lines.${lines.find((l) => l.partId === id)!.index}.partId`)
+  const byId = await lockActiveParts(
+    tx,
+    lines.map((l) => l.partId),
+    (id) => `lines.${lines.find((l) => l.partId === id)!.index}.partId`,
+  )
   const held = await selectHeld(tx, input.workOrderId, [...byId.keys()])
   const heldOf = (l: ReservationLine) => held.find((h) => h.partId === l.partId && h.stickLength === l.stickLength)?.reserved ?? 0
   const unit = await displayUnit(tx)
@@ -429,7 +548,8 @@ export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'work
   for (const l of lines) {
     const have = heldOf(l)
     if (l.quantity > have) {
-      const what = l.stickLength === null ? partLabel(byId.get(l.partId)!) : `${partLabel(byId.get(l.partId)!)} in ${formatStickLength(l.stickLength, unit)} sticks`
+      const what =
+        l.stickLength === null ? partLabel(byId.get(l.partId)!) : `${partLabel(byId.get(l.partId)!)} in ${formatStickLength(l.stickLength, unit)} sticks`
       problems.push(`${what}: release ${l.quantity}, but ${whose} only ${have}`)
       fields[`lines.${l.index}.quantity`] = `At most ${have}`
     }
@@ -437,7 +557,17 @@ export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'work
   if (problems.length > 0) throw new Conflict(`Cannot release more than is reserved: ${problems.join('; ')}`, fields)
   const rows = await insertMoves(
     tx,
-    lines.map((l): NewStockMoveRow => ({ partId: l.partId, kind: 'release', quantity: -l.quantity, stickLength: l.stickLength, workOrderId: input.workOrderId, reason: input.reason ?? null, createdBy: actor?.id ?? null })),
+    lines.map(
+      (l): NewStockMoveRow => ({
+        partId: l.partId,
+        kind: 'release',
+        quantity: -l.quantity,
+        stickLength: l.stickLength,
+        workOrderId: input.workOrderId,
+        reason: input.reason ?? null,
+        createdBy: actor?.id ?? null,
+      }),
+    ),
   )
   return { moves: rows.map((r) => toStockMove(r, actor)) }
 }
@@ -446,4 +576,3 @@ export async function releaseReservation(tx: Tx, input: Pick<ReleaseStock, 'work
 export function releaseReservationNow(db: Db, input: ReleaseStock, actor: Actor) {
   return db.transaction((tx) => releaseReservation(tx, input, actor))
 }
-

@@ -17,13 +17,19 @@ export function connectTablet(deps: Pick<Deps, 'publicUrl' | 'served' | 'storage
   const served = deps.served ?? { listenHost: '127.0.0.1', https: false, caCertificate: null }
   const problems: string[] = []
   if (isLoopbackHost(served.listenHost)) {
-    problems.push(`Kitwright listens on this computer only (HOST=${served.listenHost}). Restart it with \`npm start -- --lan\` (or set HOST=0.0.0.0) so the shop network reaches it.`)
+    problems.push(
+      `Kitwright listens on this computer only (HOST=${served.listenHost}). Restart it with \`npm start -- --lan\` (or set HOST=0.0.0.0) so the shop network reaches it.`,
+    )
   }
   if (isLoopbackHost(publicUrl.hostname)) {
-    problems.push(`The public address ${publicUrl.origin} names this computer to itself; a tablet cannot open it. \`npm start -- --lan\` uses the shop-network address, or set PUBLIC_URL to it.`)
+    problems.push(
+      `The public address ${publicUrl.origin} names this computer to itself; a tablet cannot open it. \`npm start -- --lan\` uses the shop-network address, or set PUBLIC_URL to it.`,
+    )
   }
   if (deps.storage.origin && isLoopbackHost(new URL(deps.storage.origin).hostname)) {
-    problems.push(`The photo store's address ${deps.storage.origin} is on this computer only, so tablets cannot upload photos. \`npm start -- --lan\` opens the local store to the shop network, or set S3_PUBLIC_URL to the store's address on the network.`)
+    problems.push(
+      `The photo store's address ${deps.storage.origin} is on this computer only, so tablets cannot upload photos. \`npm start -- --lan\` opens the local store to the shop network, or set S3_PUBLIC_URL to the store's address on the network.`,
+    )
   }
   const origin = publicUrl.origin
   return {

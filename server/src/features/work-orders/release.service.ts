@@ -51,9 +51,12 @@ function releaseBlocker(order: OrderRow): HttpError | null {
 }
 
 function unmappedLine(order: OrderRow, line: LineRow): Conflict {
-  return new Conflict(`Order ${order.number}, line ${line.lineNo}: ${line.sku} (${line.description}) maps to no kit; set it as the store product of a kit, then release`, {
-    [`lines.${line.lineNo - 1}.kitId`]: 'Maps to no kit',
-  })
+  return new Conflict(
+    `Order ${order.number}, line ${line.lineNo}: ${line.sku} (${line.description}) maps to no kit; set it as the store product of a kit, then release`,
+    {
+      [`lines.${line.lineNo - 1}.kitId`]: 'Maps to no kit',
+    },
+  )
 }
 
 function noReleasedRevision(order: OrderRow, line: LineRow): Conflict {
@@ -92,7 +95,12 @@ function orderNeeds(lines: readonly { kitId: string | null; quantity: number }[]
  * order, and records the rest as a shortage on the timeline (the shortages page computes it live).
  * An order on hold is refused (409). `actor` is null when the system releases it (auto-release).
  */
-export async function releaseOrder(tx: Tx, orderId: string, options: { allowShort: boolean; automatic?: boolean }, actor: Actor | null): Promise<ReleasedOrder> {
+export async function releaseOrder(
+  tx: Tx,
+  orderId: string,
+  options: { allowShort: boolean; automatic?: boolean },
+  actor: Actor | null,
+): Promise<ReleasedOrder> {
   const order = await lockOrder(tx, orderId)
   if (!order) throw new NotFound('No such order')
   const blocker = releaseBlocker(order)
@@ -114,14 +122,27 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
   const reservedByPart = await reserveUnitBoms(tx, order, created, bom, needed, free, actor)
   await markReleased(tx, order.id)
   const shortages: ReleaseShortage[] = [...needed.entries()]
-    .map(([partId, n]) => ({ partId, sku: n.sku, name: n.name, needed: n.quantity, reserved: reservedByPart.get(partId) ?? 0, short: n.quantity - (reservedByPart.get(partId) ?? 0) }))
+    .map(([partId, n]) => ({
+      partId,
+      sku: n.sku,
+      name: n.name,
+      needed: n.quantity,
+      reserved: reservedByPart.get(partId) ?? 0,
+      short: n.quantity - (reservedByPart.get(partId) ?? 0),
+    }))
     .filter((s) => s.short > 0)
   await recordRelease(tx, order, units, created, shortages, options, actor)
   const bySerial = new Map(units.map((u, i) => [formatSerial(serials[i]!), u.rev]))
   return {
     orderId: order.id,
     number: order.number,
-    workOrders: created.map((w) => ({ id: w.id, serial: w.serial, status: w.status, kitSku: bySerial.get(w.serial)!.kitSku, revisionCode: bySerial.get(w.serial)!.code })),
+    workOrders: created.map((w) => ({
+      id: w.id,
+      serial: w.serial,
+      status: w.status,
+      kitSku: bySerial.get(w.serial)!.kitSku,
+      revisionCode: bySerial.get(w.serial)!.code,
+    })),
     shortages,
   }
 }
@@ -134,7 +155,14 @@ export async function releaseOrder(tx: Tx, orderId: string, options: { allowShor
 async function mapLinesToKits(tx: Tx, order: OrderRow, actor: Actor | null): Promise<LineRow[]> {
   const lines = await selectLines(tx, order.id)
   const unmapped = lines.filter((l) => l.kitId === null)
-  const byProduct = new Map((await selectKitsByStoreProduct(tx, unmapped.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k]))
+  const byProduct = new Map(
+    (
+      await selectKitsByStoreProduct(
+        tx,
+        unmapped.flatMap((l) => (l.storeProductId ? [l.storeProductId] : [])),
+      )
+    ).map((k) => [k.storeProductId, k]),
+  )
   for (const line of unmapped) {
     const kit = line.storeProductId ? byProduct.get(line.storeProductId) : undefined
     if (!kit) throw unmappedLine(order, line)
@@ -153,7 +181,10 @@ function refuseIfShort(order: OrderRow, needed: Needs, free: ReadonlyMap<string,
   if (short.length === 0) return
   const words = short.map(([partId, n]) => `${n.sku} ${n.name}: needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`)
   const fields = Object.fromEntries(short.map(([partId, n]) => [shortageFieldKey(n.sku), `Needs ${n.quantity}, ${Math.max(0, free.get(partId) ?? 0)} free`]))
-  throw new Conflict(`Not enough stock to release order ${order.number}: ${words.join('; ')}. Receive stock, or release anyway with the shortage recorded.`, fields)
+  throw new Conflict(
+    `Not enough stock to release order ${order.number}: ${words.join('; ')}. Receive stock, or release anyway with the shortage recorded.`,
+    fields,
+  )
 }
 
 /** One work order per unit, serials in line order; a revision with no cut parts goes straight to packing. */
@@ -177,7 +208,15 @@ async function createWorkOrders(tx: Tx, order: OrderRow, lines: LineRow[], revis
 type CreatedWorkOrder = Awaited<ReturnType<typeof insertWorkOrders>>[number]
 
 /** Reserves each unit's BOM for its work order; what is free goes to the lowest serials first. Returns what each part got. */
-async function reserveUnitBoms(tx: Tx, order: OrderRow, created: CreatedWorkOrder[], bom: readonly BomRow[], needed: Needs, free: ReadonlyMap<string, number>, actor: Actor | null) {
+async function reserveUnitBoms(
+  tx: Tx,
+  order: OrderRow,
+  created: CreatedWorkOrder[],
+  bom: readonly BomRow[],
+  needed: Needs,
+  free: ReadonlyMap<string, number>,
+  actor: Actor | null,
+) {
   const remaining = new Map([...needed.keys()].map((partId) => [partId, Math.max(0, free.get(partId) ?? 0)]))
   const reservedByPart = new Map<string, number>()
   for (const wo of created) {
@@ -250,9 +289,18 @@ export async function previewRelease(db: Db, input: ReleaseOrders): Promise<Rele
         continue
       }
       const lines = await selectLines(tx, order.id)
-      const byProduct = new Map((await selectKitsByStoreProduct(tx, lines.flatMap((l) => (l.kitId === null && l.storeProductId ? [l.storeProductId] : [])))).map((k) => [k.storeProductId, k.id]))
+      const byProduct = new Map(
+        (
+          await selectKitsByStoreProduct(
+            tx,
+            lines.flatMap((l) => (l.kitId === null && l.storeProductId ? [l.storeProductId] : [])),
+          )
+        ).map((k) => [k.storeProductId, k.id]),
+      )
       const mapped = lines.map((l) => ({ ...l, kitId: l.kitId ?? (l.storeProductId ? (byProduct.get(l.storeProductId) ?? null) : null) }))
-      const revisions = new Map((await selectNewestReleasedRevisions(tx, [...new Set(mapped.flatMap((l) => (l.kitId ? [l.kitId] : [])))])).map((r) => [r.kitId, r]))
+      const revisions = new Map(
+        (await selectNewestReleasedRevisions(tx, [...new Set(mapped.flatMap((l) => (l.kitId ? [l.kitId] : [])))])).map((r) => [r.kitId, r]),
+      )
       const unmapped = mapped.find((l) => l.kitId === null)
       const unreleased = mapped.find((l) => l.kitId !== null && !revisions.has(l.kitId))
       const why = unmapped ? unmappedLine(order, unmapped) : unreleased ? noReleasedRevision(order, unreleased) : null
@@ -288,7 +336,10 @@ export async function releaseOrders(db: Db, input: ReleaseOrders, actor: Actor):
       result.refused.push({ orderId, number: null, status: err.status, message: err.message })
     }
   }
-  const numbers = await selectOrderNumbersById(db, result.refused.map((r) => r.orderId))
+  const numbers = await selectOrderNumbersById(
+    db,
+    result.refused.map((r) => r.orderId),
+  )
   for (const r of result.refused) r.number = numbers.get(r.orderId) ?? null
   if (result.released.length === 0) {
     if (errors.length === 1) throw errors[0]!
@@ -301,7 +352,13 @@ export async function releaseOrders(db: Db, input: ReleaseOrders, actor: Actor):
 /** The ids sorted as planRelease gives out stock; unknown ids last (they answer 404). */
 async function inPriorityOrder(db: Db, ids: string[]): Promise<string[]> {
   const keys = await selectReleaseSortKeys(db, ids)
-  const known = keys.map((k) => ({ orderId: k.id, number: k.number, priority: k.priority, promisedShipDate: k.promisedShipDate, placedAt: k.placedAt.toISOString() }))
+  const known = keys.map((k) => ({
+    orderId: k.id,
+    number: k.number,
+    priority: k.priority,
+    promisedShipDate: k.promisedShipDate,
+    placedAt: k.placedAt.toISOString(),
+  }))
   known.sort(compareReleasePriority)
   const found = new Set(known.map((k) => k.orderId))
   return [...known.map((k) => k.orderId), ...ids.filter((id) => !found.has(id))]

@@ -99,13 +99,7 @@ function riserLine(manifoldHeight: Length, ctx: CutContext): FrameCutLine {
 }
 
 /** An error when a piece comes out negative, or too short to fill its two sockets. */
-function checkPiece(
-  label: string,
-  raw: number,
-  cut: Length,
-  sockets: Length,
-  { warnings, show }: CutContext,
-): void {
+function checkPiece(label: string, raw: number, cut: Length, sockets: Length, { warnings, show }: CutContext): void {
   if (raw <= 0) {
     warnings.push({
       code: 'negative_length',
@@ -127,19 +121,8 @@ function takeOffWords(a: FittingKind, b: FittingKind, ea: Length, eb: Length, sh
   return `${name(a)} centre-to-socket-bottom ${show(ea)} − ${name(b)} centre-to-socket-bottom ${show(eb)}`
 }
 
-function exposedWords(
-  cut: Length,
-  a: FittingKind,
-  sa: Length,
-  b: FittingKind,
-  sb: Length,
-  show: (v: number) => string,
-): string {
+function exposedWords(cut: Length, a: FittingKind, sa: Length, b: FittingKind, sb: Length, show: (v: number) => string): string {
   const name = (kind: FittingKind) => (kind === 'riser tee' ? 'tee' : kind)
-  const sockets =
-    name(a) === name(b)
-      ? `2 × ${name(a)} socket ${show(sa)}`
-      : `${name(a)} socket ${show(sa)} − ${name(b)} socket ${show(sb)}`
+  const sockets = name(a) === name(b) ? `2 × ${name(a)} socket ${show(sa)}` : `${name(a)} socket ${show(sa)} − ${name(b)} socket ${show(sb)}`
   return `check: exposed pipe = cut ${show(cut)} − ${sockets} = ${show(cut - sa - sb)} (must not be negative)`
 }
-

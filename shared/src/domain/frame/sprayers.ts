@@ -51,9 +51,7 @@ function centreToFace(inputs: FrameInputs, kind: FittingKind): number {
 }
 
 function tooCloseToFitting(run: Run, inputs: FrameInputs, position: number): boolean {
-  return run.fittings.some(
-    (f) => Math.abs(position - positionOf(run, f)) < centreToFace(inputs, f.kind) + inputs.sprayers.minDistanceFromFitting,
-  )
+  return run.fittings.some((f) => Math.abs(position - positionOf(run, f)) < centreToFace(inputs, f.kind) + inputs.sprayers.minDistanceFromFitting)
 }
 
 /** The hole at `position` along the run: on the piece that spans it, measured from that piece's datum end. */

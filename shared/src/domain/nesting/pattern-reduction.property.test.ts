@@ -10,16 +10,18 @@ import type { NestInput } from './types'
 
 // Random cut runs with few lengths in large quantities (where patterns repeat, so there is
 // something to reduce), one or two stock options and sometimes a piece limit.
-const inputArb: fc.Arbitrary<NestInput> = fc.record({
-  pieces: fc.array(fc.record({ length: fc.integer({ min: 10, max: 140 }), quantity: fc.integer({ min: 1, max: 12 }) }), { minLength: 1, maxLength: 5 }),
-  stock: fc.array(fc.record({ length: fc.integer({ min: 150, max: 400 }), cost: fc.integer({ min: 1, max: 500 }) }), { minLength: 1, maxLength: 2 }),
-  kerf: fc.integer({ min: 0, max: 4 }),
-  maxPiecesPerStick: fc.option(fc.integer({ min: 2, max: 6 }), { nil: undefined }),
-}).map((r) => {
-  const input: NestInput = { pieces: r.pieces, stock: r.stock, kerf: r.kerf }
-  if (r.maxPiecesPerStick !== undefined) input.maxPiecesPerStick = r.maxPiecesPerStick
-  return input
-})
+const inputArb: fc.Arbitrary<NestInput> = fc
+  .record({
+    pieces: fc.array(fc.record({ length: fc.integer({ min: 10, max: 140 }), quantity: fc.integer({ min: 1, max: 12 }) }), { minLength: 1, maxLength: 5 }),
+    stock: fc.array(fc.record({ length: fc.integer({ min: 150, max: 400 }), cost: fc.integer({ min: 1, max: 500 }) }), { minLength: 1, maxLength: 2 }),
+    kerf: fc.integer({ min: 0, max: 4 }),
+    maxPiecesPerStick: fc.option(fc.integer({ min: 2, max: 6 }), { nil: undefined }),
+  })
+  .map((r) => {
+    const input: NestInput = { pieces: r.pieces, stock: r.stock, kerf: r.kerf }
+    if (r.maxPiecesPerStick !== undefined) input.maxPiecesPerStick = r.maxPiecesPerStick
+    return input
+  })
 
 describe('reducePatterns (fast-check)', () => {
   it('never adds a stick nor cost, cuts every piece exactly once, and never adds a pattern', async () => {
@@ -32,8 +34,28 @@ describe('reducePatterns (fast-check)', () => {
         if (!plan) throw new Error('no greedy plan for a run every stick can hold')
         const costs = problem.bins.map((b) => b.cost)
         // Every pattern (not only maximal ones) with any reduced cost, as other patterns at hand.
-        const zero = { value: 0, itemDuals: problem.items.map(() => 0), binDuals: problem.bins.map(() => 0), pool: [], values: [], converged: true, bounded: true, dualBound: 0, roundedUp: true, iterations: 0 }
-        const pool: Pattern[] = enumeratePatterns(problem, zero, costs, Infinity, problem.bins.map(() => Infinity), 500, Date.now() + 1000, false).patterns
+        const zero = {
+          value: 0,
+          itemDuals: problem.items.map(() => 0),
+          binDuals: problem.bins.map(() => 0),
+          pool: [],
+          values: [],
+          converged: true,
+          bounded: true,
+          dualBound: 0,
+          roundedUp: true,
+          iterations: 0,
+        }
+        const pool: Pattern[] = enumeratePatterns(
+          problem,
+          zero,
+          costs,
+          Infinity,
+          problem.bins.map(() => Infinity),
+          500,
+          Date.now() + 1000,
+          false,
+        ).patterns
         const out = reducePatterns(highs, problem, costs, plan, pool, Date.now() + 2000)
         expect(solutionSticks(out)).toBeLessThanOrEqual(solutionSticks(plan))
         expect(solutionCost(problem, out)).toBeLessThanOrEqual(solutionCost(problem, plan))
@@ -60,7 +82,13 @@ describe('reducePatterns (fast-check)', () => {
     // of 30: 4 sticks in 3 patterns. Four sticks of 50+30 (80 <= 100) cut the same pieces with
     // the same 4 sticks in 1 pattern.
     const highs = await loadHighs()
-    const problem = buildProblem({ pieces: [{ length: 50, quantity: 4 }, { length: 30, quantity: 4 }], stock: [{ length: 100 }] })
+    const problem = buildProblem({
+      pieces: [
+        { length: 50, quantity: 4 },
+        { length: 30, quantity: 4 },
+      ],
+      stock: [{ length: 100 }],
+    })
     const plan = {
       uses: [
         { pattern: { bin: 0, counts: [2, 0] }, count: 2 },

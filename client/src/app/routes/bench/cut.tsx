@@ -24,7 +24,12 @@ function RunBench({ runId }: { runId: string }) {
   useEffect(() => {
     if (chosen === null && firstOpen) setChosen(firstOpen)
   }, [chosen, firstOpen])
-  if (run.isError) return <p role="alert" className="text-xl text-red-700">{run.error.message}</p>
+  if (run.isError)
+    return (
+      <p role="alert" className="text-xl text-red-700">
+        {run.error.message}
+      </p>
+    )
   if (!run.data) return <p className="text-xl">Loading the run…</p>
   const r = run.data
   const open = r.sticks.filter((s) => s.status === 'pending' || s.status === 'in_progress')
@@ -37,7 +42,12 @@ function RunBench({ runId }: { runId: string }) {
         <p className="mr-auto text-2xl">
           Run <strong>{r.number}</strong> · {r.sticks.length - open.length} of {r.sticks.length} sticks finished{r.status === 'done' ? ' · all cut' : ''}
         </p>
-        <a className="inline-flex h-14 items-center rounded-md border-2 border-stone-400 bg-white px-5 text-lg font-bold" href={benchCutSheetHref(r.id)} target="_blank" rel="noreferrer">
+        <a
+          className="inline-flex h-14 items-center rounded-md border-2 border-stone-400 bg-white px-5 text-lg font-bold"
+          href={benchCutSheetHref(r.id)}
+          target="_blank"
+          rel="noreferrer"
+        >
           Cut sheet
         </a>
       </div>
@@ -79,8 +89,14 @@ export function Component() {
         <h1 className="text-4xl font-bold">Cut bench</h1>
         <BenchDeviceToggle bench="cut" />
       </div>
-      {runs.data?.length === 0 && !params.get('run') && <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">No cut run is published. The planner publishes one from the cut runs page.</p>}
-      {runs.isError && <p role="alert" className="text-xl text-red-700">{runs.error.message}</p>}
+      {runs.data?.length === 0 && !params.get('run') && (
+        <p className="rounded-lg border-2 border-stone-300 bg-white p-6 text-2xl">No cut run is published. The planner publishes one from the cut runs page.</p>
+      )}
+      {runs.isError && (
+        <p role="alert" className="text-xl text-red-700">
+          {runs.error.message}
+        </p>
+      )}
       {(runs.data?.length ?? 0) > 1 && (
         <Worklist
           label="Published runs"

@@ -25,7 +25,12 @@ export function Component() {
   const [confirming, setConfirming] = useState(false)
   const [problem, setProblem] = useState<string | null>(null)
   if (lot.isPending) return <p className="text-lg">Loading the lot…</p>
-  if (lot.isError) return <p role="alert" className="text-lg text-red-700">{lot.error.message}</p>
+  if (lot.isError)
+    return (
+      <p role="alert" className="text-lg text-red-700">
+        {lot.error.message}
+      </p>
+    )
   const d = lot.data
   const toTell = d.customers - d.customersNotified
   const send = () => {
@@ -35,7 +40,11 @@ export function Component() {
       {
         onSuccess: (r) => {
           setConfirming(false)
-          toast.success(r.queued > 0 ? `${r.queued} e-mail${r.queued === 1 ? '' : 's'} queued; they go out from the outbox` : 'Every customer of this lot has been told already')
+          toast.success(
+            r.queued > 0
+              ? `${r.queued} e-mail${r.queued === 1 ? '' : 's'} queued; they go out from the outbox`
+              : 'Every customer of this lot has been told already',
+          )
         },
         onError: (err) => setProblem(err instanceof ApiError ? err.message : 'Could not reach Kitwright; check the connection and try again'),
       },
@@ -54,10 +63,15 @@ export function Component() {
             Lot <span className="font-mono">{d.code}</span> of {d.part.sku}
           </h1>
           <p className="text-lg text-stone-700">
-            {d.part.name} · first received {formatDateTime(d.firstReceivedAt)} · {d.received} received, {d.onHand} on hand · {d.recall.length} unit{d.recall.length === 1 ? '' : 's'} built with it
+            {d.part.name} · first received {formatDateTime(d.firstReceivedAt)} · {d.received} received, {d.onHand} on hand · {d.recall.length} unit
+            {d.recall.length === 1 ? '' : 's'} built with it
           </p>
         </div>
-        <a href={recallCsvHref(d.id)} download className="inline-flex h-11 items-center rounded-md border border-stone-300 bg-white px-4 font-bold hover:bg-stone-50">
+        <a
+          href={recallCsvHref(d.id)}
+          download
+          className="inline-flex h-11 items-center rounded-md border border-stone-300 bg-white px-4 font-bold hover:bg-stone-50"
+        >
           Download the recall list (CSV)
         </a>
       </div>
@@ -122,13 +136,22 @@ export function Component() {
 
       <Section title="Tell the customers" id="lot-notify">
         <p>
-          One e-mail to each customer with a unit of this lot ({d.customers} customer{d.customers === 1 ? '' : 's'}, {d.customersNotified} told already). Each customer is told once;
-          a customer whose unit is built with the lot later is told the next time you press it. Each order's timeline records it.
+          One e-mail to each customer with a unit of this lot ({d.customers} customer{d.customers === 1 ? '' : 's'}, {d.customersNotified} told already). Each
+          customer is told once; a customer whose unit is built with the lot later is told the next time you press it. Each order's timeline records it.
         </p>
-        <Caution>If the part runs on mains power, the e-mail also tells customers to switch off and unplug it before touching the water, and defers to local electrical codes.</Caution>
+        <Caution>
+          If the part runs on mains power, the e-mail also tells customers to switch off and unplug it before touching the water, and defers to local electrical
+          codes.
+        </Caution>
         <label className="block">
           <span className="block font-bold">What the customer should do (goes into every e-mail)</span>
-          <textarea value={message} onChange={(e) => setMessage(e.target.value)} rows={3} className="mt-1 w-full max-w-3xl rounded-md border border-stone-300 p-2" aria-label="What the customer should do" />
+          <textarea
+            value={message}
+            onChange={(e) => setMessage(e.target.value)}
+            rows={3}
+            className="mt-1 w-full max-w-3xl rounded-md border border-stone-300 p-2"
+            aria-label="What the customer should do"
+          />
         </label>
         {!confirming ? (
           <Button disabled={toTell === 0} onClick={() => setConfirming(true)}>
@@ -149,7 +172,11 @@ export function Component() {
             </div>
           </div>
         )}
-        {problem && <p role="alert" className="text-red-700">{problem}</p>}
+        {problem && (
+          <p role="alert" className="text-red-700">
+            {problem}
+          </p>
+        )}
         <p>
           <Link to={paths.outbox.href()} className="text-brand-700 underline">
             See the e-mails in the outbox

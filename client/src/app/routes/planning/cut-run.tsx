@@ -19,7 +19,12 @@ export function Component() {
   const publish = usePublishCutRun()
   const cancel = useCancelCutRun()
   const replan = useReplanCutRun()
-  if (run.isError) return <p role="alert" className="text-red-700">{run.error.message}</p>
+  if (run.isError)
+    return (
+      <p role="alert" className="text-red-700">
+        {run.error.message}
+      </p>
+    )
   if (!run.data) return <p>Loading…</p>
   const r = run.data
   // Each distinct pattern is one saw set-up; offcuts count one each.
@@ -81,16 +86,16 @@ export function Component() {
       </div>
       {replan.isPending && <PlanProgress limitSeconds={LONGER_SECONDS} />}
       <p className="text-lg" aria-label="Sticks and patterns">
-        <strong>{r.totals.sticksUsed}</strong> stick{r.totals.sticksUsed === 1 ? '' : 's'} in <strong>{patterns}</strong> pattern{patterns === 1 ? '' : 's'} (saw set-ups).{' '}
+        <strong>{r.totals.sticksUsed}</strong> stick{r.totals.sticksUsed === 1 ? '' : 's'} in <strong>{patterns}</strong> pattern{patterns === 1 ? '' : 's'}{' '}
+        (saw set-ups).{' '}
         {r.planStatus === 'optimal'
           ? 'Proven best: no plan uses less stock.'
           : `Every plan needs at least ${r.totals.lowerBoundSticks} sticks${r.planStatus === 'time-limit' ? '; the engine stopped at its time limit' : ''}${r.status === 'draft' ? ': take longer to look for a better plan' : ''}.`}
       </p>
       {r.solverNote && (
         <p role="status" className="rounded-md border-2 border-amber-600 bg-amber-50 p-3">
-          The engine's solver could not be loaded on the server, so this is the quick first-fit plan, not a searched one, and
-          nothing proves how close it is to the best ({r.solverNote}). Tell whoever looks after the shop computer; planning again once
-          it is fixed may save sticks.
+          The engine's solver could not be loaded on the server, so this is the quick first-fit plan, not a searched one, and nothing proves how close it is to
+          the best ({r.solverNote}). Tell whoever looks after the shop computer; planning again once it is fixed may save sticks.
         </p>
       )}
       {publish.error && (

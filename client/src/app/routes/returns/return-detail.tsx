@@ -63,7 +63,11 @@ export function Component() {
             {when(ret.openedAt)} by {ret.openedBy.name}
           </dd>
           <dt className="font-bold">Received</dt>
-          <dd>{ret.received ? `${when(ret.received.at)} by ${ret.received.by.name}${ret.received.code ? ` (scanned ${ret.received.code})` : ''}` : 'Not yet: the pack bench scans the parcel in on the Returns page'}</dd>
+          <dd>
+            {ret.received
+              ? `${when(ret.received.at)} by ${ret.received.by.name}${ret.received.code ? ` (scanned ${ret.received.code})` : ''}`
+              : 'Not yet: the pack bench scans the parcel in on the Returns page'}
+          </dd>
         </dl>
       </Section>
 
@@ -74,7 +78,12 @@ export function Component() {
           {ret.label.chargeCents !== null && ` · ${money(ret.label.chargeCents, 'USD')}`}
         </p>
         {ret.label.status === 'bought' && (
-          <a className="inline-flex h-14 items-center rounded-md border-2 border-brand-700 px-6 text-lg font-bold text-brand-900" href={`/api/returns/${ret.id}/label.pdf`} target="_blank" rel="noreferrer">
+          <a
+            className="inline-flex h-14 items-center rounded-md border-2 border-brand-700 px-6 text-lg font-bold text-brand-900"
+            href={`/api/returns/${ret.id}/label.pdf`}
+            target="_blank"
+            rel="noreferrer"
+          >
             Print the return label (PDF)
           </a>
         )}
@@ -104,7 +113,9 @@ export function Component() {
 
       <Section title="Decision">
         {!d && ret.status === 'awaiting_parcel' && <p className="text-lg">Decide once the parcel is back in the shop.</p>}
-        {!d && ret.status === 'received' && (office ? <DecisionForm ret={ret} /> : <p className="text-lg">Back in the shop: the office decides repair, replace or refund.</p>)}
+        {!d &&
+          ret.status === 'received' &&
+          (office ? <DecisionForm ret={ret} /> : <p className="text-lg">Back in the shop: the office decides repair, replace or refund.</p>)}
         {d && (
           <div className="space-y-2 text-lg">
             <p>
@@ -114,7 +125,9 @@ export function Component() {
             {d.kind === 'repair' && (
               <p>
                 {d.reopenedSteps.length > 0 ? sentence(`Steps to do again: ${d.reopenedSteps.map((s) => `${s.position}. ${s.text}`).join('; ')}`) : ''}
-                {d.repaired ? 'Repaired: the new leak test passed and the unit is ready again.' : 'At the build bench: it needs a new leak test before it is ready again.'}
+                {d.repaired
+                  ? 'Repaired: the new leak test passed and the unit is ready again.'
+                  : 'At the build bench: it needs a new leak test before it is ready again.'}
               </p>
             )}
             {d.replacement && (

@@ -32,7 +32,14 @@ export function useTickStep(code: string) {
     mutationFn: async ({ workOrderId, stepId, serial, position, ...body }: TickStepInput & StepAction) => {
       const measured = body.measurement === null || body.measurement === undefined || body.measurement === '' ? '' : `, measured ${body.measurement}`
       const outcome = await submitBenchAction(
-        { bench: 'build', kind: 'build.tick', label: `Step ${position} of unit ${serial}${measured}`, path: `/build/${workOrderId}/steps/${stepId}/tick`, body, target: { workOrderId, stepId } },
+        {
+          bench: 'build',
+          kind: 'build.tick',
+          label: `Step ${position} of unit ${serial}${measured}`,
+          path: `/build/${workOrderId}/steps/${stepId}/tick`,
+          body,
+          target: { workOrderId, stepId },
+        },
         BuildPageSchema,
       )
       return outcome.sent ? outcome.data : null
@@ -48,7 +55,13 @@ export function useUndoTick(code: string) {
       // A tick not sent yet is simply taken back.
       if (await cancelWaiting((a) => a.kind === 'build.tick' && a.target.workOrderId === workOrderId && a.target.stepId === stepId)) return null
       const outcome = await submitBenchAction(
-        { bench: 'build', kind: 'build.undo', label: `Undo step ${position} of unit ${serial}`, path: `/build/${workOrderId}/steps/${stepId}/undo`, target: { workOrderId, stepId } },
+        {
+          bench: 'build',
+          kind: 'build.undo',
+          label: `Undo step ${position} of unit ${serial}`,
+          path: `/build/${workOrderId}/steps/${stepId}/undo`,
+          target: { workOrderId, stepId },
+        },
         BuildPageSchema,
       )
       return outcome.sent ? outcome.data : null
@@ -63,7 +76,15 @@ export function useRecordLeakTest(code: string) {
   return useMutation({
     mutationFn: async ({ workOrderId, serial, ...input }: RecordLeakTestInput & { workOrderId: string; serial: string }) => {
       const outcome = await submitBenchAction(
-        { bench: 'build', kind: 'build.leak_test', label: `Leak test of unit ${serial}`, path: `/build/${workOrderId}/leak-tests`, body: input, target: { workOrderId }, needsServer: true },
+        {
+          bench: 'build',
+          kind: 'build.leak_test',
+          label: `Leak test of unit ${serial}`,
+          path: `/build/${workOrderId}/leak-tests`,
+          body: input,
+          target: { workOrderId },
+          needsServer: true,
+        },
         BuildPageSchema,
       )
       return outcome.sent ? outcome.data : null
@@ -83,7 +104,16 @@ export function useUploadPhoto(code: string) {
         confirmPath: `/build/${workOrderId}/photos/confirm`,
       }
       const outcome = await submitBenchAction(
-        { bench: 'build', kind: 'build.photo', label: what, path: body.confirmPath, body, target: { workOrderId, ...(stepId ? { stepId } : {}) }, needsServer: true, photo: file },
+        {
+          bench: 'build',
+          kind: 'build.photo',
+          label: what,
+          path: body.confirmPath,
+          body,
+          target: { workOrderId, ...(stepId ? { stepId } : {}) },
+          needsServer: true,
+          photo: file,
+        },
         BuildPageSchema,
       )
       return outcome.sent ? outcome.data : null
@@ -117,7 +147,17 @@ export function overlayWaiting(page: BuildPage, waiting: readonly QueuedAction[]
       const reason = (a.body as TickStepInput).reason ?? null
       return {
         ...step,
-        tick: { id: a.id, stepId: step.id, by: { id: me.id, name: 'you (not sent yet)' }, at: a.takenAt, measurement, outOfLimits: reason !== null, outOfLimitsReason: reason, undoneAt: null, undoneBy: null },
+        tick: {
+          id: a.id,
+          stepId: step.id,
+          by: { id: me.id, name: 'you (not sent yet)' },
+          at: a.takenAt,
+          measurement,
+          outOfLimits: reason !== null,
+          outOfLimitsReason: reason,
+          undoneAt: null,
+          undoneBy: null,
+        },
       }
     }),
   }

@@ -68,12 +68,16 @@ export function LeakTestForm({ code, page }: { code: string; page: BuildPage }) 
     <form onSubmit={form.handleSubmit(submit)} noValidate aria-label="Leak test" className="space-y-4">
       <p className="text-lg">
         Protocol: start between <strong>{p(protocol.minPressurePa)}</strong> and <strong>{p(protocol.maxPressurePa)}</strong>, hold at least{' '}
-        <strong>{protocol.holdMinutes} min</strong>, drop at most <strong>{p(protocol.maxDropPa)}</strong>, with <strong>{formatLitres(protocol.waterVolumeMl)}</strong> of water.
+        <strong>{protocol.holdMinutes} min</strong>, drop at most <strong>{p(protocol.maxDropPa)}</strong>, with{' '}
+        <strong>{formatLitres(protocol.waterVolumeMl)}</strong> of water.
       </p>
       <fieldset className="flex flex-wrap items-center gap-3">
         <legend className="mb-1 text-lg font-bold">Gauge reads in</legend>
         {PRESSURE_UNITS.map((u) => (
-          <label key={u} className="inline-flex h-14 min-w-24 cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-stone-400 px-4 text-xl font-bold has-checked:border-brand-700 has-checked:bg-brand-700 has-checked:text-white">
+          <label
+            key={u}
+            className="inline-flex h-14 min-w-24 cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-stone-400 px-4 text-xl font-bold has-checked:border-brand-700 has-checked:bg-brand-700 has-checked:text-white"
+          >
             <input type="radio" value={u} className="sr-only" {...form.register('unit')} />
             {u}
           </label>
@@ -81,23 +85,52 @@ export function LeakTestForm({ code, page }: { code: string; page: BuildPage }) 
       </fieldset>
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-4">
         <NumberField label={`Start pressure (${unit})`} error={errors.startPressure?.message}>
-          <input type="number" step="any" inputMode="decimal" className={big} aria-invalid={!!errors.startPressure} {...form.register('startPressure', { valueAsNumber: true })} />
+          <input
+            type="number"
+            step="any"
+            inputMode="decimal"
+            className={big}
+            aria-invalid={!!errors.startPressure}
+            {...form.register('startPressure', { valueAsNumber: true })}
+          />
         </NumberField>
         <NumberField label={`Pressure after the hold (${unit})`} error={errors.endPressure?.message}>
-          <input type="number" step="any" inputMode="decimal" className={big} aria-invalid={!!errors.endPressure} {...form.register('endPressure', { valueAsNumber: true })} />
+          <input
+            type="number"
+            step="any"
+            inputMode="decimal"
+            className={big}
+            aria-invalid={!!errors.endPressure}
+            {...form.register('endPressure', { valueAsNumber: true })}
+          />
         </NumberField>
         <NumberField label="Hold (minutes)" error={errors.holdMinutes?.message}>
-          <input type="number" inputMode="numeric" className={big} aria-invalid={!!errors.holdMinutes} {...form.register('holdMinutes', { valueAsNumber: true })} />
+          <input
+            type="number"
+            inputMode="numeric"
+            className={big}
+            aria-invalid={!!errors.holdMinutes}
+            {...form.register('holdMinutes', { valueAsNumber: true })}
+          />
         </NumberField>
         <NumberField label="Water (ml)" error={errors.waterVolumeMl?.message}>
-          <input type="number" inputMode="numeric" className={big} aria-invalid={!!errors.waterVolumeMl} {...form.register('waterVolumeMl', { valueAsNumber: true })} />
+          <input
+            type="number"
+            inputMode="numeric"
+            className={big}
+            aria-invalid={!!errors.waterVolumeMl}
+            {...form.register('waterVolumeMl', { valueAsNumber: true })}
+          />
         </NumberField>
       </div>
       <fieldset>
         <legend className="mb-2 text-lg font-bold">Leaks seen (tap every place that dripped; none if dry)</legend>
         <div className="flex flex-wrap gap-3">
           {LEAK_PLACES.map((place) => (
-            <label key={place} className="inline-flex h-14 cursor-pointer items-center gap-2 rounded-md border-2 border-stone-400 px-4 text-xl has-checked:border-red-700 has-checked:bg-red-700 has-checked:text-white">
+            <label
+              key={place}
+              className="inline-flex h-14 cursor-pointer items-center gap-2 rounded-md border-2 border-stone-400 px-4 text-xl has-checked:border-red-700 has-checked:bg-red-700 has-checked:text-white"
+            >
               <input type="checkbox" value={place} className="h-6 w-6" {...form.register('leaks')} />
               {LEAK_PLACE_LABELS[place]}
             </label>

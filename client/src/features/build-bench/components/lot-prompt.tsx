@@ -31,7 +31,11 @@ function LotNeedCard({ code, page, need }: { code: string; page: BuildPage; need
     )
   }
   return (
-    <li aria-label={`Lot of ${need.sku}`} data-done={done ? 'true' : undefined} className={cn('space-y-3 rounded-lg border-2 bg-white p-4', done ? 'border-brand-600 bg-brand-50' : 'border-amber-600')}>
+    <li
+      aria-label={`Lot of ${need.sku}`}
+      data-done={done ? 'true' : undefined}
+      className={cn('space-y-3 rounded-lg border-2 bg-white p-4', done ? 'border-brand-600 bg-brand-50' : 'border-amber-600')}
+    >
       <p className="text-2xl">
         <strong>{need.name}</strong> <span className="text-stone-700">({need.sku})</span> · {need.quantity} in this unit
         {!done && <span className="ml-3 rounded-md bg-amber-200 px-2 py-0.5 text-lg font-bold text-amber-950">{need.left} still need a lot</span>}
@@ -44,7 +48,12 @@ function LotNeedCard({ code, page, need }: { code: string; page: BuildPage; need
                 Lot <strong className="font-mono">{f.lotCode}</strong> × {f.quantity} · {f.by.name}, {formatWhen(f.at)}
               </span>
               {!busy && (
-                <Button variant="secondary" size="bench" disabled={undo.isPending} onClick={() => undo.mutate({ workOrderId: page.workOrder.id, fitId: f.id }, { onError: (err) => setProblem(err.message) })}>
+                <Button
+                  variant="secondary"
+                  size="bench"
+                  disabled={undo.isPending}
+                  onClick={() => undo.mutate({ workOrderId: page.workOrder.id, fitId: f.id }, { onError: (err) => setProblem(err.message) })}
+                >
                   Undo lot {f.lotCode}
                 </Button>
               )}
@@ -83,7 +92,14 @@ function LotNeedCard({ code, page, need }: { code: string; page: BuildPage; need
               <p className="text-lg font-bold">Or tap the lot you took (oldest first):</p>
               <div className="flex flex-wrap gap-3">
                 {need.choices.map((c, i) => (
-                  <Button key={c.lotId} variant={i === 0 ? 'primary' : 'secondary'} size="bench" disabled={fit.isPending} onClick={() => send(c.code)} aria-label={`Lot ${c.code}, ${c.free} free`}>
+                  <Button
+                    key={c.lotId}
+                    variant={i === 0 ? 'primary' : 'secondary'}
+                    size="bench"
+                    disabled={fit.isPending}
+                    onClick={() => send(c.code)}
+                    aria-label={`Lot ${c.code}, ${c.free} free`}
+                  >
                     <span className="font-mono">{c.code}</span>
                     <span className="text-base font-normal">
                       {c.free} free · received {formatDateOf(c.firstReceivedAt)}

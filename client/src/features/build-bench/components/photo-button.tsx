@@ -26,7 +26,8 @@ export function PhotoButton({ code, workOrderId, stepId, label }: { code: string
       { workOrderId, stepId, file, what: label },
       {
         // Offline, the photo stays on this tablet (the banner shows it waiting) until the photo store has it.
-        onSuccess: (page) => (page ? toast.success('Photo saved') : toast.info('No network: the photo is kept on this tablet and uploaded when the network is back')),
+        onSuccess: (page) =>
+          page ? toast.success('Photo saved') : toast.info('No network: the photo is kept on this tablet and uploaded when the network is back'),
         onError: (err) => setProblem(err.message),
       },
     )

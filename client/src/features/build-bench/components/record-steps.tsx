@@ -32,7 +32,13 @@ export function RecordSteps({ record }: { record: UnitRecord }) {
               {s.tick?.measurement != null && (
                 <>
                   {s.tick.measurement} {s.measurementUnit}
-                  {s.tick.outOfLimits && <strong className="text-red-800"> · out of limits ({formatLimits(s.measurementMin, s.measurementMax, s.measurementUnit)}){s.tick.outOfLimitsReason ? `: ${s.tick.outOfLimitsReason}` : ''}</strong>}
+                  {s.tick.outOfLimits && (
+                    <strong className="text-red-800">
+                      {' '}
+                      · out of limits ({formatLimits(s.measurementMin, s.measurementMax, s.measurementUnit)})
+                      {s.tick.outOfLimitsReason ? `: ${s.tick.outOfLimitsReason}` : ''}
+                    </strong>
+                  )}
                 </>
               )}
             </td>

@@ -51,12 +51,23 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
       },
     )
   })
-  const source = stick.source === 'offcut' ? `Take offcut ${stick.sourceOffcutCode} (${format(stick.length)}) from the rack` : `Take a ${format(stick.length)} stick of ${stick.partSku}`
+  const source =
+    stick.source === 'offcut'
+      ? `Take offcut ${stick.sourceOffcutCode} (${format(stick.length)}) from the rack`
+      : `Take a ${format(stick.length)} stick of ${stick.partSku}`
   return (
     <section aria-label={`Stick ${stick.position}`} className="space-y-4 rounded-xl border-2 border-stone-300 bg-white p-4">
       <div className="flex flex-wrap items-baseline gap-3">
         <h2 className="text-3xl font-bold">Stick {stick.position}</h2>
-        <span className="text-xl">{stick.status === 'pending' ? source : stick.status === 'damaged' ? `Damaged: ${stick.damagedReason}` : stick.status === 'done' ? 'All cut' : 'On the saw'}</span>
+        <span className="text-xl">
+          {stick.status === 'pending'
+            ? source
+            : stick.status === 'damaged'
+              ? `Damaged: ${stick.damagedReason}`
+              : stick.status === 'done'
+                ? 'All cut'
+                : 'On the saw'}
+        </span>
       </div>
       <p className="text-xl">
         <strong>{cutCount}</strong> of {live.length} pieces cut
@@ -66,13 +77,33 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
       <StickLegend bench className="text-base" />
       <ol className="space-y-2" aria-label="Pieces in saw order">
         {rows.map((r) => (
-          <PieceRow key={r.items[0]!.id} stick={stick} row={r} bin={binOf.get(r.items[0]!.workOrderId) ?? null} next={next?.id} queued={queue.filter((k) => k === r.items[0]!.id).length} onTick={() => setQueue((q) => [...q, r.items[0]!.id])} onUndo={(cutId) => undo.mutate({ runId: run.id, cutId, what: `${format(r.items[0]!.length)} ${r.items[0]!.label} for WO ${r.items[0]!.serial} (stick ${stick.position})` }, { onError: fail })} busy={tick.isPending || undo.isPending || queue.length > 0} />
+          <PieceRow
+            key={r.items[0]!.id}
+            stick={stick}
+            row={r}
+            bin={binOf.get(r.items[0]!.workOrderId) ?? null}
+            next={next?.id}
+            queued={queue.filter((k) => k === r.items[0]!.id).length}
+            onTick={() => setQueue((q) => [...q, r.items[0]!.id])}
+            onUndo={(cutId) =>
+              undo.mutate(
+                { runId: run.id, cutId, what: `${format(r.items[0]!.length)} ${r.items[0]!.label} for WO ${r.items[0]!.serial} (stick ${stick.position})` },
+                { onError: fail },
+              )
+            }
+            busy={tick.isPending || undo.isPending || queue.length > 0}
+          />
         ))}
       </ol>
       {stick.offcutId && (
         <p className="flex flex-wrap items-center gap-3 rounded-lg border-2 border-dashed border-stick-offcut-edge bg-stick-offcut p-3 text-xl">
           Offcut {format(stick.remnant)} goes to the rack as {stick.offcutCode}.
-          <a className="inline-flex h-14 items-center rounded-md bg-brand-700 px-5 font-bold text-white" href={offcutLabelHref(run.id, stick.id)} target="_blank" rel="noreferrer">
+          <a
+            className="inline-flex h-14 items-center rounded-md bg-brand-700 px-5 font-bold text-white"
+            href={offcutLabelHref(run.id, stick.id)}
+            target="_blank"
+            rel="noreferrer"
+          >
             Print its label
           </a>
         </p>
@@ -90,13 +121,24 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
             e.preventDefault()
             damage.mutate(
               { runId: run.id, stickId: stick.id, reason, spoiledCutIds: [...spoiled] },
-              { onSuccess: () => { setDamaging(false); toast.success('The pieces were planned on other sticks') }, onError: fail },
+              {
+                onSuccess: () => {
+                  setDamaging(false)
+                  toast.success('The pieces were planned on other sticks')
+                },
+                onError: fail,
+              },
             )
           }}
         >
           <label className="block text-lg font-bold">
             What happened?
-            <input value={reason} onChange={(e) => setReason(e.target.value)} className="mt-1 h-14 w-full rounded-md border-2 border-stone-400 px-3 text-xl" placeholder="e.g. cracked end, miscut" />
+            <input
+              value={reason}
+              onChange={(e) => setReason(e.target.value)}
+              className="mt-1 h-14 w-full rounded-md border-2 border-stone-400 px-3 text-xl"
+              placeholder="e.g. cracked end, miscut"
+            />
           </label>
           {stick.cuts.some((c) => c.status === 'cut') && <p className="text-lg">Pieces already cut that are spoiled too:</p>}
           {rows.map((r) => {
@@ -114,13 +156,25 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
                 <span className="min-w-0 flex-1">
                   {runNumbers(r)}. {format(r.items[0]!.length)} for WO {r.items[0]!.serial} ({cut.length} cut)
                 </span>
-                <Button size="bench" variant="secondary" aria-label={`One spoiled piece fewer of ${runNumbers(r)}`} disabled={n === 0} onClick={() => set(n - 1)}>
+                <Button
+                  size="bench"
+                  variant="secondary"
+                  aria-label={`One spoiled piece fewer of ${runNumbers(r)}`}
+                  disabled={n === 0}
+                  onClick={() => set(n - 1)}
+                >
                   −
                 </Button>
                 <span className="min-w-24 text-center font-bold" aria-live="polite">
                   {n} spoiled
                 </span>
-                <Button size="bench" variant="secondary" aria-label={`One spoiled piece more of ${runNumbers(r)}`} disabled={n >= cut.length} onClick={() => set(n + 1)}>
+                <Button
+                  size="bench"
+                  variant="secondary"
+                  aria-label={`One spoiled piece more of ${runNumbers(r)}`}
+                  disabled={n >= cut.length}
+                  onClick={() => set(n + 1)}
+                >
                   +
                 </Button>
               </div>
@@ -144,7 +198,25 @@ export function BenchStick({ run, stick, scale }: { run: CutRunDetail; stick: Cu
  * One row of the cut list: a run of equal pieces for one unit ("10 × 3-5/16\"") with its progress,
  * a big "Cut one" that records one piece per tap, and an undo of the last piece ticked.
  */
-function PieceRow({ stick, row, bin, next, queued, onTick, onUndo, busy }: { stick: CutStick; row: PieceRun<Cut>; bin: string | null; next: string | undefined; queued: number; onTick: () => void; onUndo: (cutId: string) => void; busy: boolean }) {
+function PieceRow({
+  stick,
+  row,
+  bin,
+  next,
+  queued,
+  onTick,
+  onUndo,
+  busy,
+}: {
+  stick: CutStick
+  row: PieceRun<Cut>
+  bin: string | null
+  next: string | undefined
+  queued: number
+  onTick: () => void
+  onUndo: (cutId: string) => void
+  busy: boolean
+}) {
   const { format } = useLengthUnit()
   const first = row.items[0]!
   const pieces = row.items.filter((c) => c.status !== 'replanned')
@@ -179,7 +251,14 @@ function PieceRow({ stick, row, bin, next, queued, onTick, onUndo, busy }: { sti
       ) : (
         <div className="flex flex-wrap items-center gap-3">
           <div className="flex min-w-40 flex-1 items-center gap-3">
-            <div role="progressbar" aria-label={`Pieces cut of ${runNumbers(row)}`} aria-valuemin={0} aria-valuemax={pieces.length} aria-valuenow={done.length} className="h-5 flex-1 overflow-hidden rounded-full border-2 border-stone-400 bg-white">
+            <div
+              role="progressbar"
+              aria-label={`Pieces cut of ${runNumbers(row)}`}
+              aria-valuemin={0}
+              aria-valuemax={pieces.length}
+              aria-valuenow={done.length}
+              className="h-5 flex-1 overflow-hidden rounded-full border-2 border-stone-400 bg-white"
+            >
               <div className="h-full bg-brand-600" style={{ width: `${(shown / pieces.length) * 100}%` }} />
             </div>
             <span className="text-2xl font-bold tabular-nums">
@@ -188,18 +267,35 @@ function PieceRow({ stick, row, bin, next, queued, onTick, onUndo, busy }: { sti
             {queued > 0 && <span className="text-base text-stone-600">+{queued} saving…</span>}
           </div>
           {open && !complete && (
-            <Button size="bench" className="h-16 min-w-36 text-2xl" aria-label={`Tick one ${format(first.length)} for WO ${first.serial}`} disabled={shown >= pieces.length} onClick={onTick}>
+            <Button
+              size="bench"
+              className="h-16 min-w-36 text-2xl"
+              aria-label={`Tick one ${format(first.length)} for WO ${first.serial}`}
+              disabled={shown >= pieces.length}
+              onClick={onTick}
+            >
               ✓ Cut one
             </Button>
           )}
           {open && done.length > 0 && (
-            <Button size="bench" variant="secondary" className="h-16" aria-label={`Undo one ${format(first.length)} for WO ${first.serial}`} disabled={busy} onClick={() => last && onUndo(last.id)}>
+            <Button
+              size="bench"
+              variant="secondary"
+              className="h-16"
+              aria-label={`Undo one ${format(first.length)} for WO ${first.serial}`}
+              disabled={busy}
+              onClick={() => last && onUndo(last.id)}
+            >
               Undo
             </Button>
           )}
         </div>
       )}
-      {last && <p className="text-base text-stone-600">Last cut by {last.cutBy} at {time(last.cutAt)}</p>}
+      {last && (
+        <p className="text-base text-stone-600">
+          Last cut by {last.cutBy} at {time(last.cutAt)}
+        </p>
+      )}
     </li>
   )
 }

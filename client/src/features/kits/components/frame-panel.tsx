@@ -73,7 +73,11 @@ export function FramePanel({ pipes, readOnly }: { pipes: Part[]; readOnly: boole
       {result && (
         <div className="space-y-3" aria-live="polite">
           {result.warnings.map((w) => (
-            <p key={w.message} role={w.severity === 'error' ? 'alert' : undefined} className={w.severity === 'error' ? 'rounded-md bg-red-50 p-2 text-red-800' : 'rounded-md bg-amber-50 p-2 text-amber-900'}>
+            <p
+              key={w.message}
+              role={w.severity === 'error' ? 'alert' : undefined}
+              className={w.severity === 'error' ? 'rounded-md bg-red-50 p-2 text-red-800' : 'rounded-md bg-amber-50 p-2 text-amber-900'}
+            >
               {w.message}
             </p>
           ))}

@@ -20,7 +20,11 @@ export const FRAME_LENGTH_FIELDS: { path: string; label: string; hint?: string }
   { path: 'recessBelowRim', label: 'Manifold recess below the rim', hint: 'About 2 in is common practice' },
   { path: 'wallClearance', label: 'Clearance to the walls' },
   { path: 'pipeOutsideDiameter', label: 'Pipe outside diameter', hint: '1/2 in Schedule 40 PVC: 0.840 in (ASTM D1785)' },
-  { path: 'elbow.socketDepth', label: 'Elbow socket depth', hint: 'How far the pipe enters: 0.688 in for 1/2 in Schedule 40 socket fittings (ASTM D2466 socket table, least socket length); measure your own' },
+  {
+    path: 'elbow.socketDepth',
+    label: 'Elbow socket depth',
+    hint: 'How far the pipe enters: 0.688 in for 1/2 in Schedule 40 socket fittings (ASTM D2466 socket table, least socket length); measure your own',
+  },
   { path: 'elbow.centreToSocketBottom', label: 'Elbow centre to socket bottom' },
   { path: 'tee.socketDepth', label: 'Tee socket depth' },
   { path: 'tee.centreToSocketBottom', label: 'Tee centre to socket bottom' },
@@ -217,7 +221,14 @@ export function toContent(values: RevisionFormValues, parse: Parse): Converted<R
     if (!len.ok) errors[`cutParts.${i}.length`] = len.message
     const q = wholeNumber(c.quantity)
     if (q === null) errors[`cutParts.${i}.quantity`] = 'Enter a whole number'
-    return { partId: c.partId, label: c.label, length: len.ok ? len.value : 0, quantity: q ?? 0, frameKey: c.frameKey || null, overrideReason: c.overrideReason || null }
+    return {
+      partId: c.partId,
+      label: c.label,
+      length: len.ok ? len.value : 0,
+      quantity: q ?? 0,
+      frameKey: c.frameKey || null,
+      overrideReason: c.overrideReason || null,
+    }
   })
   const buildSteps = values.buildSteps.map((s, i) => {
     const limit = (text: string, key: 'measurementMin' | 'measurementMax') => {
@@ -248,7 +259,13 @@ export function formFieldFor(apiPath: string): string {
   if (m) return m[1] === 'layout.riserSide' ? 'frame.riserSide' : `frame.inputs.${fieldKey(m[1]!)}`
   if (apiPath.startsWith('leakTest.')) {
     const key = apiPath.slice('leakTest.'.length)
-    const map: Record<string, string> = { minPressurePa: 'minPressure', maxPressurePa: 'maxPressure', maxDropPa: 'maxDrop', waterVolumeMl: 'waterLitres', holdMinutes: 'holdMinutes' }
+    const map: Record<string, string> = {
+      minPressurePa: 'minPressure',
+      maxPressurePa: 'maxPressure',
+      maxDropPa: 'maxDrop',
+      waterVolumeMl: 'waterLitres',
+      holdMinutes: 'holdMinutes',
+    }
     return `leakTest.${map[key] ?? key}`
   }
   return apiPath

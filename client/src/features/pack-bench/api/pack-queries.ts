@@ -13,12 +13,19 @@ export const packKeys = {
 
 /** Whether the shipment needs a customs declaration, and its form per parcel once the label is bought. */
 export function customsSummaryOptions(shipmentId: string, status: string) {
-  return queryOptions({ queryKey: packKeys.customs(shipmentId, status), queryFn: ({ signal }) => apiFetch(`/shipments/${shipmentId}/customs`, CustomsSummarySchema, { signal }) })
+  return queryOptions({
+    queryKey: packKeys.customs(shipmentId, status),
+    queryFn: ({ signal }) => apiFetch(`/shipments/${shipmentId}/customs`, CustomsSummarySchema, { signal }),
+  })
 }
 
 /** The pack view of one order; refreshed now and then, as a planner may approve a partial shipment meanwhile. */
 export function packOrderOptions(orderId: string) {
-  return queryOptions({ queryKey: packKeys.order(orderId), queryFn: ({ signal }) => apiFetch(`/pack/orders/${orderId}`, PackViewSchema, { signal }), refetchInterval: 20_000 })
+  return queryOptions({
+    queryKey: packKeys.order(orderId),
+    queryFn: ({ signal }) => apiFetch(`/pack/orders/${orderId}`, PackViewSchema, { signal }),
+    refetchInterval: 20_000,
+  })
 }
 
 /** Every bench action answers with the whole view: show it at once. */
@@ -50,13 +57,36 @@ function useQueuedViewAction<V>(spec: (v: V) => BenchActionSpec & { path: string
 }
 
 export const useScanItem = () =>
-  useQueuedViewAction((v: { orderId: string; code: string }) => ({ bench: 'pack', kind: 'pack.scan', label: `Scan ${v.code} into the box`, path: `/pack/orders/${v.orderId}/scan`, body: { code: v.code }, target: { orderId: v.orderId } }))
+  useQueuedViewAction((v: { orderId: string; code: string }) => ({
+    bench: 'pack',
+    kind: 'pack.scan',
+    label: `Scan ${v.code} into the box`,
+    path: `/pack/orders/${v.orderId}/scan`,
+    body: { code: v.code },
+    target: { orderId: v.orderId },
+  }))
 export const useTickItem = () =>
-  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({ bench: 'pack', kind: 'pack.tick', label: `Tick ${v.itemKey} as in the box`, path: `/pack/orders/${v.orderId}/tick`, body: { itemKey: v.itemKey }, target: { orderId: v.orderId } }))
+  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({
+    bench: 'pack',
+    kind: 'pack.tick',
+    label: `Tick ${v.itemKey} as in the box`,
+    path: `/pack/orders/${v.orderId}/tick`,
+    body: { itemKey: v.itemKey },
+    target: { orderId: v.orderId },
+  }))
 export const useUndoItem = () =>
-  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({ bench: 'pack', kind: 'pack.undo', label: `Take ${v.itemKey} out of the box`, path: `/pack/orders/${v.orderId}/undo`, body: { itemKey: v.itemKey }, target: { orderId: v.orderId } }))
+  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({
+    bench: 'pack',
+    kind: 'pack.undo',
+    label: `Take ${v.itemKey} out of the box`,
+    path: `/pack/orders/${v.orderId}/undo`,
+    body: { itemKey: v.itemKey },
+    target: { orderId: v.orderId },
+  }))
 export const useApprovePartial = () =>
-  useViewAction((v: { orderId: string; note: string }) => apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }))
+  useViewAction((v: { orderId: string; note: string }) =>
+    apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }),
+  )
 /** Buying spends money: it is kept with its id before it is sent, and offline it waits with its badge (the server's idempotency keeps it to one label). */
 export const useBuyLabel = () =>
   useQueuedViewAction((v: BuyLabel & { orderId: string }) => ({
@@ -71,10 +101,15 @@ export const useBuyLabel = () =>
 
 /** Voids the shipment's label with why; the carrier is asked to refund it. */
 export const useVoidLabel = () =>
-  useViewAction((v: { shipmentId: string; reason: string }) => apiFetch(`/shipments/${v.shipmentId}/void-label`, PackViewSchema, { method: 'POST', body: { reason: v.reason } }))
+  useViewAction((v: { shipmentId: string; reason: string }) =>
+    apiFetch(`/shipments/${v.shipmentId}/void-label`, PackViewSchema, { method: 'POST', body: { reason: v.reason } }),
+  )
 
 export function useQuote() {
-  return useMutation({ mutationFn: (v: QuoteRequest & { orderId: string }) => apiFetch(`/pack/orders/${v.orderId}/quote`, z.array(QuoteSchema), { method: 'POST', body: { parcels: v.parcels } }) })
+  return useMutation({
+    mutationFn: (v: QuoteRequest & { orderId: string }) =>
+      apiFetch(`/pack/orders/${v.orderId}/quote`, z.array(QuoteSchema), { method: 'POST', body: { parcels: v.parcels } }),
+  })
 }
 
 export function useShip() {

@@ -15,7 +15,12 @@ import { readSteadyWeight, scaleReadingSupported } from './web-serial-scale'
  */
 export function BagWeighing({ orderId, open }: { orderId: string; open: boolean }) {
   const checks = useQuery(bagChecksOptions(orderId))
-  if (checks.isError) return <p role="alert" className="text-xl text-red-700">{checks.error.message}</p>
+  if (checks.isError)
+    return (
+      <p role="alert" className="text-xl text-red-700">
+        {checks.error.message}
+      </p>
+    )
   if (!checks.data || checks.data.length === 0) return null
   return (
     <section aria-label="Weigh the bags" className="space-y-3">
@@ -70,9 +75,19 @@ function BagRow({ orderId, bag, open }: { orderId: string; bag: BagCheck; open: 
   }
 
   return (
-    <div aria-label={`Weigh ${label}`} className={cn('space-y-2 rounded-lg border-2 p-3', last ? (last.accepted ? 'border-green-700 bg-green-50' : 'border-red-700 bg-red-50') : 'border-stone-300 bg-white')}>
+    <div
+      aria-label={`Weigh ${label}`}
+      className={cn(
+        'space-y-2 rounded-lg border-2 p-3',
+        last ? (last.accepted ? 'border-green-700 bg-green-50' : 'border-red-700 bg-red-50') : 'border-stone-300 bg-white',
+      )}
+    >
       <p className="text-xl font-bold">
-        {label} · {bag.lines.filter((l) => !l.isBag).map((l) => `${l.quantity} × ${l.name}`).join(', ')}
+        {label} ·{' '}
+        {bag.lines
+          .filter((l) => !l.isBag)
+          .map((l) => `${l.quantity} × ${l.name}`)
+          .join(', ')}
       </p>
       {bag.problem && <p className="text-lg font-bold text-red-800">{bag.problem}</p>}
       {bag.expectation && (
@@ -141,7 +156,12 @@ function LastWeighing({ weighing, orderId, itemKey }: { weighing: Weighing; orde
         {weighing.enteredAs} ({weighing.source === 'scale' ? 'read from the scale' : 'typed'}) by {weighing.weighedBy.name} at {at}
       </p>
       {weighing.accepted && (
-        <a href={bagLabelHref(orderId, itemKey)} target="_blank" rel="noreferrer" className="inline-flex h-14 items-center rounded-md border border-stone-300 bg-white px-6 text-lg font-bold text-stone-900">
+        <a
+          href={bagLabelHref(orderId, itemKey)}
+          target="_blank"
+          rel="noreferrer"
+          className="inline-flex h-14 items-center rounded-md border border-stone-300 bg-white px-6 text-lg font-bold text-stone-900"
+        >
           Print bag label (2 × 1 in)
         </a>
       )}

@@ -11,8 +11,15 @@ export function BuyingPanel({ view, onError }: { view: PackView; onError: (messa
   const parcels = view.parcels.map((p) => ({ workOrderIds: p.workOrderIds, boxId: p.boxId ?? '', scaleGrams: p.scaleGrams }))
   return (
     <div role="status" className="space-y-3 rounded-lg border-2 border-amber-600 bg-amber-50 p-4">
-      <p className="text-2xl">The label for order {view.order.number} is being bought. If it does not show in a moment, finish buying it: the carrier will not charge twice.</p>
-      <Button size="bench" className="h-20 w-full text-2xl" disabled={buy.isPending} onClick={() => buy.mutate({ orderId: view.order.id, service: 'resume', parcels }, { onError: (e) => onError(e.message) })}>
+      <p className="text-2xl">
+        The label for order {view.order.number} is being bought. If it does not show in a moment, finish buying it: the carrier will not charge twice.
+      </p>
+      <Button
+        size="bench"
+        className="h-20 w-full text-2xl"
+        disabled={buy.isPending}
+        onClick={() => buy.mutate({ orderId: view.order.id, service: 'resume', parcels }, { onError: (e) => onError(e.message) })}
+      >
         Finish buying the label
       </Button>
     </div>

@@ -19,7 +19,11 @@ export function PackingList({ view, onError }: { view: PackView; onError: (messa
           <li
             key={item.key}
             aria-label={`${KIND_LABEL[item.kind]} ${item.serial}${item.kind === 'bag' ? ' bag' : ''}`}
-            className={cn('flex flex-wrap items-center gap-3 rounded-lg border-2 p-3', item.check ? 'border-green-700 bg-green-50' : item.problem ? 'border-red-700 bg-red-50' : 'border-stone-300 bg-white', back && 'opacity-60')}
+            className={cn(
+              'flex flex-wrap items-center gap-3 rounded-lg border-2 p-3',
+              item.check ? 'border-green-700 bg-green-50' : item.problem ? 'border-red-700 bg-red-50' : 'border-stone-300 bg-white',
+              back && 'opacity-60',
+            )}
           >
             <span aria-hidden className="w-10 text-center text-3xl">
               {item.check ? '✔' : item.problem ? '✖' : '☐'}

@@ -16,7 +16,10 @@ interface Draft {
 /** Moves a unit (with its bags) to parcel `to`, or to a new parcel when `to` is null; empty parcels go. */
 function moveUnit(drafts: readonly Draft[], workOrderId: string, to: number | null, newParcel: Omit<Draft, 'workOrderIds'>): Draft[] {
   const moved = drafts.map((d) => ({ ...d, workOrderIds: d.workOrderIds.filter((id) => id !== workOrderId) }))
-  const next = to === null ? [...moved, { ...newParcel, workOrderIds: [workOrderId] }] : moved.map((d) => (d.key === to ? { ...d, workOrderIds: [...d.workOrderIds, workOrderId] } : d))
+  const next =
+    to === null
+      ? [...moved, { ...newParcel, workOrderIds: [workOrderId] }]
+      : moved.map((d) => (d.key === to ? { ...d, workOrderIds: [...d.workOrderIds, workOrderId] } : d))
   return next.filter((d) => d.workOrderIds.length > 0)
 }
 
@@ -29,12 +32,20 @@ const money = (cents: number) => `$${(cents / 100).toFixed(2)}`
 export function ParcelsPanel({ view, onError }: { view: PackView; onError: (message: string) => void }) {
   const { unit, format } = useLengthUnit()
   const weightUnit = unit === 'in' ? 'lb' : 'kg'
-  const [drafts, setDrafts] = useState<Draft[]>(() => view.parcels.map((p, i) => ({ key: i + 1, workOrderIds: p.workOrderIds, boxId: p.boxId ?? view.boxes[0]?.id ?? '', scale: '' })))
+  const [drafts, setDrafts] = useState<Draft[]>(() =>
+    view.parcels.map((p, i) => ({ key: i + 1, workOrderIds: p.workOrderIds, boxId: p.boxId ?? view.boxes[0]?.id ?? '', scale: '' })),
+  )
   const serialOf = new Map(view.items.map((i) => [i.workOrderId, i.serial]))
   const move = (workOrderId: string, to: number | null) => {
     setQuotes(null)
     // A new parcel starts in the box the unit came out of; the packer may choose another.
-    setDrafts((all) => moveUnit(all, workOrderId, to, { key: Math.max(0, ...all.map((d) => d.key)) + 1, boxId: all.find((d) => d.workOrderIds.includes(workOrderId))?.boxId ?? view.boxes[0]?.id ?? '', scale: '' }))
+    setDrafts((all) =>
+      moveUnit(all, workOrderId, to, {
+        key: Math.max(0, ...all.map((d) => d.key)) + 1,
+        boxId: all.find((d) => d.workOrderIds.includes(workOrderId))?.boxId ?? view.boxes[0]?.id ?? '',
+        scale: '',
+      }),
+    )
   }
   const [quotes, setQuotes] = useState<Quote[] | null>(null)
   const quote = useQuote()
@@ -44,7 +55,8 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
     return drafts.map((d, i) => {
       const text = d.scale.trim()
       const reading = text === '' ? null : Number(text)
-      if (reading !== null && (!Number.isFinite(reading) || reading <= 0)) throw new Error(`Parcel ${i + 1}: enter the scale reading in ${weightUnit} as a number above zero, or leave it empty`)
+      if (reading !== null && (!Number.isFinite(reading) || reading <= 0))
+        throw new Error(`Parcel ${i + 1}: enter the scale reading in ${weightUnit} as a number above zero, or leave it empty`)
       const grams = reading === null ? null : Math.round(unit === 'in' ? poundsToGrams(reading) : reading * 1000)
       return { workOrderIds: d.workOrderIds, boxId: d.boxId, scaleGrams: grams }
     })
@@ -54,12 +66,11 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
     setDrafts((all) => all.map((d, n) => (n === i ? { ...d, ...change } : d)))
   }
 
-
   return (
     <div className="space-y-3">
       <p className="text-lg">
-        Proposed: one parcel per unit that has its own carton; packs without one ride in the first parcel. Move a unit to another parcel if it goes elsewhere: its bags go with it, and the packing slip
-        lists each parcel with its own tracking number.
+        Proposed: one parcel per unit that has its own carton; packs without one ride in the first parcel. Move a unit to another parcel if it goes elsewhere:
+        its bags go with it, and the packing slip lists each parcel with its own tracking number.
       </p>
       {drafts.map((d, i) => {
         const box = view.boxes.find((b) => b.id === d.boxId)
@@ -92,7 +103,11 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
             <div className="flex flex-wrap gap-4">
               <label className="block">
                 <span className="block text-lg font-bold">Box</span>
-                <select className="h-14 rounded-md border-2 border-stone-400 bg-white px-3 text-lg" value={d.boxId} onChange={(e) => update(i, { boxId: e.target.value })}>
+                <select
+                  className="h-14 rounded-md border-2 border-stone-400 bg-white px-3 text-lg"
+                  value={d.boxId}
+                  onChange={(e) => update(i, { boxId: e.target.value })}
+                >
                   {view.boxes.map((b) => (
                     <option key={b.id} value={b.id}>
                       {b.name}
@@ -102,7 +117,12 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
               </label>
               <label className="block">
                 <span className="block text-lg font-bold">Scale reading ({weightUnit}), if weighed</span>
-                <input inputMode="decimal" className="h-14 w-40 rounded-md border-2 border-stone-400 px-3 text-2xl" value={d.scale} onChange={(e) => update(i, { scale: e.target.value })} />
+                <input
+                  inputMode="decimal"
+                  className="h-14 w-40 rounded-md border-2 border-stone-400 px-3 text-2xl"
+                  value={d.scale}
+                  onChange={(e) => update(i, { scale: e.target.value })}
+                />
               </label>
             </div>
             <p className="text-lg">
@@ -110,7 +130,8 @@ export function ParcelsPanel({ view, onError }: { view: PackView; onError: (mess
               {p ? (
                 <>
                   {' '}
-                  · estimated {formatWeight(p.estimatedGrams, unit)} (parts and box) · dimensional {formatWeight(p.dimensionalGrams, unit)} · billable <strong>{formatWeight(p.billableGrams, unit)}</strong>
+                  · estimated {formatWeight(p.estimatedGrams, unit)} (parts and box) · dimensional {formatWeight(p.dimensionalGrams, unit)} · billable{' '}
+                  <strong>{formatWeight(p.billableGrams, unit)}</strong>
                 </>
               ) : (
                 ' · weighed again when you get prices'

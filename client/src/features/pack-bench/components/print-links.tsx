@@ -29,7 +29,9 @@ export function PrintLinks({ view }: { view: PackView }) {
           Customs declaration {forms} (4 × 6 in, print with the label)
         </a>
       )}
-      {labelled && customs.data?.required && !customs.data.ready && <p className="basis-full text-lg font-bold text-red-800">Customs declaration cannot be printed: {customs.data.problems.join('; ')}</p>}
+      {labelled && customs.data?.required && !customs.data.ready && (
+        <p className="basis-full text-lg font-bold text-red-800">Customs declaration cannot be printed: {customs.data.problems.join('; ')}</p>
+      )}
     </nav>
   )
 }

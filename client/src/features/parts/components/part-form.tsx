@@ -16,9 +16,25 @@ import { ParsedTextField, type TextParse } from './parsed-text-field'
 type Values = z.input<typeof PartInputSchema>
 
 const EMPTY: Values = {
-  sku: '', name: '', kind: 'hardware', unitOfMeasure: 'each', unitCostCents: 0, weightGrams: 0, electrical: false, lotTracked: false, supplier: '', leadTimeDays: null,
-  reorderPoint: 0, reorderQuantity: 0, shelfLocation: '', nominalSize: '', outsideDiameter: null, stickLengths: [],
-  hsCode: '', originCountry: '', customsDescription: '',
+  sku: '',
+  name: '',
+  kind: 'hardware',
+  unitOfMeasure: 'each',
+  unitCostCents: 0,
+  weightGrams: 0,
+  electrical: false,
+  lotTracked: false,
+  supplier: '',
+  leadTimeDays: null,
+  reorderPoint: 0,
+  reorderQuantity: 0,
+  shelfLocation: '',
+  nominalSize: '',
+  outsideDiameter: null,
+  stickLengths: [],
+  hsCode: '',
+  originCountry: '',
+  customsDescription: '',
 }
 
 function toValues(part: Part): Values {
@@ -54,7 +70,10 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
   const parseOptionalLength = (text: string): TextParse<number | null> => (text.trim() === '' ? { ok: true, value: null } : parse(text))
   const parseLengthList = (text: string): TextParse<number[]> => {
     const values: number[] = []
-    for (const piece of text.split(/[;,]/).map((s) => s.trim()).filter(Boolean)) {
+    for (const piece of text
+      .split(/[;,]/)
+      .map((s) => s.trim())
+      .filter(Boolean)) {
       const r = parse(piece)
       if (!r.ok) return { ok: false, message: `"${piece}": ${r.message}` }
       values.push(r.value)
@@ -67,7 +86,12 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
   }
   const example = unit === 'mm' ? '21.3 mm' : '0.840 in'
   return (
-    <form noValidate aria-label="Part" className="grid gap-4 rounded-lg border border-stone-300 bg-white p-4 md:grid-cols-3" onSubmit={form.handleSubmit((input) => onSubmit(input).catch((err: unknown) => applyServerErrors(err, form.setError)))}>
+    <form
+      noValidate
+      aria-label="Part"
+      className="grid gap-4 rounded-lg border border-stone-300 bg-white p-4 md:grid-cols-3"
+      onSubmit={form.handleSubmit((input) => onSubmit(input).catch((err: unknown) => applyServerErrors(err, form.setError)))}
+    >
       <Field label="SKU" error={errors.sku?.message}>
         <Input aria-invalid={!!errors.sku} {...form.register('sku')} />
       </Field>
@@ -99,14 +123,35 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
           <Field label="Nominal size" hint="e.g. 1/2 (inch pipe size)" error={errors.nominalSize?.message}>
             <Input aria-invalid={!!errors.nominalSize} {...form.register('nominalSize')} />
           </Field>
-          <ParsedTextField control={form.control} name="outsideDiameter" label="Outside diameter" hint={`e.g. ${example}`} toText={(v) => (v == null ? '' : lengthText(v))} parse={parseOptionalLength} />
-          <ParsedTextField control={form.control} name="stickLengths" label="Stick lengths" hint="Separate with ; e.g. 10 ft; 20 ft" toText={(v) => (v ?? []).map(lengthText).join('; ')} parse={parseLengthList} />
+          <ParsedTextField
+            control={form.control}
+            name="outsideDiameter"
+            label="Outside diameter"
+            hint={`e.g. ${example}`}
+            toText={(v) => (v == null ? '' : lengthText(v))}
+            parse={parseOptionalLength}
+          />
+          <ParsedTextField
+            control={form.control}
+            name="stickLengths"
+            label="Stick lengths"
+            hint="Separate with ; e.g. 10 ft; 20 ft"
+            toText={(v) => (v ?? []).map(lengthText).join('; ')}
+            parse={parseLengthList}
+          />
         </>
       )}
       <Field label="Unit of measure" hint="each, stick, ft, bag…" error={errors.unitOfMeasure?.message}>
         <Input aria-invalid={!!errors.unitOfMeasure} {...form.register('unitOfMeasure')} />
       </Field>
-      <ParsedTextField control={form.control} name="unitCostCents" label="Unit cost ($)" hint="Dollars and cents, e.g. 3.48. Receiving against a purchase order sets it to the moving average of what was paid for the stock on hand" toText={(v) => centsToText(v)} parse={parseCost} />
+      <ParsedTextField
+        control={form.control}
+        name="unitCostCents"
+        label="Unit cost ($)"
+        hint="Dollars and cents, e.g. 3.48. Receiving against a purchase order sets it to the moving average of what was paid for the stock on hand"
+        toText={(v) => centsToText(v)}
+        parse={parseCost}
+      />
       <Field label="Weight of one unit (g)" error={errors.weightGrams?.message}>
         <Input inputMode="numeric" aria-invalid={!!errors.weightGrams} {...form.register('weightGrams', { valueAsNumber: true })} />
       </Field>
@@ -114,14 +159,18 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
         <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('electrical')} />
         <span>
           <span className="block font-bold">Runs on mains power</span>
-          <span className="block text-sm text-stone-600">A pump, a timer, a light: the care sheet of every box holding it carries the electricity-and-water cautions.</span>
+          <span className="block text-sm text-stone-600">
+            A pump, a timer, a light: the care sheet of every box holding it carries the electricity-and-water cautions.
+          </span>
         </span>
       </label>
       <label className="flex items-start gap-3 md:col-span-2">
         <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('lotTracked')} />
         <span>
           <span className="block font-bold">Tracked by the supplier's lot</span>
-          <span className="block text-sm text-stone-600">Receiving asks for the lot on the bag or box, the build bench records which lot went into each unit, and a recall finds every unit built with a lot.</span>
+          <span className="block text-sm text-stone-600">
+            Receiving asks for the lot on the bag or box, the build bench records which lot went into each unit, and a recall finds every unit built with a lot.
+          </span>
         </span>
       </label>
       <Field label="Supplier" error={errors.supplier?.message}>
@@ -150,7 +199,10 @@ export function PartForm({ part, submitLabel, pending, onSubmit }: Props) {
         <Field label="Customs description" hint="Plain words, e.g. Submersible electric water pump" error={errors.customsDescription?.message}>
           <Input aria-invalid={!!errors.customsDescription} {...form.register('customsDescription')} />
         </Field>
-        <p className="text-sm text-stone-600 md:col-span-3">Net weight is the weight of one unit above; the declared value comes from the order's price. Check HS codes with your customs broker or the tariff of the country of import.</p>
+        <p className="text-sm text-stone-600 md:col-span-3">
+          Net weight is the weight of one unit above; the declared value comes from the order's price. Check HS codes with your customs broker or the tariff of
+          the country of import.
+        </p>
       </fieldset>
       <div className="flex items-end md:col-span-3">
         <Button type="submit" disabled={pending}>

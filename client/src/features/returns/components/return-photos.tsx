@@ -29,7 +29,11 @@ export function ReturnPhotos({ ret }: { ret: Return }) {
         <ul aria-label="Return photos" className="flex flex-wrap gap-3">
           {ret.photos.map((p) => (
             <li key={p.id} className="text-sm text-stone-600">
-              {p.url ? <img src={p.url} alt={`Photo by ${p.by.name}`} className="h-32 w-32 rounded-md border border-stone-300 object-cover" /> : <span>Photo (not reachable now)</span>}
+              {p.url ? (
+                <img src={p.url} alt={`Photo by ${p.by.name}`} className="h-32 w-32 rounded-md border border-stone-300 object-cover" />
+              ) : (
+                <span>Photo (not reachable now)</span>
+              )}
               <span className="block">{p.by.name}</span>
             </li>
           ))}

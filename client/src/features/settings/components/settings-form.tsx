@@ -135,7 +135,15 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
           error={errors.nestingTimeLimitSeconds?.message}
           hint="The planner gets the best plan found in this time, with how far it can be from the best possible; a run can be planned again for longer."
         >
-          <Input type="number" min={0.5} max={120} step={0.5} {...form.register('nestingTimeLimitSeconds', { valueAsNumber: true })} aria-invalid={!!errors.nestingTimeLimitSeconds} className="w-32" />
+          <Input
+            type="number"
+            min={0.5}
+            max={120}
+            step={0.5}
+            {...form.register('nestingTimeLimitSeconds', { valueAsNumber: true })}
+            aria-invalid={!!errors.nestingTimeLimitSeconds}
+            className="w-32"
+          />
         </Field>
       </fieldset>
       <fieldset className="space-y-4">
@@ -145,37 +153,86 @@ export function SettingsForm({ settings }: { settings: ShopSettings }) {
           error={errors.leadTimeDays?.message}
           hint="Monday to Friday after the order is placed. An order that arrives without a ship date is promised from the work ahead of it at each bench and the parts it waits for, and never sooner than this."
         >
-          <Input type="number" min={0} max={250} step={1} {...form.register('leadTimeDays', { valueAsNumber: true })} aria-invalid={!!errors.leadTimeDays} className="w-32" />
+          <Input
+            type="number"
+            min={0}
+            max={250}
+            step={1}
+            {...form.register('leadTimeDays', { valueAsNumber: true })}
+            aria-invalid={!!errors.leadTimeDays}
+            className="w-32"
+          />
         </Field>
         <div className="grid gap-4 sm:grid-cols-2">
           <Field label="Working day starts at (hour, UTC)" error={errors.workdayStartHourUtc?.message}>
-            <Input type="number" min={0} max={23} step={1} {...form.register('workdayStartHourUtc', { valueAsNumber: true })} aria-invalid={!!errors.workdayStartHourUtc} className="w-32" />
+            <Input
+              type="number"
+              min={0}
+              max={23}
+              step={1}
+              {...form.register('workdayStartHourUtc', { valueAsNumber: true })}
+              aria-invalid={!!errors.workdayStartHourUtc}
+              className="w-32"
+            />
           </Field>
           <Field label="Hours in a working day" error={errors.workdayHours?.message}>
-            <Input type="number" min={1} max={24} step={1} {...form.register('workdayHours', { valueAsNumber: true })} aria-invalid={!!errors.workdayHours} className="w-32" />
+            <Input
+              type="number"
+              min={1}
+              max={24}
+              step={1}
+              {...form.register('workdayHours', { valueAsNumber: true })}
+              aria-invalid={!!errors.workdayHours}
+              className="w-32"
+            />
           </Field>
         </div>
         <div className="grid gap-4 sm:grid-cols-3">
           <Field label="Cut bench, minutes per unit" error={errors.cutMinutesPerUnit?.message}>
-            <Input type="number" min={1} max={1440} step={1} {...form.register('cutMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.cutMinutesPerUnit} className="w-32" />
+            <Input
+              type="number"
+              min={1}
+              max={1440}
+              step={1}
+              {...form.register('cutMinutesPerUnit', { valueAsNumber: true })}
+              aria-invalid={!!errors.cutMinutesPerUnit}
+              className="w-32"
+            />
           </Field>
           <Field label="Build bench, minutes per unit" error={errors.buildMinutesPerUnit?.message}>
-            <Input type="number" min={1} max={1440} step={1} {...form.register('buildMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.buildMinutesPerUnit} className="w-32" />
+            <Input
+              type="number"
+              min={1}
+              max={1440}
+              step={1}
+              {...form.register('buildMinutesPerUnit', { valueAsNumber: true })}
+              aria-invalid={!!errors.buildMinutesPerUnit}
+              className="w-32"
+            />
           </Field>
           <Field label="Pack bench, minutes per unit" error={errors.packMinutesPerUnit?.message}>
-            <Input type="number" min={1} max={1440} step={1} {...form.register('packMinutesPerUnit', { valueAsNumber: true })} aria-invalid={!!errors.packMinutesPerUnit} className="w-32" />
+            <Input
+              type="number"
+              min={1}
+              max={1440}
+              step={1}
+              {...form.register('packMinutesPerUnit', { valueAsNumber: true })}
+              aria-invalid={!!errors.packMinutesPerUnit}
+              className="w-32"
+            />
           </Field>
         </div>
         <p className="text-sm text-stone-600">
-          Until a bench has finished at least 5 units in the last 90 days, promises use these minutes; then the cut and build benches use the median of their own
-          history (the pack bench keeps no start time, so its figure is always this one).
+          Until a bench has finished at least 5 units in the last 90 days, promises use these minutes; then the cut and build benches use the median of their
+          own history (the pack bench keeps no start time, so its figure is always this one).
         </p>
         <label className="flex items-start gap-3">
           <input type="checkbox" className="mt-1 size-5 accent-brand-700" {...form.register('autoReleasePaid')} />
           <span>
             <span className="block font-bold">Release paid orders automatically</span>
             <span className="block text-sm text-stone-600">
-              A paid web-store order is released into work orders as it arrives. Short stock does not stop it: the units wait for parts and the shortage is listed. Off: a planner releases each order.
+              A paid web-store order is released into work orders as it arrives. Short stock does not stop it: the units wait for parts and the shortage is
+              listed. Off: a planner releases each order.
             </span>
           </span>
         </label>

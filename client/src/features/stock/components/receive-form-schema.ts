@@ -31,16 +31,30 @@ export function makeReceiveFormSchema(parts: readonly StockPartOption[], parseLe
         const part = byId.get(line.partId)
         let stickLength: number | null = null
         if (part?.kind === 'stock_length') {
-          if (line.stickLength === '') ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: 'Pipe is received by the stick: give the stick length' })
+          if (line.stickLength === '')
+            ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: 'Pipe is received by the stick: give the stick length' })
           else {
             const parsed = parseLength(line.stickLength)
             if (parsed.ok) stickLength = parsed.value
             else ctx.addIssue({ code: 'custom', path: ['lines', i, 'stickLength'], message: parsed.message })
           }
         }
-        if (part?.lotTracked && line.lot === '') ctx.addIssue({ code: 'custom', path: ['lines', i, 'lot'], message: `${part.sku} is tracked by lot: type or scan the supplier's lot on the bag or box` })
+        if (part?.lotTracked && line.lot === '')
+          ctx.addIssue({
+            code: 'custom',
+            path: ['lines', i, 'lot'],
+            message: `${part.sku} is tracked by lot: type or scan the supplier's lot on the bag or box`,
+          })
         const lot = part?.lotTracked ? line.lot : null
-        return { partId: line.partId, quantity: line.quantity, stickLength, lot, reference: form.reference, reason: line.reason || null, closeShort: line.closeShort }
+        return {
+          partId: line.partId,
+          quantity: line.quantity,
+          stickLength,
+          lot,
+          reference: form.reference,
+          reason: line.reason || null,
+          closeShort: line.closeShort,
+        }
       })
       return { lines, purchaseOrderId: form.purchaseOrderId || null }
     })
