@@ -34,7 +34,7 @@ import { insertMoves, lockParts } from '../stock/stock.queries'
 import { reserveStock } from '../stock/stock.service'
 import { shipFromOf } from '../settings/settings.service'
 import type { Carrier, CarrierLabel } from '../shipping/carrier'
-import { withLabelLock, type LabelDeps } from '../shipping/labels.service'
+import { payForLabel, withLabelLock, type LabelDeps } from '../shipping/labels.service'
 import { releaseOrder } from '../work-orders/release.service'
 
 type OpenReturn = z.infer<typeof OpenReturnSchema>
@@ -336,18 +336,18 @@ async function finishPurchase(deps: LabelDeps, ret: ReturnRow, actor: SessionUse
   const key = ret.labelKey!
   const stored = ReturnLabelRequestSchema.parse(ret.labelRequest)
   try {
-    let ref = ret.carrierRef
-    let label: CarrierLabel | null = null
-    if (!ref) {
-      ref = await carrier.prepareLabel(stored.request, key)
-      await deps.db
-        .update(returns)
-        .set({ carrierRef: ref })
-        .where(and(eq(returns.id, ret.id), eq(returns.labelKey, key)))
-    } else if (resuming) {
-      label = await carrier.findLabel(ref)
-    }
-    label ??= await carrier.buyLabel(ref, { carrier: stored.carrier, service: stored.service }, key)
+    const { ref, label } = await payForLabel(carrier, {
+      key,
+      carrierRef: ret.carrierRef,
+      request: stored.request,
+      choice: { carrier: stored.carrier, service: stored.service },
+      resuming,
+      saveRef: (carrierRef) =>
+        deps.db
+          .update(returns)
+          .set({ carrierRef })
+          .where(and(eq(returns.id, ret.id), eq(returns.labelKey, key))),
+    })
     await recordLabel(deps, { ...ret, carrierRef: ref }, label, actor)
   } catch (err) {
     if (err instanceof Conflict) {

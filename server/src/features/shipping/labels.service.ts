@@ -11,7 +11,7 @@ import { Conflict, Forbidden, HttpError, NotFound, Unavailable } from '../../lib
 import { addOrderEvent } from '../orders/orders.service'
 import { lockShipment, nextSsccSerials } from '../pack/pack.queries'
 import { checkShipTo, packView, weighRequest } from '../pack/pack.service'
-import type { Carrier, CarrierLabel, TrackingUpdate } from './carrier'
+import type { Carrier, CarrierLabel, ShipmentRequest, TrackingUpdate } from './carrier'
 
 export type LabelDeps = Pick<Deps, 'db' | 'pool' | 'carrier' | 'logger'>
 
@@ -208,6 +208,36 @@ async function recordLabel(deps: LabelDeps, shipment: ShipmentRow, stored: Label
   })
 }
 
+/** One purchase as recorded before the carrier is called: its key, what is bought, and the carrier's reference once known. */
+export interface LabelPurchase {
+  key: string
+  carrierRef: string | null
+  request: ShipmentRequest
+  choice: { carrier: string; service: string }
+  /** A purchase found in `buying` (a retry, or after a crash): the label may already be paid for. */
+  resuming: boolean
+  /** Keeps the carrier's reference on the purchase before paying, so a retry never registers it twice. */
+  saveRef: (ref: string) => Promise<unknown>
+}
+
+/**
+ * The carrier's side of buying a label exactly once, for outbound and return labels alike: the
+ * shipment registered under the purchase's key (its reference kept before paying), then the label
+ * found (paid before a crash) or paid for with the same key.
+ */
+export async function payForLabel(carrier: Carrier, purchase: LabelPurchase): Promise<{ ref: string; label: CarrierLabel }> {
+  let ref = purchase.carrierRef
+  let label: CarrierLabel | null = null
+  if (!ref) {
+    ref = await carrier.prepareLabel(purchase.request, purchase.key)
+    await purchase.saveRef(ref)
+  } else if (purchase.resuming) {
+    label = await carrier.findLabel(ref)
+  }
+  label ??= await carrier.buyLabel(ref, purchase.choice, purchase.key)
+  return { ref, label }
+}
+
 /**
  * Finishes the purchase a shipment in `buying` stands for: the parcels recorded with the carrier under
  * the purchase's key (the id kept before paying), then the label found (paid before a crash) or paid
@@ -219,18 +249,18 @@ async function finishPurchase(deps: LabelDeps, shipment: ShipmentRow, actor: Ses
   const key = shipment.labelKey!
   const stored = LabelRequestSchema.parse(shipment.labelRequest)
   try {
-    let ref = shipment.carrierRef
-    let label: CarrierLabel | null = null
-    if (!ref) {
-      ref = await carrier.prepareLabel(stored.request, key)
-      await deps.db
-        .update(shipments)
-        .set({ carrierRef: ref })
-        .where(and(eq(shipments.id, shipment.id), eq(shipments.labelKey, key)))
-    } else if (resuming) {
-      label = await carrier.findLabel(ref)
-    }
-    label ??= await carrier.buyLabel(ref, { carrier: stored.carrier, service: stored.service }, key)
+    const { ref, label } = await payForLabel(carrier, {
+      key,
+      carrierRef: shipment.carrierRef,
+      request: stored.request,
+      choice: { carrier: stored.carrier, service: stored.service },
+      resuming,
+      saveRef: (carrierRef) =>
+        deps.db
+          .update(shipments)
+          .set({ carrierRef })
+          .where(and(eq(shipments.id, shipment.id), eq(shipments.labelKey, key))),
+    })
     await recordLabel(deps, { ...shipment, carrierRef: ref }, stored, label, actor)
   } catch (err) {
     if (err instanceof Conflict) {

@@ -1,8 +1,7 @@
 import { useState } from 'react'
 import { toast } from 'sonner'
-import { MAX_PHOTO_BYTES, PHOTO_CONTENT_TYPES } from '@kitwright/shared/build'
-import { cn } from '../../../lib/cn'
 import { useUploadPhoto } from '../api/build-bench-actions'
+import { PhotoProblem, TakePhoto, photoFileProblem } from '../../../components/ui/take-photo'
 
 /**
  * Opens the tablet's rear camera (or a file chooser on a PC) and uploads the photo straight to the
@@ -13,15 +12,9 @@ export function PhotoButton({ code, workOrderId, stepId, label }: { code: string
   const [problem, setProblem] = useState<string | null>(null)
   const onFile = (file: File | undefined) => {
     if (!file) return
-    setProblem(null)
-    if (!(PHOTO_CONTENT_TYPES as readonly string[]).includes(file.type)) {
-      setProblem(`This is a ${file.type || 'file of unknown type'}; photos must be JPEG, PNG or WebP. Set the camera to JPEG.`)
-      return
-    }
-    if (file.size > MAX_PHOTO_BYTES) {
-      setProblem(`The photo is ${(file.size / 1024 / 1024).toFixed(1)} MB, over the 10 MB limit; take it at a lower resolution.`)
-      return
-    }
+    const refused = photoFileProblem(file)
+    setProblem(refused)
+    if (refused) return
     upload.mutate(
       { workOrderId, stepId, file, what: label },
       {
@@ -34,31 +27,8 @@ export function PhotoButton({ code, workOrderId, stepId, label }: { code: string
   }
   return (
     <div className="space-y-2">
-      <label
-        className={cn(
-          'inline-flex h-14 min-w-14 cursor-pointer items-center justify-center gap-2 rounded-md border-2 border-brand-700 bg-white px-6 text-lg font-bold text-brand-900 focus-within:outline-3 focus-within:outline-brand-600',
-          upload.isPending && 'cursor-wait opacity-60',
-        )}
-      >
-        {upload.isPending ? 'Uploading…' : 'Take photo'}
-        <input
-          type="file"
-          accept="image/*"
-          capture="environment"
-          aria-label={label}
-          className="sr-only"
-          disabled={upload.isPending}
-          onChange={(e) => {
-            onFile(e.target.files?.[0])
-            e.target.value = ''
-          }}
-        />
-      </label>
-      {problem && (
-        <p role="alert" className="rounded-md border-2 border-red-600 bg-red-50 p-3 text-lg text-red-800">
-          {problem}
-        </p>
-      )}
+      <TakePhoto label={label} pending={upload.isPending} onFile={onFile} />
+      <PhotoProblem problem={problem} />
     </div>
   )
 }
