@@ -179,14 +179,15 @@ const PartRefSchema = z.object({
   sku: z.string(),
   name: z.string(),
   kind: z.enum(['stock_length', 'hardware', 'packaging']),
-  unitCostCents: z.number().int(),
+  /** Null for a bench role (see `seesCosts` in roles.ts). */
+  unitCostCents: z.number().int().nullable(),
   weightGrams: z.number().int(),
 })
 
 /** Cost, shipping weight and pipe use of one unit built to a revision. */
 export const RevisionRollupSchema = z.object({
-  /** Hardware and packaging at unit cost, plus pipe prorated by length over its shortest stick. */
-  costCents: z.number().int(),
+  /** Hardware and packaging at unit cost, plus pipe prorated by length over its shortest stick; null for a bench role. */
+  costCents: z.number().int().nullable(),
   /** Parts and packaging, plus pipe prorated by length. */
   weightGrams: z.number().int(),
   /** Sum of cut lengths × quantities. */

@@ -101,7 +101,7 @@ export function partToCsvRecord(part: Part, unit: LengthUnit): Record<PartCsvCol
     name: part.name,
     kind: part.kind,
     unit_of_measure: part.unitOfMeasure,
-    unit_cost: (part.unitCostCents / 100).toFixed(2),
+    unit_cost: part.unitCostCents === null ? '' : (part.unitCostCents / 100).toFixed(2),
     weight_g: String(part.weightGrams),
     electrical: part.electrical ? 'yes' : 'no',
     lot_tracked: part.lotTracked ? 'yes' : 'no',

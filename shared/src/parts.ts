@@ -89,7 +89,8 @@ export const PartSchema = z.object({
   name: z.string(),
   kind: PartKindSchema,
   unitOfMeasure: z.string(),
-  unitCostCents: z.number().int(),
+  /** What the shop pays for one; null for a bench role (see `seesCosts` in roles.ts). */
+  unitCostCents: z.number().int().nullable(),
   weightGrams: z.number().int(),
   /** Runs on mains power: the care sheet of a box holding it carries the electrical cautions. */
   electrical: z.boolean(),

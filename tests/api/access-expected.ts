@@ -13,7 +13,7 @@ import { ROLES, type Role } from '@kitwright/shared/roles'
  * - planner (the office): catalog, orders, release, shortages, cut-run planning, purchasing,
  *   outbox, reports, small parts' unit weights (weighing counted samples); covers any bench when someone is out.
  * - cutter: the cut bench (published runs, ticks, damaged sticks, offcut labels, dropping pieces
- *   into bins and printing bin labels); reads the catalog, stock and settings.
+ *   into bins and printing bin labels); reads the catalog (without part costs, which are the office's), stock and settings.
  * - assembler: the build bench (steps, photos, leak test, the lot of each lot-tracked part) and a unit's build record; reads as above.
  * - packer: the pack bench (verify, weigh hardware bags, quote, label, ship, void its own label, papers, customs) and a
  *   unit's build record; shipping an order short is the office's call, not the packer's. Returns

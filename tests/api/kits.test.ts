@@ -61,7 +61,7 @@ describe('demo catalog', () => {
 
   it('rolls up cost, weight and pipe per unit from the parts (hand check on revision A)', async () => {
     const rev = await revision(kit('MW-TOTE-12').revisions[0]!.id)
-    const hardwareCost = rev.bomLines.reduce((s, l) => s + l.part.unitCostCents * l.quantity, 0)
+    const hardwareCost = rev.bomLines.reduce((s, l) => s + l.part.unitCostCents! * l.quantity, 0)
     const pieces = rev.cutParts.reduce((s, c) => s + c.quantity, 0)
     const cut = rev.cutParts.reduce((s, c) => s + c.length * c.quantity, 0)
     // Kerf 1/8 in per cut (demo shop setting); pipe 348 ¢ and 730 g per 10 ft (120 in) stick (demo part).
@@ -204,7 +204,16 @@ describe('revisions', () => {
   it('lets a cutter read kits and revisions but not change them', async () => {
     const k = kit('MW-TOTE-12')
     expect((await cutter.get('/api/kits')).status).toBe(200)
-    expect((await cutter.get(`/api/revisions/${k.revisions[0]!.id}`)).status).toBe(200)
+    const seen = await cutter.get(`/api/revisions/${k.revisions[0]!.id}`)
+    expect(seen.status).toBe(200)
+    // The bench reads the steps and the parts but not what they cost: those are the office's.
+    const benchCopy = RevisionDetailSchema.parse(seen.body)
+    expect(benchCopy.buildSteps.length).toBeGreaterThan(0)
+    expect(benchCopy.rollup.costCents).toBeNull()
+    expect([...benchCopy.bomLines, ...benchCopy.cutParts].map((l) => l.part.unitCostCents)).toEqual(
+      [...benchCopy.bomLines, ...benchCopy.cutParts].map(() => null),
+    )
+    expect((await revision(k.revisions[0]!.id)).rollup.costCents).toBeGreaterThan(0)
     expect((await cutter.post('/api/kits').send({ sku: 'X-1', name: 'X' })).status).toBe(403)
     expect((await cutter.post(`/api/revisions/${k.revisions[0]!.id}/retire`).send({})).status).toBe(403)
   })

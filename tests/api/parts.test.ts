@@ -116,7 +116,7 @@ describe('parts: the list', () => {
     expect(first).toMatchObject({ total: 27, page: 1, pageSize: 10 })
     expect(first.items).toHaveLength(10)
     const costs = first.items.map((p) => p.unitCostCents)
-    expect(costs).toEqual([...costs].sort((a, b) => b - a))
+    expect(costs).toEqual([...costs].sort((a, b) => b! - a!))
     const third = PartsPageSchema.parse((await agent.get('/api/parts?pageSize=10&page=3&sort=unitCost&dir=desc')).body)
     expect(third.items).toHaveLength(7)
     const all = [...first.items, ...PartsPageSchema.parse((await agent.get('/api/parts?pageSize=10&page=2&sort=unitCost&dir=desc')).body).items, ...third.items]
@@ -255,12 +255,26 @@ describe('parts: CSV import and export', () => {
 })
 
 describe('parts: who may do what', () => {
-  it('lets every signed-in bench read parts but not change them', async () => {
+  it('lets every signed-in bench read parts, without their costs, but not change them', async () => {
     const { agent: planner } = await signedInAs(app, t, 'planner')
     const pipe = PartSchema.parse((await planner.post('/api/parts').send(PIPE)).body)
+    expect(pipe.unitCostCents).toBe(PIPE.unitCostCents)
     const { agent: cutter } = await signedInAs(app, t, 'cutter')
-    expect(PartsPageSchema.parse((await cutter.get('/api/parts')).body).total).toBe(1)
-    expect((await cutter.get(`/api/parts/${pipe.id}`)).status).toBe(200)
+    const page = PartsPageSchema.parse((await cutter.get('/api/parts')).body)
+    expect(page.total).toBe(1)
+    // What the shop pays is the office's business: the bench gets the part with its cost blank.
+    expect(page.items[0]).toMatchObject({ sku: PIPE.sku, shelfLocation: pipe.shelfLocation, unitCostCents: null })
+    const one = await cutter.get(`/api/parts/${pipe.id}`)
+    expect(one.status).toBe(200)
+    expect(PartSchema.parse(one.body).unitCostCents).toBeNull()
+    const sortByCost = await cutter.get('/api/parts?sort=unitCost')
+    expect(sortByCost.status).toBe(400)
+    expect(ApiErrorBodySchema.parse(sortByCost.body).error.message).toBe('Unit costs are shown to the office only: sort by another column')
+    const benchCsv = (await cutter.get('/api/parts/export.csv')).text
+    const officeCsv = (await planner.get('/api/parts/export.csv')).text
+    expect(officeCsv).toContain('3.48')
+    expect(benchCsv).not.toContain('3.48')
+    expect(benchCsv.split('\n')[0]).toBe(officeCsv.split('\n')[0])
     expect((await cutter.post('/api/parts').send(ELBOW)).status).toBe(403)
     expect((await cutter.patch(`/api/parts/${pipe.id}`).send({ name: 'x' })).status).toBe(403)
     expect((await cutter.post('/api/parts/import').send({ csv: HEADER })).status).toBe(403)

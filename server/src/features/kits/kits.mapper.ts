@@ -75,3 +75,13 @@ export function toRevisionDetail(tree: Tree, kerf: number): RevisionDetail {
     updatedAt: tree.updatedAt.toISOString(),
   }
 }
+
+/** A revision as a bench role sees it: parts and roll-ups without what they cost (see `seesCosts`). */
+export function revisionWithoutCosts(rev: RevisionDetail): RevisionDetail {
+  return {
+    ...rev,
+    bomLines: rev.bomLines.map((l) => ({ ...l, part: { ...l.part, unitCostCents: null } })),
+    cutParts: rev.cutParts.map((c) => ({ ...c, part: { ...c.part, unitCostCents: null } })),
+    rollup: { ...rev.rollup, costCents: null },
+  }
+}

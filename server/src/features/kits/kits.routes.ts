@@ -1,11 +1,13 @@
 import { z } from 'zod'
 import { formatMoney } from '@kitwright/shared/money'
 import { CreateKitSchema, NewRevisionSchema, RevisionContentSchema, UpdateKitPriceSchema } from '@kitwright/shared/kits'
+import { seesCosts } from '@kitwright/shared/roles'
 import { IdParamsSchema } from '@kitwright/shared/users'
 import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
 import { currentUser } from '../../lib/auth'
 import type { RouteTable } from '../../lib/routes'
+import { revisionWithoutCosts } from './kits.mapper'
 import { createKit, getKit, setKitPrice, getRevision, listKits, newRevision, releaseRevision, retireRevision, saveRevision } from './kits.service'
 
 const catalogEditors = ['admin', 'planner'] as const
@@ -47,8 +49,10 @@ export function kitsRouter(deps: Deps, routes: RouteTable) {
 
 export function revisionsRouter(deps: Deps, routes: RouteTable) {
   const r = routes.router('/api/revisions')
+  // Every bench reads a revision (steps, contents); its costs are the office's.
   r.get('/:id', 'signed-in', async (req, res) => {
-    res.json(await getRevision(deps.db, IdParamsSchema.parse(req.params).id))
+    const rev = await getRevision(deps.db, IdParamsSchema.parse(req.params).id)
+    res.json(seesCosts(currentUser(req).role) ? rev : revisionWithoutCosts(rev))
   })
   r.put('/:id', catalogEditors, async (req, res) => {
     const { id } = IdParamsSchema.parse(req.params)

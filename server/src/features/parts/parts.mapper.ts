@@ -29,8 +29,14 @@ export function toPart(row: PartRow): Part {
   }
 }
 
+/** A part as a bench role sees it: no cost (see `seesCosts`). */
+export function withoutCost(part: Part): Part {
+  return { ...part, unitCostCents: null }
+}
+
 /** The editable fields of a stored part, to apply a change to and check the result as a whole. */
 export function toPartInput(part: Part): PartInput {
-  const { id: _id, active: _active, createdAt: _c, updatedAt: _u, ...input } = part
-  return input
+  const { id: _id, active: _active, createdAt: _c, updatedAt: _u, unitCostCents, ...input } = part
+  // A part read from the database always has its cost; only a bench role's copy is blanked.
+  return { ...input, unitCostCents: unitCostCents ?? 0 }
 }

@@ -4,7 +4,7 @@ import { partFromCsvRecord, partToCsvRecord, type PartCsvError, type PartImportP
 import type { Db, Tx } from '../../db/client'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { readPartsCsv, writePartsCsv } from './parts.csv'
-import { toPart, toPartInput } from './parts.mapper'
+import { toPart, toPartInput, withoutCost } from './parts.mapper'
 import {
   insertPart,
   selectAllParts,
@@ -131,7 +131,8 @@ export async function importParts(db: Db, csv: string): Promise<PartImportResult
   })
 }
 
-export async function exportPartsCsv(db: Db): Promise<string> {
+/** Every part as CSV; with `costs: false` (a bench role) the unit cost column is left blank. */
+export async function exportPartsCsv(db: Db, { costs }: { costs: boolean }): Promise<string> {
   const [rows, unit] = await Promise.all([selectAllParts(db), selectShopLengthUnit(db)])
-  return writePartsCsv(rows.map(toPart), unit)
+  return writePartsCsv(rows.map(toPart).map((p) => (costs ? p : withoutCost(p))), unit)
 }

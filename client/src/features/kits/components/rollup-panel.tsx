@@ -9,7 +9,7 @@ export function RollupPanel({ rollup, stale }: { rollup: RevisionRollup; stale: 
   const { unit, format } = useLengthUnit()
   const weight = unit === 'in' ? `${(rollup.weightGrams / GRAMS_PER_POUND).toFixed(1)} lb` : `${(rollup.weightGrams / 1000).toFixed(2)} kg`
   const items: [string, string][] = [
-    ['Cost per unit', `$${(rollup.costCents / 100).toFixed(2)}`],
+    ['Cost per unit', rollup.costCents === null ? '—' : `$${(rollup.costCents / 100).toFixed(2)}`],
     ['Shipping weight', weight],
     ['Pipe cut per unit', format(rollup.cutLength)],
     ['Pipe used with kerf', format(rollup.stickLengthUsed)],

@@ -41,6 +41,7 @@ function toValues(part: Part): Values {
   const { id: _id, active: _a, createdAt: _c, updatedAt: _u, ...input } = part
   return {
     ...input,
+    unitCostCents: input.unitCostCents ?? 0,
     supplier: input.supplier ?? '',
     shelfLocation: input.shelfLocation ?? '',
     nominalSize: input.nominalSize ?? '',
