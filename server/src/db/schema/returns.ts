@@ -1,6 +1,6 @@
 import { relations, sql } from 'drizzle-orm'
 import { check, index, integer, jsonb, pgEnum, pgSequence, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
-import { RETURN_DECISIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from '@kitwright/shared/returns-status'
+import { RETURN_DECISIONS, RETURN_DISPOSITIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from '@kitwright/shared/returns-status'
 import { reworkEntries } from './build'
 import { createdAt, id } from './columns'
 import { orders, workOrders } from './orders'
@@ -9,6 +9,7 @@ import { users } from './users'
 export const returnStatusEnum = pgEnum('return_status', RETURN_STATUSES)
 export const returnDecisionEnum = pgEnum('return_decision', RETURN_DECISIONS)
 export const returnLabelStatusEnum = pgEnum('return_label_status', RETURN_LABEL_STATUSES)
+export const returnDispositionEnum = pgEnum('return_disposition', RETURN_DISPOSITIONS)
 
 /** Return numbers, shop-wide and never reused (`R-1001`). */
 export const returnNumberSeq = pgSequence('return_number_seq', { startWith: 1001 })
@@ -72,6 +73,14 @@ export const returns = pgTable(
     replacementWorkOrderId: uuid().references(() => workOrders.id),
     /** Refund: what the store paid back, in the order's currency (cents). */
     refundCents: integer(),
+    /**
+     * Replace or refund: what became of the returned unit, recorded once by the office (back to stock
+     * as a spare, or scrapped with a reason in the note).
+     */
+    disposition: returnDispositionEnum(),
+    dispositionNote: text(),
+    disposedAt: timestamp({ withTimezone: true }),
+    disposedBy: uuid().references(() => users.id),
     createdAt: createdAt(),
   },
   (t) => [
@@ -84,6 +93,10 @@ export const returns = pgTable(
     check('returns_bought_has_tracking', sql`${t.labelStatus}::text <> 'bought' or ${t.trackingNumber} is not null`),
     check('returns_decided_has_decision', sql`${t.status}::text in ('awaiting_parcel', 'received') = (${t.decision} is null)`),
     check('returns_refund_not_negative', sql`${t.refundCents} is null or ${t.refundCents} >= 0`),
+    // Only a unit the customer no longer gets back (replaced or refunded) is disposed of; a scrap says why.
+    check('returns_disposition_after_replace_or_refund', sql`${t.disposition} is null or ${t.status}::text in ('replace', 'refund')`),
+    check('returns_disposition_complete', sql`(${t.disposition} is null) = (${t.disposedAt} is null) and (${t.disposition} is null) = (${t.disposedBy} is null)`),
+    check('returns_scrap_has_reason', sql`${t.disposition}::text is distinct from 'scrapped' or ${t.dispositionNote} is not null`),
   ],
 )
 export type ReturnRow = typeof returns.$inferSelect
