@@ -1,6 +1,6 @@
 import { z } from 'zod'
 import { PHOTO_CONTENT_TYPES, MAX_PHOTO_BYTES } from './build'
-import { RETURN_DECISIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
+import { RETURN_DECISIONS, RETURN_DISPOSITIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
 
 const uuid = z.string().uuid('Not a valid id')
 /** No control characters: nothing a label or keyboard makes. */
@@ -14,6 +14,10 @@ export type ReturnStatus = z.infer<typeof ReturnStatusSchema>
 export const ReturnDecisionSchema = z.enum(RETURN_DECISIONS)
 /** What the shop decided. */
 export type ReturnDecision = z.infer<typeof ReturnDecisionSchema>
+/** What became of a replaced or refunded unit. */
+export const ReturnDispositionSchema = z.enum(RETURN_DISPOSITIONS)
+/** What became of a replaced or refunded unit. */
+export type ReturnDisposition = z.infer<typeof ReturnDispositionSchema>
 /** Where the return label is. */
 export const ReturnLabelStatusSchema = z.enum(RETURN_LABEL_STATUSES)
 
@@ -117,6 +121,32 @@ export const DecideReturnSchema = z.discriminatedUnion(
 /** The decision on a received return (as typed). */
 export type DecideReturnInput = z.input<typeof DecideReturnSchema>
 
+/**
+ * What becomes of a unit that came back and was replaced or refunded: back to stock as a spare (an
+ * optional note: which shelf, what it lacks) or scrapped (the reason is required). Recorded once; the
+ * same request again changes nothing.
+ */
+export const DisposeReturnSchema = z.discriminatedUnion(
+  'disposition',
+  [
+    z.object({ disposition: z.literal('spare'), note: decisionNote }).strict(),
+    z
+      .object({
+        disposition: z.literal('scrapped'),
+        note: z
+          .string({ error: 'Say why the unit is scrapped' })
+          .trim()
+          .min(3, 'Say why the unit is scrapped (e.g. "tote cracked through, not worth a repair")')
+          .max(1000, 'Use at most 1000 characters')
+          .regex(PRINTABLE, 'Use letters, digits and punctuation only'),
+      })
+      .strict(),
+  ],
+  { error: 'Choose back to stock as a spare, or scrapped' },
+)
+/** What becomes of the returned unit (as typed). */
+export type DisposeReturnInput = z.input<typeof DisposeReturnSchema>
+
 /** Ask for a presigned upload of one photo of a returned unit. */
 export const PresignReturnPhotoSchema = z
   .object({
@@ -192,6 +222,8 @@ export const ReturnSchema = z.object({
       refundCents: z.number().int().nullable(),
     })
     .nullable(),
+  /** Replace or refund: what became of the returned unit, once recorded. */
+  disposition: z.object({ kind: ReturnDispositionSchema, note: z.string().nullable(), at: z.string(), by: person }).nullable(),
   photos: z.array(z.object({ id: uuid, key: z.string(), url: z.string().nullable(), by: person, at: z.string() })),
   /** The unit's build steps, for choosing which to reopen on a repair. */
   steps: z.array(z.object({ id: uuid, position: z.number().int(), text: z.string() })),
@@ -247,6 +279,10 @@ export const UnitReturnSchema = z.object({
   decisionNote: z.string().nullable(),
   replacementSerial: z.string().nullable(),
   refundCents: z.number().int().nullable(),
+  /** What became of the unit after a replace or refund: back to stock as a spare, or scrapped. */
+  disposition: ReturnDispositionSchema.nullable(),
+  dispositionNote: z.string().nullable(),
+  disposedAt: z.string().nullable(),
 })
 /** A return of the unit, in its build record. */
 export type UnitReturn = z.infer<typeof UnitReturnSchema>

@@ -1,7 +1,7 @@
 import { z } from 'zod'
 
 /** The kinds of code Kitwright prints or knows. */
-export const SCAN_KINDS = ['bin', 'work_order', 'order', 'offcut', 'part'] as const
+export const SCAN_KINDS = ['bin', 'work_order', 'order', 'offcut', 'part', 'return'] as const
 
 /** Where a scanned thing should go next. */
 export const NEXT_PLACES = ['cut', 'build', 'pack', 'office', 'stock', 'done'] as const
@@ -18,6 +18,8 @@ export const ScanResultSchema = z.object({
   workOrderSerial: z.string().nullable(),
   orderId: z.string().uuid().nullable(),
   partId: z.string().uuid().nullable(),
+  /** A return (its label's tracking number or its number scanned), for those who may open returns. */
+  returnId: z.string().uuid().nullable(),
 })
 /** What a scanned code is, and where it should go next. */
 export type ScanResult = z.infer<typeof ScanResultSchema>

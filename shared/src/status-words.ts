@@ -3,7 +3,7 @@ import type { BIN_STATUSES, CUT_RUN_STATUSES, CUT_STICK_STATUSES } from './cut-r
 import type { REVISION_STATUSES } from './kits'
 import type { MAIL_STATUSES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
 import type { OFFCUT_STATUSES } from './stock'
-import type { RETURN_DECISIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
+import type { RETURN_DECISIONS, RETURN_DISPOSITIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
 
 /**
  * The one word for each state, on every screen, CSV file and e-mail. A state that an order's stage
@@ -123,6 +123,12 @@ export const RETURN_DECISION_LABELS: Record<(typeof RETURN_DECISIONS)[number], s
   repair: 'Repair',
   replace: 'Replace',
   refund: 'Refund noted',
+}
+
+/** What became of a replaced or refunded unit, as the buttons and the build record say it. */
+export const RETURN_DISPOSITION_LABELS: Record<(typeof RETURN_DISPOSITIONS)[number], string> = {
+  spare: 'Back to stock as a spare',
+  scrapped: 'Scrapped',
 }
 
 /** Where a return label is, in words. */

@@ -19,7 +19,8 @@ import { ROLES, type Role } from '@kitwright/shared/roles'
  *   unit's build record; shipping an order short is the office's call, not the packer's. Returns
  *   come back to the pack bench: the packer reads them, receives the parcel and photographs what came
  *   back; opening a return, buying its label (money) and deciding repair, replace or refund are the
- *   office's; the list of return reasons is a shop setting, the owner's.
+ *   office's, and so is recording what becomes of a replaced or refunded unit (spare or scrapped); the
+ *   list of return reasons is a shop setting, the owner's.
  *
  * Every route Express has needs a line here; a new route without one fails tests/api/access.test.ts
  * until someone decides, route by route, who should call it. `y` = let through, `-` = refused
@@ -182,6 +183,7 @@ get    /api/returns/:returnId/label.pdf                        -          y     
 post   /api/returns/:returnId/photos/presign                   -          y     y       -      -         y
 post   /api/returns/:returnId/photos/confirm                   -          y     y       -      -         y
 post   /api/returns/:returnId/decision                         -          y     y       -      -         -
+post   /api/returns/:returnId/disposition                      -          y     y       -      -         -
 
 get    /api/unit-weights                                       -          y     y       -      -         y
 get    /api/unit-weights/:partId                               -          y     y       -      -         -

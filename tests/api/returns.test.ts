@@ -6,6 +6,7 @@ import { PackViewSchema } from '@kitwright/shared/pack'
 import { DEFAULT_RETURN_REASONS } from '@kitwright/shared/returns-status'
 import { ReturnLookupSchema, ReturnReasonsSchema, ReturnSchema, ReturnSummarySchema, UnitReturnsSchema, type Return } from '@kitwright/shared/returns'
 import {
+  auditEvents,
   buildSteps,
   buildStepTicks,
   orderEvents,
@@ -239,6 +240,10 @@ describe('a return through repair and retest', () => {
 
     const after = returnView(await planner.get(`/api/returns/${opened.id}`))
     expect(after.decision?.repaired).toBe(true)
+    // A repaired unit goes back to the customer: there is nothing to dispose of.
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'spare' }), 409).message).toBe(
+      `Unit ${wo.serial} of return ${opened.number} was sent for repair and goes back to the customer; there is nothing to dispose of`,
+    )
 
     // Back to the customer through the pack bench: the order was open again for this unit, and is shipped again.
     await packAndShip(order.id)
@@ -291,6 +296,44 @@ describe('a return through replace', () => {
     expect(
       error(await planner.post(`/api/returns/${opened.id}/decision`).send({ decision: 'refund', amountCents: 100, note: 'changed our minds' }), 409).message,
     ).toBe(`Return ${opened.number} is already decided (Replacement made)`)
+
+    // What becomes of the returned unit: the office's call, as the decision is.
+    const shipped = (
+      await t.db
+        .select({ partId: stockMoves.partId })
+        .from(stockMoves)
+        .where(and(eq(stockMoves.workOrderId, wo.id), eq(stockMoves.kind, 'ship')))
+    ).map((m) => m.partId)
+    const shelf = await onHand([...new Set(shipped)])
+    const spare = { disposition: 'spare', note: 'Spares shelf S1; tote scuffed' }
+    for (const agent of [cutter, assembler, packer]) expect((await agent.post(`/api/returns/${opened.id}/disposition`).send(spare)).status).toBe(403)
+    // A double tap: two requests at once record one disposition, one timeline entry and one audit entry.
+    const [first, second] = await Promise.all([1, 2].map(() => planner.post(`/api/returns/${opened.id}/disposition`).send(spare)))
+    for (const res of [first!, second!])
+      expect(returnView(res).disposition).toMatchObject({ kind: 'spare', note: 'Spares shelf S1; tote scuffed', by: { name: expect.any(String) } })
+    const disposedEvents = await t.db
+      .select()
+      .from(orderEvents)
+      .where(and(eq(orderEvents.orderId, order.id), eq(orderEvents.kind, 'return_unit_disposed')))
+    expect(disposedEvents.map((e) => e.message)).toEqual([
+      `Return ${opened.number}: unit ${wo.serial} back to stock as a spare (kept whole on the spares shelf under its serial): Spares shelf S1; tote scuffed`,
+    ])
+    const audits = await t.db
+      .select()
+      .from(auditEvents)
+      .where(and(eq(auditEvents.action, 'return.dispose'), eq(auditEvents.entityId, opened.id)))
+    expect(audits).toHaveLength(1)
+    // Once recorded, a different disposition is refused and changes nothing.
+    const changed = error(await admin.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped', note: 'Changed our minds' }), 409)
+    expect(changed.message).toMatch(new RegExp(`^Unit ${wo.serial} of return ${opened.number} is already recorded as back to stock as a spare \\(.+ UTC\\); it is recorded once$`))
+    const [row] = await t.db.select().from(returns).where(eq(returns.id, opened.id))
+    expect(row).toMatchObject({ disposition: 'spare', dispositionNote: 'Spares shelf S1; tote scuffed' })
+    // The stock ledger counts parts, not finished units: keeping the unit as a spare moves no stock.
+    expect(await onHand([...new Set(shipped)])).toEqual(shelf)
+    // The build record's history says what became of the unit.
+    const history = ok(await assembler.get(`/api/returns/units/${wo.serial}`), 200, UnitReturnsSchema)
+    expect(history.returns).toMatchObject([{ number: opened.number, status: 'replace', disposition: 'spare', dispositionNote: 'Spares shelf S1; tote scuffed' }])
+    expect(history.returns[0]!.disposedAt).not.toBeNull()
   })
 
   it('notes a refund with its amount and note; the money moves in the store', async () => {
@@ -301,6 +344,28 @@ describe('a return through replace', () => {
       await planner.post(`/api/returns/${opened.id}/decision`).send({ decision: 'refund', amountCents: 0, note: 'Refunded in the store, ref 5521' }),
     )
     expect(decided).toMatchObject({ status: 'refund', decision: { kind: 'refund', refundCents: 0, note: 'Refunded in the store, ref 5521' } })
+
+    // Scrapped needs a reason; a bad choice is refused with what to fix, and nothing is written.
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped' }), 400).fields).toEqual({
+      note: 'Say why the unit is scrapped',
+    })
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped', note: ' ' }), 400).fields).toEqual({
+      note: 'Say why the unit is scrapped (e.g. "tote cracked through, not worth a repair")',
+    })
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'melt' }), 400).message).toBeTruthy()
+    expect((await t.db.select().from(returns).where(eq(returns.id, opened.id)))[0]).toMatchObject({ disposition: null, disposedAt: null })
+    const scrapped = returnView(
+      await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped', note: 'Pump housing cracked, not worth a repair' }),
+    )
+    expect(scrapped.disposition).toMatchObject({ kind: 'scrapped', note: 'Pump housing cracked, not worth a repair' })
+    // A retry of the same request answers the same and records nothing more.
+    const retried = returnView(
+      await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped', note: 'Pump housing cracked, not worth a repair' }),
+    )
+    expect(retried.disposition).toEqual(scrapped.disposition)
+    expect(
+      await t.db.$count(auditEvents, and(eq(auditEvents.action, 'return.dispose'), eq(auditEvents.entityId, opened.id))),
+    ).toBe(1)
   })
 })
 
@@ -383,7 +448,19 @@ describe('bad input', () => {
     expect(error(await open(planner, wo.serial), 409).message).toBe(
       `Unit ${wo.serial} already has return ${opened.number} (Waiting for the parcel); open that one`,
     )
+    // No disposition of a unit not yet back, nor of one not yet decided.
+    const beforeDisposal = await counts()
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'spare' }), 409).message).toBe(
+      `Unit ${wo.serial} of return ${opened.number} has not been received yet: the pack bench scans the parcel in first, then the office decides`,
+    )
     returnView(await packer.post('/api/returns/receive').send({ code: wo.serial }))
+    expect(error(await planner.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'spare' }), 409).message).toBe(
+      `Return ${opened.number} is not decided yet: decide replace or refund first, then what becomes of unit ${wo.serial}`,
+    )
+    expect(error(await planner.post('/api/returns/00000000-0000-4000-8000-000000000000/disposition').send({ disposition: 'spare' }), 404).message).toBe(
+      'No such return',
+    )
+    expect((await counts()).events).toBe(beforeDisposal.events + 1) // the receiving only
     const mid = await counts()
     expect(error(await planner.post(`/api/returns/${opened.id}/decision`).send({ decision: 'refund', amountCents: -5, note: 'x' }), 400).fields).toMatchObject({
       amountCents: 'The amount cannot be negative',

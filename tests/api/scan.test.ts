@@ -2,7 +2,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import { ScanResultSchema } from '@kitwright/shared/scan'
-import { orders, parts } from '../../server/src/db/schema/index'
+import { randomUUID } from 'node:crypto'
+import { ReturnSchema } from '@kitwright/shared/returns'
+import { orders, parts, returns, users } from '../../server/src/db/schema/index'
 import { seedDemo } from '../../server/src/seeds/demo'
 import { DEMO_PART_SKUS } from '../../server/src/seeds/catalog'
 import { buildApp, signedInAs } from '../support/app'
@@ -12,6 +14,7 @@ import { createTestDb, type TestDb } from '../support/test-db'
 
 let t: TestDb
 let cutter: Awaited<ReturnType<typeof signedInAs>>['agent']
+let packer: Awaited<ReturnType<typeof signedInAs>>['agent']
 let tote: Awaited<ReturnType<typeof insertBuildRevision>>
 
 beforeAll(async () => {
@@ -20,11 +23,12 @@ beforeAll(async () => {
   await seedDemo(t.db)
   tote = await insertBuildRevision(t.db)
   cutter = (await signedInAs(app, t, 'cutter')).agent
+  packer = (await signedInAs(app, t, 'packer')).agent
 })
 afterAll(() => t.drop())
 
-async function scan(code: string) {
-  const res = await cutter.get(`/api/scan/${encodeURIComponent(code)}`)
+async function scan(code: string, agent = cutter) {
+  const res = await agent.get(`/api/scan/${encodeURIComponent(code)}`)
   expect(res.status).toBe(200)
   return ScanResultSchema.parse(res.body)
 }
@@ -83,6 +87,67 @@ describe('GET /api/scan/:code resolves every kind of Kitwright code', () => {
   it('an unknown code: 404 with a message that says what to do', async () => {
     const res = await cutter.get('/api/scan/NOT-A-CODE-42')
     expect(res.status).toBe(404)
-    expect(ApiErrorBodySchema.parse(res.body).error.message).toMatch(/No bin, unit, order, offcut or part has the code "NOT-A-CODE-42"/)
+    expect(ApiErrorBodySchema.parse(res.body).error.message).toMatch(/No bin, unit, order, offcut, part or return has the code "NOT-A-CODE-42"/)
+  })
+})
+
+describe('GET /api/scan/:code finds a return by its label or its number', () => {
+  /** A shipped unit with a return whose label was bought (as the carrier leaves it: tracking number, key). */
+  async function returnWithLabel() {
+    const wo = await insertBuildWorkOrder(t.db, tote.revision.id, tote.kit.id, 'shipped')
+    const [office] = await t.db.select().from(users).limit(1)
+    const tag = randomUUID().slice(0, 8).toUpperCase()
+    const [ret] = await t.db
+      .insert(returns)
+      .values({
+        number: `R-S${tag}`,
+        workOrderId: wo.id,
+        orderId: wo.orderId,
+        reason: 'Leaks',
+        openedBy: office!.id,
+        labelStatus: 'bought',
+        labelKey: randomUUID(),
+        trackingNumber: `BP9${tag}`,
+      })
+      .returning()
+    return { wo, ret: ret! }
+  }
+
+  it('the packer scanning the return label anywhere gets the return to open; after receiving, it waits for the office', async () => {
+    const { wo, ret } = await returnWithLabel()
+    const byLabel = await scan(ret.trackingNumber!.toLowerCase(), packer)
+    expect(byLabel).toMatchObject({
+      kind: 'return',
+      code: ret.number,
+      status: 'awaiting_parcel',
+      returnId: ret.id,
+      orderId: wo.orderId,
+      workOrderSerial: wo.serial,
+      next: { place: 'pack' },
+    })
+    expect(byLabel.title).toBe(`Return ${ret.number} of unit ${wo.serial} (${tote.kit.name}): Leaks`)
+    // The return's own number finds it too, and the pack bench receives the parcel by it.
+    expect(await scan(ret.number.toLowerCase(), packer)).toMatchObject({ kind: 'return', returnId: ret.id })
+    const received = await packer.post('/api/returns/receive').send({ code: ret.number })
+    expect(received.status, JSON.stringify(received.body)).toBe(200)
+    expect(ReturnSchema.parse(received.body)).toMatchObject({ id: ret.id, status: 'received', received: { code: ret.number } })
+    expect(await scan(ret.trackingNumber!, packer)).toMatchObject({ kind: 'return', status: 'received', next: { place: 'office' } })
+  })
+
+  it('tells a bench that does not open returns to take the parcel to the pack bench, without the ids to open it', async () => {
+    const { wo, ret } = await returnWithLabel()
+    const result = await scan(ret.trackingNumber!)
+    expect(result).toMatchObject({
+      kind: 'return',
+      code: ret.number,
+      returnId: null,
+      orderId: null,
+      workOrderSerial: wo.serial,
+      next: { place: 'pack', message: "A customer's parcel coming back: take it to the pack bench to be received" },
+    })
+    // The reason the customer gave is the office's and the pack bench's to read.
+    expect(result.title).toBe(`Return ${ret.number} of unit ${wo.serial} (${tote.kit.name})`)
+    // And the return itself stays closed to that bench.
+    expect((await cutter.get(`/api/returns/${ret.id}`)).status).toBe(403)
   })
 })

@@ -17,11 +17,11 @@ describe('the scan page', () => {
     const packer = DEMO_USERS.find((u) => u.role === 'packer')!
     await signIn(page, baseUrl, packer.email, packer.password)
     await page.getByRole('link', { name: 'Scan', exact: true }).click()
-    await page.getByLabel('Bin, unit serial, order, offcut or part').waitFor()
+    await page.getByLabel('Bin, unit serial, order, offcut, part or return label').waitFor()
     // A keyboard-wedge scanner types the code and Enter into the focused field.
     await page.keyboard.type(`${DEMO_PART_SKUS.sprayer}\n`)
     await page.getByRole('region', { name: 'Scanned' }).getByText('Shelf A2-01').waitFor()
     await page.keyboard.type('NOPE-123\n')
-    await page.getByRole('alert').getByText(/No bin, unit, order, offcut or part has the code "NOPE-123"/).waitFor()
+    await page.getByRole('alert').getByText(/No bin, unit, order, offcut, part or return has the code "NOPE-123"/).waitFor()
   })
 })

@@ -37,7 +37,7 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
       .orderBy(asc(returnPhotos.uploadedAt)),
     stepsOfRevision(db, row.wo.kitRevisionId),
   ])
-  const names = await namesOf(db, [r.openedBy, r.receivedBy, r.decidedBy, ...photos.map((p) => p.uploadedBy)])
+  const names = await namesOf(db, [r.openedBy, r.receivedBy, r.decidedBy, r.disposedBy, ...photos.map((p) => p.uploadedBy)])
   const person = (id: string) => ({ id, name: names.get(id) ?? 'Unknown user' })
   const urls = await Promise.all(photos.map((p) => storage.presignGet(p.key, PHOTO_URL_SECONDS).catch(() => null)))
 
@@ -98,6 +98,10 @@ export async function loadReturn(db: Db, storage: Storage, returnId: string): Pr
             replacement,
             refundCents: r.refundCents,
           }
+        : null,
+    disposition:
+      r.disposition && r.disposedAt && r.disposedBy
+        ? { kind: r.disposition, note: r.dispositionNote, at: r.disposedAt.toISOString(), by: person(r.disposedBy) }
         : null,
     photos: photos.map((p, i) => ({ id: p.id, key: p.key, url: urls[i] ?? null, by: person(p.uploadedBy), at: p.uploadedAt!.toISOString() })),
     steps: steps.map((s) => ({ id: s.id, position: s.position, text: s.text })),
@@ -191,5 +195,8 @@ export async function returnsOfSerial(db: Db, serial: string): Promise<UnitRetur
     decisionNote: r.decisionNote,
     replacementSerial: serials.find((s) => s.id === r.replacementWorkOrderId)?.serial ?? null,
     refundCents: r.refundCents,
+    disposition: r.disposition,
+    dispositionNote: r.dispositionNote,
+    disposedAt: r.disposedAt?.toISOString() ?? null,
   }))
 }

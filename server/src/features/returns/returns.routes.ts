@@ -2,6 +2,7 @@ import { ConfirmPhotoSchema, SerialParamsSchema } from '@kitwright/shared/build'
 import {
   BuyReturnLabelSchema,
   DecideReturnSchema,
+  DisposeReturnSchema,
   OpenReturnSchema,
   PresignReturnPhotoSchema,
   ReceiveReturnSchema,
@@ -10,7 +11,7 @@ import {
   ReturnParamsSchema,
   UpdateReturnReasonsSchema,
 } from '@kitwright/shared/returns'
-import { RETURN_DECISION_LABELS } from '@kitwright/shared/status-words'
+import { RETURN_DECISION_LABELS, RETURN_DISPOSITION_LABELS } from '@kitwright/shared/status-words'
 import type { Request } from 'express'
 import type { Deps } from '../../deps'
 import { auditContext, recordAudit } from '../../lib/audit'
@@ -20,7 +21,7 @@ import { sendPdfInline } from '../labels/pdf-document'
 import { returnLabelPdf } from './return-label.pdf'
 import { confirmReturnPhoto, presignReturnPhoto } from './return-photos.service'
 import { listReturns, loadReturn, returnsOfSerial, returnSummary } from './returns.queries'
-import { buyReturnLabel, decideReturn, listReturnReasons, lookupReturnable, openReturn, receiveReturn, setReturnReasons } from './returns.service'
+import { buyReturnLabel, decideReturn, disposeReturnedUnit, listReturnReasons, lookupReturnable, openReturn, receiveReturn, setReturnReasons } from './returns.service'
 
 /** The office opens, labels and decides returns; the owner does all of it too. */
 const OFFICE = ['admin', 'planner'] as const
@@ -111,6 +112,15 @@ export function returnsRouter(deps: Deps, routes: RouteTable) {
       decided.id,
       `Return ${decided.number}: ${RETURN_DECISION_LABELS[input.decision]}${decided.refundCents !== null ? ` (${(decided.refundCents / 100).toFixed(2)})` : ''}`,
     )
+    res.json(await loadReturn(deps.db, deps.storage, returnId))
+  })
+  // What becomes of a replaced or refunded unit: the office's, as the decision is; recorded once.
+  r.post('/:returnId/disposition', OFFICE, async (req, res) => {
+    const { returnId } = ReturnParamsSchema.parse(req.params)
+    const input = DisposeReturnSchema.parse(req.body)
+    const { ret, recorded } = await disposeReturnedUnit(deps.db, returnId, input, currentUser(req))
+    if (recorded)
+      await audit(req, 'return.dispose', ret.id, `Return ${ret.number}: unit ${RETURN_DISPOSITION_LABELS[input.disposition].toLowerCase()}${input.note ? ` (${input.note})` : ''}`)
     res.json(await loadReturn(deps.db, deps.storage, returnId))
   })
   return r

@@ -2,8 +2,8 @@ import { randomUUID } from 'node:crypto'
 import { and, asc, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
 import { LENGTH_BASE_PER_MM } from '@kitwright/shared/domain/units'
 import { DEFAULT_RETURN_REASONS } from '@kitwright/shared/returns-status'
-import type { BuyReturnLabel, DecideReturnSchema, OpenReturnSchema, ReturnLookup, ReturnReasons, UpdateReturnReasonsSchema } from '@kitwright/shared/returns'
-import { RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
+import type { BuyReturnLabel, DecideReturnSchema, DisposeReturnSchema, OpenReturnSchema, ReturnLookup, ReturnReasons, UpdateReturnReasonsSchema } from '@kitwright/shared/returns'
+import { RETURN_DISPOSITION_LABELS, RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { z } from 'zod'
 import type { Db, Tx } from '../../db/client'
 import {
@@ -39,6 +39,7 @@ import { releaseOrder } from '../work-orders/release.service'
 
 type OpenReturn = z.infer<typeof OpenReturnSchema>
 type DecideReturn = z.infer<typeof DecideReturnSchema>
+type DisposeReturn = z.infer<typeof DisposeReturnSchema>
 
 const money = (cents: number, currency: string) => `${(cents / 100).toFixed(2)} ${currency}`
 
@@ -386,17 +387,17 @@ export async function buyReturnLabel(deps: LabelDeps, returnId: string, input: B
 // ── Receiving ────────────
 
 /**
- * The packer scans the return label's tracking number or the unit's serial: the return waiting for
- * that parcel is received. A second scan of the same parcel says when it was received.
+ * The packer scans the return label's tracking number, the return's number or the unit's serial: the
+ * return waiting for that parcel is received. A second scan of the same parcel says when it was received.
  */
 export async function receiveReturn(db: Db, code: string, actor: SessionUser): Promise<ReturnRow> {
   const wanted = code.trim().toUpperCase()
   return db.transaction(async (tx) => {
-    const [byTracking] = await tx
+    const [byLabel] = await tx
       .select()
       .from(returns)
-      .where(sql`upper(${returns.trackingNumber}) = ${wanted}`)
-    let candidate = byTracking
+      .where(sql`upper(${returns.trackingNumber}) = ${wanted} or upper(${returns.number}) = ${wanted}`)
+    let candidate = byLabel
     if (!candidate) {
       const wo = await findWorkOrderBySerial(tx, wanted)
       if (!wo) throw new NotFound(`No return label or serial "${code.trim()}": scan the return label's barcode or the serial on the unit`)
@@ -630,5 +631,56 @@ export async function decideReturn(db: Db, returnId: string, input: DecideReturn
     else if (input.decision === 'replace') await decideReplace(tx, ret, input, actor)
     else await decideRefund(tx, ret, input, actor)
     return (await lockReturn(tx, ret.id))!
+  })
+}
+
+// ── What becomes of the returned unit ────────────
+
+const dayOf = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`
+
+/**
+ * Records, once, what becomes of a unit that came back and was replaced or refunded: back to stock as
+ * a spare (kept whole on the spares shelf under its serial) or scrapped (with the reason). The stock
+ * ledger counts parts, not finished units, so neither writes a stock move: the unit's parts left the
+ * ledger when it first shipped; the disposition lives on the return, the unit's build record and the
+ * order's timeline. The same request again (a double tap, a retry) returns the recorded disposition
+ * and writes nothing (`recorded: false`); a different one is refused.
+ */
+export async function disposeReturnedUnit(db: Db, returnId: string, input: DisposeReturn, actor: SessionUser): Promise<{ ret: ReturnRow; recorded: boolean }> {
+  return db.transaction(async (tx) => {
+    const ret = await lockReturn(tx, returnId)
+    if (!ret) throw new NotFound('No such return')
+    const [wo] = await tx.select({ serial: workOrders.serial }).from(workOrders).where(eq(workOrders.id, ret.workOrderId))
+    const serial = wo?.serial ?? ''
+    if (ret.disposition) {
+      const same = ret.disposition === input.disposition && (ret.dispositionNote ?? null) === (input.note ?? null)
+      if (same) return { ret, recorded: false }
+      throw new Conflict(
+        `Unit ${serial} of return ${ret.number} is already recorded as ${RETURN_DISPOSITION_LABELS[ret.disposition].toLowerCase()}${ret.disposedAt ? ` (${dayOf(ret.disposedAt)})` : ''}; it is recorded once`,
+      )
+    }
+    if (ret.status === 'awaiting_parcel')
+      throw new Conflict(`Unit ${serial} of return ${ret.number} has not been received yet: the pack bench scans the parcel in first, then the office decides`)
+    if (ret.status === 'received')
+      throw new Conflict(`Return ${ret.number} is not decided yet: decide replace or refund first, then what becomes of unit ${serial}`)
+    if (ret.status === 'repair')
+      throw new Conflict(`Unit ${serial} of return ${ret.number} was sent for repair and goes back to the customer; there is nothing to dispose of`)
+    const now = new Date()
+    const [updated] = await tx
+      .update(returns)
+      .set({ disposition: input.disposition, dispositionNote: input.note ?? null, disposedAt: now, disposedBy: actor.id })
+      .where(eq(returns.id, ret.id))
+      .returning()
+    await addOrderEvent(tx, {
+      orderId: ret.orderId,
+      kind: 'return_unit_disposed',
+      message:
+        input.disposition === 'spare'
+          ? `Return ${ret.number}: unit ${serial} back to stock as a spare (kept whole on the spares shelf under its serial)${input.note ? `: ${input.note}` : ''}`
+          : `Return ${ret.number}: unit ${serial} scrapped: ${input.note}`,
+      data: { returnId: ret.id, serial, disposition: input.disposition },
+      actor,
+    })
+    return { ret: updated!, recorded: true }
   })
 }

@@ -1,8 +1,10 @@
 import { eq, sql } from 'drizzle-orm'
+import type { Role } from '@kitwright/shared/roles'
 import type { ScanResult } from '@kitwright/shared/scan'
 import { formatLength } from '@kitwright/shared/domain/units'
+import { RETURN_DISPOSITION_LABELS, RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import type { Db } from '../../db/client'
-import { bins, kitRevisions, kits, offcuts, orders, parts, workOrders } from '../../db/schema/index'
+import { bins, kitRevisions, kits, offcuts, orders, parts, returns, workOrders, type ReturnRow } from '../../db/schema/index'
 import { Conflict, NotFound } from '../../lib/http-errors'
 import { getShopSettings } from '../settings/settings.service'
 
@@ -55,9 +57,10 @@ async function kindOfCode(db: Db, code: string): Promise<{ kind: CodeKind; id: s
     union all select 'order', id::text, number from orders where upper(number) = upper(${code})
     union all select 'offcut', id::text, code from offcuts where upper(code) = upper(${code})
     union all select 'part', id::text, sku from parts where upper(sku) = upper(${code})
+    union all select 'return', id::text, number from returns where upper(tracking_number) = upper(${code}) or upper(number) = upper(${code})
     limit 3`)
   if (rows.length > 1) {
-    const names: Record<CodeKind, string> = { bin: 'bin', work_order: 'unit', order: 'order', offcut: 'offcut', part: 'part' }
+    const names: Record<CodeKind, string> = { bin: 'bin', work_order: 'unit', order: 'order', offcut: 'offcut', part: 'part', return: 'return' }
     throw new Conflict(
       `The code "${code}" names ${rows.map((r) => `${names[r.kind] ?? r.kind} ${r.label}`).join(' and ')}; Kitwright will not guess which. Scan the other label on it, or ask the planner to rename one`,
     )
@@ -65,15 +68,42 @@ async function kindOfCode(db: Db, code: string): Promise<{ kind: CodeKind; id: s
   return rows[0]
 }
 
+/** Who opens returns (their page and the returns screen): the office, and the pack bench that receives them. */
+const RETURN_READERS: readonly Role[] = ['admin', 'planner', 'packer']
+
+/** Where a returned unit goes next, by where its return is. */
+function nextForReturn(ret: ReturnRow, role: Role): ScanResult['next'] {
+  switch (ret.status) {
+    case 'awaiting_parcel':
+      return {
+        place: 'pack',
+        message: RETURN_READERS.includes(role)
+          ? "A customer's parcel coming back: receive it on its return page, then set it on the returns shelf"
+          : "A customer's parcel coming back: take it to the pack bench to be received",
+      }
+    case 'received':
+      return { place: 'office', message: 'Back in the shop: on the returns shelf for the office to decide' }
+    case 'repair':
+      return { place: 'build', message: 'Sent for repair: the build bench reworks it and tests it again' }
+    case 'replace':
+    case 'refund':
+      if (ret.disposition === 'spare') return { place: 'stock', message: `${RETURN_DISPOSITION_LABELS.spare}: kept whole on the spares shelf under its serial` }
+      if (ret.disposition === 'scrapped') return { place: 'done', message: `${RETURN_DISPOSITION_LABELS.scrapped}${ret.dispositionNote ? `: ${ret.dispositionNote}` : ''}` }
+      return { place: 'office', message: `${RETURN_STATUS_LABELS[ret.status]}: the office records whether the unit goes back to stock as a spare or is scrapped` }
+  }
+}
+
 /**
  * Resolves any Kitwright code — a bin, a unit's serial, an order number, an offcut label, a part's
- * SKU — to what it is and where it should go next. Codes are matched without regard to case,
- * because scanners and hands type both.
+ * SKU, a return label's tracking number or a return's number — to what it is and where it should go
+ * next. Codes are matched without regard to case, because scanners and hands type both. A return is
+ * named to everyone (so a parcel found anywhere reaches the pack bench), but only those who may
+ * open returns get its id.
  */
-export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
-  const base = { code, workOrderSerial: null, orderId: null, partId: null }
+export async function resolveScan(db: Db, code: string, role: Role): Promise<ScanResult> {
+  const base = { code, workOrderSerial: null, orderId: null, partId: null, returnId: null }
   const found = await kindOfCode(db, code)
-  if (!found) throw new NotFound(`No bin, unit, order, offcut or part has the code "${code}". Check the label and scan again.`)
+  if (!found) throw new NotFound(`No bin, unit, order, offcut, part or return has the code "${code}". Check the label and scan again.`)
 
   switch (found.kind) {
     case 'bin': {
@@ -168,6 +198,28 @@ export async function resolveScan(db: Db, code: string): Promise<ScanResult> {
         status: part!.active ? 'active' : 'deactivated',
         next: { place: 'stock', message: part!.shelfLocation ? `Shelf ${part!.shelfLocation}` : 'No shelf set for this part' },
         partId: part!.id,
+      }
+    }
+    case 'return': {
+      const [row] = await db
+        .select({ r: returns, serial: workOrders.serial, kitName: kits.name })
+        .from(returns)
+        .innerJoin(workOrders, eq(workOrders.id, returns.workOrderId))
+        .innerJoin(kitRevisions, eq(kitRevisions.id, workOrders.kitRevisionId))
+        .innerJoin(kits, eq(kits.id, kitRevisions.kitId))
+        .where(eq(returns.id, found.id))
+      const ret = row!.r
+      const reader = RETURN_READERS.includes(role)
+      return {
+        ...base,
+        kind: 'return',
+        code: ret.number,
+        title: `Return ${ret.number} of unit ${row!.serial} (${row!.kitName})${reader ? `: ${ret.reason}` : ''}`,
+        status: ret.status,
+        next: nextForReturn(ret, role),
+        workOrderSerial: row!.serial,
+        orderId: reader ? ret.orderId : null,
+        returnId: reader ? ret.id : null,
       }
     }
   }

@@ -1,14 +1,15 @@
 import { useQuery } from '@tanstack/react-query'
 import { useState } from 'react'
 import { Link, useParams } from 'react-router-dom'
-import { RETURN_LABEL_STATUS_LABELS, RETURN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
+import { RETURN_DISPOSITION_LABELS, RETURN_LABEL_STATUS_LABELS, RETURN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 import { Button } from '../../../components/ui/button'
 import { Field, Select } from '../../../components/ui/field'
 import { Section } from '../../../components/ui/section'
 import { paths } from '../../../config/paths'
 import { meOptions } from '../../../features/auth/api/auth-queries'
-import { returnDetailOptions, useBuyReturnLabel } from '../../../features/returns/api/return-queries'
+import { returnDetailOptions, useBuyReturnLabel, useReceiveReturn } from '../../../features/returns/api/return-queries'
 import { DecisionForm } from '../../../features/returns/components/decision-form'
+import { DispositionForm } from '../../../features/returns/components/disposition-form'
 import { ReturnPhotos } from '../../../features/returns/components/return-photos'
 
 const when = (iso: string) => new Date(iso).toLocaleString()
@@ -21,8 +22,10 @@ export function Component() {
   const { returnId = '' } = useParams()
   const { data: me } = useQuery(meOptions())
   const office = me?.role === 'admin' || me?.role === 'planner'
+  const receiver = office || me?.role === 'packer'
   const { data: ret, error } = useQuery(returnDetailOptions(returnId))
   const buy = useBuyReturnLabel()
+  const receive = useReceiveReturn()
   const [service, setService] = useState('ground')
   if (error) return <p role="alert">{error.message}</p>
   if (!ret) return <p>Loading…</p>
@@ -69,6 +72,16 @@ export function Component() {
               : 'Not yet: the pack bench scans the parcel in on the Returns page'}
           </dd>
         </dl>
+        {receiver && ret.status === 'awaiting_parcel' && (
+          <Button size="bench" disabled={receive.isPending} onClick={() => receive.mutate(ret.label.trackingNumber ?? ret.number)}>
+            {receive.isPending ? 'Receiving…' : 'Receive this parcel'}
+          </Button>
+        )}
+        {receive.isError && (
+          <p role="alert" className="rounded-md border-2 border-red-600 bg-red-50 p-3 text-lg text-red-900">
+            {receive.error.message}
+          </p>
+        )}
       </Section>
 
       <Section title="Return label">
@@ -142,6 +155,22 @@ export function Component() {
           </div>
         )}
       </Section>
+
+      {(ret.status === 'replace' || ret.status === 'refund') && (
+        <Section title="The returned unit">
+          {ret.disposition ? (
+            <p className="text-lg">
+              <strong>{RETURN_DISPOSITION_LABELS[ret.disposition.kind]}</strong> on {when(ret.disposition.at)} by {ret.disposition.by.name}
+              {ret.disposition.note ? `: ${ret.disposition.note}` : ''}
+              {ret.disposition.kind === 'spare' ? ` (kept whole on the spares shelf as ${ret.unit.serial})` : ''}
+            </p>
+          ) : office ? (
+            <DispositionForm ret={ret} />
+          ) : (
+            <p className="text-lg">Set it on the returns shelf: the office records whether it goes back to stock as a spare or is scrapped.</p>
+          )}
+        </Section>
+      )}
     </div>
   )
 }

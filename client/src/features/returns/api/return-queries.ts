@@ -8,6 +8,7 @@ import {
   ReturnSummarySchema,
   UnitReturnsSchema,
   type DecideReturnInput,
+  type DisposeReturnInput,
   type OpenReturnInput,
   type Return,
 } from '@kitwright/shared/returns'
@@ -70,6 +71,18 @@ export function useReceiveReturn() {
 export function useDecideReturn() {
   const setReturn = useSetReturn()
   return useMutation({ mutationFn: ({ id, ...body }: DecideReturnInput & { id: string }) => apiFetch(`/returns/${id}/decision`, ReturnSchema, { method: 'POST', body }), onSuccess: setReturn })
+}
+/** Back to stock as a spare, or scrapped; the server records it once, so a second tap changes nothing. */
+export function useDisposeReturnedUnit() {
+  const setReturn = useSetReturn()
+  const qc = useQueryClient()
+  return useMutation({
+    mutationFn: ({ id, ...body }: DisposeReturnInput & { id: string }) => apiFetch(`/returns/${id}/disposition`, ReturnSchema, { method: 'POST', body }),
+    onSuccess: (r) => {
+      void qc.invalidateQueries({ queryKey: returnKeys.ofUnit(r.unit.serial) })
+      return setReturn(r)
+    },
+  })
 }
 export function useSetReturnReasons() {
   const qc = useQueryClient()

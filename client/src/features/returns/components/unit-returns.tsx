@@ -1,6 +1,6 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link } from 'react-router-dom'
-import { RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
+import { RETURN_DISPOSITION_LABELS, RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../../components/ui/section'
 import { unitReturnsOptions } from '../api/return-queries'
 
@@ -8,7 +8,7 @@ const when = (iso: string) => new Date(iso).toLocaleString()
 
 /**
  * The unit's returns, in its build record beside the original build: why it came back, when it was
- * received, what was decided. A repair's reopened steps and its retest show in the steps and leak
+ * received, what was decided, and what became of it after a replace or refund (spare or scrapped). A repair's reopened steps and its retest show in the steps and leak
  * tests above (undone ticks, a new attempt), and its rework entry names the return.
  */
 export function UnitReturns({ serial, returnHref }: { serial: string; returnHref: ((id: string) => string) | null }) {
@@ -31,6 +31,13 @@ export function UnitReturns({ serial, returnHref }: { serial: string; returnHref
               {r.replacementSerial ? ` · replaced by ${r.replacementSerial}` : ''}
               {r.refundCents !== null ? ` · refund noted ${(r.refundCents / 100).toFixed(2)}` : ''}
             </p>
+            {r.disposition && (
+              <p className="text-base text-stone-700">
+                {RETURN_DISPOSITION_LABELS[r.disposition]}
+                {r.disposedAt ? ` ${when(r.disposedAt)}` : ''}
+                {r.dispositionNote ? `: ${r.dispositionNote}` : ''}
+              </p>
+            )}
           </li>
         ))}
       </ol>
