@@ -5,6 +5,7 @@ import { eq } from 'drizzle-orm'
 import { createBins, hashSecret, tables, type Db } from './services'
 import { seedDemoKits } from './kits'
 import { seedDemoOrders } from './orders'
+import { seedDemoReturn } from './returns'
 import { inches } from '@kitwright/shared/domain/units'
 import { seedDemoParts } from './catalog'
 import { seedDemoStock } from './stock'
@@ -52,6 +53,10 @@ export async function seedDemo(db: Db) {
   await seedDemoKits(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
   await seedDemoUnitWeights(db, { id: owner!.id, email: owner!.email, name: owner!.name, role: owner!.role })
   await seedDemoOrders(db, { id: owner!.id, name: owner!.name })
+  // One return on its way back, opened by the office (the demo planner).
+  const planner = DEMO_USERS.find((u) => u.role === 'planner')
+  const [office] = planner ? await db.select().from(users).where(eq(users.email, planner.email)) : [owner!]
+  await seedDemoReturn(db, { id: office!.id, email: office!.email, name: office!.name, role: office!.role })
   // A rack of labelled bins, so the cut bench can start at once (a batch of nine units needs nine).
   const [anyBin] = await db.select({ id: bins.id }).from(bins).limit(1)
   if (!anyBin) await createBins(db, { count: DEMO_BIN_COUNT })

@@ -12,4 +12,5 @@ export { createKit, newRevision, releaseRevision, saveRevision } from '../featur
 export { addOrderEvent, createOrder } from '../features/orders/orders.service'
 export type { Actor } from '../features/stock/stock.service'
 export { hashSecret } from '../features/users/users.service'
+export { openReturn } from '../features/returns/returns.service'
 export { releaseOrder } from '../features/work-orders/release.service'
