@@ -253,27 +253,3 @@ export const WorkOrderParamsSchema = z.object({ workOrderId: uuid })
 /** A work order and one of its steps in a URL. */
 export const StepParamsSchema = z.object({ workOrderId: uuid, stepId: uuid })
 
-/** An out-of-limits measurement standing on a unit not yet shipped: for the planner's attention. */
-export const MeasurementFlagSchema = z.object({
-  tickId: uuid,
-  workOrderId: uuid,
-  serial: z.string(),
-  workOrderStatus: WorkOrderStatusSchema,
-  orderId: uuid,
-  orderNumber: z.string(),
-  kitSku: z.string(),
-  revisionCode: z.string(),
-  stepPosition: z.number().int(),
-  stepText: z.string(),
-  measurement: z.number(),
-  unit: z.string().nullable(),
-  min: z.number().nullable(),
-  max: z.number().nullable(),
-  reason: z.string().nullable(),
-  /** The revision sends such a unit to rework. */
-  rework: z.boolean(),
-  by: z.string(),
-  at: z.string(),
-})
-/** An out-of-limits measurement for the planner's attention. */
-export type MeasurementFlag = z.infer<typeof MeasurementFlagSchema>

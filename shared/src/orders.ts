@@ -1,6 +1,7 @@
 import { z } from 'zod'
 import { EmailSchema } from './auth'
 import { countryCodeSchema } from './customs'
+import { MeasurementFlagSchema } from './measurement-flags'
 import { ORDER_STAGES } from './order-stage'
 import { ORDER_PRIORITIES, ORDER_SOURCES, ORDER_STATUSES, PAYMENT_STATUSES, WORK_ORDER_STATUSES } from './orders-status'
 import { PageNumberSchema, PageOf, PageSizeSchema, SortDirSchema } from './pagination'
@@ -250,6 +251,8 @@ export const OrderDetailSchema = OrderSchema.extend({
   /** Oldest first. */
   events: z.array(OrderEventSchema),
   workOrders: z.array(OrderWorkOrderSchema),
+  /** Out-of-limits measurements recorded at the build bench on its units, newest first; undone ones (reworked) included. */
+  measurementFlags: z.array(MeasurementFlagSchema).default([]),
 })
 /** An order with everything about it. */
 export type OrderDetail = z.infer<typeof OrderDetailSchema>

@@ -1,7 +1,8 @@
 import { and, eq } from 'drizzle-orm'
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest'
 import { z } from 'zod'
-import { BuildPageSchema, MAX_PHOTO_BYTES, MeasurementFlagSchema, PresignedPhotoSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
+import { BuildPageSchema, MAX_PHOTO_BYTES, PresignedPhotoSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
+import { MeasurementFlagSchema } from '@kitwright/shared/measurement-flags'
 import { inches } from '@kitwright/shared/domain/units'
 import { ApiErrorBodySchema } from '@kitwright/shared/errors'
 import {

@@ -1,15 +1,35 @@
-import type { MeasurementFlag } from '@kitwright/shared/build'
-import { and, desc, eq, isNull, notInArray } from 'drizzle-orm'
-import type { Db } from '../../db/client'
+import type { MeasurementFlag } from '@kitwright/shared/measurement-flags'
+import { and, desc, eq, isNull, notInArray, type SQL } from 'drizzle-orm'
+import { alias } from 'drizzle-orm/pg-core'
+import type { Db, Tx } from '../../db/client'
 import { buildSteps, buildStepTicks, kitRevisions, kits, orders, users, workOrders } from '../../db/schema/index'
 
 /**
- * Out-of-limits measurements standing (not undone) on units that have not shipped or been
- * cancelled, newest first: the planner decides what to do about each.
+ * Which out-of-limits measurements: the planner's attention list (standing, not undone, on units
+ * that have not shipped or been cancelled), or every one recorded on an order's units, those undone
+ * to measure again (reworked) and those on shipped units included, for the order page.
  */
-export async function listMeasurementFlags(db: Db): Promise<MeasurementFlag[]> {
+export type MeasurementFlagScope = { attention: true } | { orderId: string }
+
+const undoer = alias(users, 'undoer')
+
+/** Out-of-limits measurements in the scope, newest first (the home page and the order page read the same rows). */
+export async function listMeasurementFlags(db: Db | Tx, scope: MeasurementFlagScope = { attention: true }): Promise<MeasurementFlag[]> {
+  const where: SQL | undefined =
+    'orderId' in scope
+      ? and(eq(buildStepTicks.outOfLimits, true), eq(workOrders.orderId, scope.orderId))
+      : and(eq(buildStepTicks.outOfLimits, true), isNull(buildStepTicks.undoneAt), notInArray(workOrders.status, ['shipped', 'cancelled']))
   const rows = await db
-    .select({ tick: buildStepTicks, step: buildSteps, wo: workOrders, orderNumber: orders.number, kitSku: kits.sku, revisionCode: kitRevisions.code, by: users.name })
+    .select({
+      tick: buildStepTicks,
+      step: buildSteps,
+      wo: workOrders,
+      orderNumber: orders.number,
+      kitSku: kits.sku,
+      revisionCode: kitRevisions.code,
+      by: users.name,
+      undoneBy: undoer.name,
+    })
     .from(buildStepTicks)
     .innerJoin(buildSteps, eq(buildSteps.id, buildStepTicks.buildStepId))
     .innerJoin(workOrders, eq(workOrders.id, buildStepTicks.workOrderId))
@@ -17,7 +37,8 @@ export async function listMeasurementFlags(db: Db): Promise<MeasurementFlag[]> {
     .innerJoin(kitRevisions, eq(kitRevisions.id, workOrders.kitRevisionId))
     .innerJoin(kits, eq(kits.id, kitRevisions.kitId))
     .innerJoin(users, eq(users.id, buildStepTicks.tickedBy))
-    .where(and(eq(buildStepTicks.outOfLimits, true), isNull(buildStepTicks.undoneAt), notInArray(workOrders.status, ['shipped', 'cancelled'])))
+    .leftJoin(undoer, eq(undoer.id, buildStepTicks.undoneBy))
+    .where(where)
     .orderBy(desc(buildStepTicks.tickedAt))
     .limit(200)
   return rows.map((r) => ({
@@ -39,5 +60,7 @@ export async function listMeasurementFlags(db: Db): Promise<MeasurementFlag[]> {
     rework: r.step.outOfLimitsRework,
     by: r.by,
     at: r.tick.tickedAt.toISOString(),
+    undoneAt: r.tick.undoneAt?.toISOString() ?? null,
+    undoneBy: r.tick.undoneAt ? r.undoneBy : null,
   }))
 }

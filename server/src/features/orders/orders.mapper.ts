@@ -1,3 +1,4 @@
+import type { MeasurementFlag } from '@kitwright/shared/measurement-flags'
 import type { Order, OrderDetail } from '@kitwright/shared/orders'
 import type { OrderListRecord, OrderTree } from './orders.queries'
 
@@ -35,7 +36,7 @@ function serialNumber(serial: string) {
   return Number(/(\d+)$/.exec(serial)?.[1] ?? 0)
 }
 
-export function toOrderDetail(o: OrderTree): OrderDetail {
+export function toOrderDetail(o: OrderTree, measurementFlags: MeasurementFlag[]): OrderDetail {
   const lines = o.lines
   return {
     id: o.id,
@@ -106,5 +107,6 @@ export function toOrderDetail(o: OrderTree): OrderDetail {
         dueDate: w.dueDate,
         createdAt: w.createdAt.toISOString(),
       })),
+    measurementFlags,
   }
 }

@@ -7,6 +7,7 @@ import type { SessionUser } from '../../lib/auth'
 import { BadRequest, Conflict, NotFound } from '../../lib/http-errors'
 import { writeOrdersCsv } from './orders.csv'
 import { promiseForOrder } from './promise.service'
+import { listMeasurementFlags } from '../build/measurement-flags'
 import { toOrder, toOrderDetail } from './orders.mapper'
 import {
   countOrders,
@@ -154,7 +155,8 @@ export async function listOrders(db: Db, q: OrderListQuery): Promise<OrdersPage>
 export async function getOrder(db: Db | Tx, id: string): Promise<OrderDetail> {
   const tree = await selectOrderTree(db, id)
   if (!tree) throw new NotFound('No such order')
-  return toOrderDetail(tree)
+  // The same rows as the planner's list on the home page, for this order's units only.
+  return toOrderDetail(tree, await listMeasurementFlags(db, { orderId: id }))
 }
 
 function numberTaken(number: string) {

@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link, useParams } from 'react-router-dom'
 import { paths } from '../../../config/paths'
+import { MeasurementFlagList } from '../../../features/build-bench/components/measurement-flags-panel'
 import { orderDetailOptions } from '../../../features/orders/api/order-queries'
 import { OrderDetailView } from '../../../features/orders/components/order-detail-view'
 
@@ -19,7 +20,7 @@ export function Component() {
           {order.error.message}
         </p>
       ) : order.data ? (
-        <OrderDetailView order={order.data} />
+        <OrderDetailView order={order.data} measurementFlags={<MeasurementFlagList flags={order.data.measurementFlags} withOrder={false} />} />
       ) : (
         <p className="text-stone-500">Loading the order…</p>
       )}

@@ -1,5 +1,6 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
-import { BuildPageSchema, MeasurementFlagSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
+import { BuildPageSchema, UnitRecordSchema, type BuildPage } from '@kitwright/shared/build'
+import { MeasurementFlagSchema } from '@kitwright/shared/measurement-flags'
 import type { FitLotInput } from '@kitwright/shared/lots'
 import { z } from 'zod'
 import { BuildWorklistItemSchema } from '@kitwright/shared/worklists'

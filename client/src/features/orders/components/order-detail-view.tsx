@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react'
 import { Link } from 'react-router-dom'
 import type { OrderDetail } from '@kitwright/shared/orders'
 import { ORDER_SOURCE_LABELS, WORK_ORDER_STATUS_LABELS } from '@kitwright/shared/status-words'
@@ -63,6 +64,9 @@ function Lines({ order }: { order: OrderDetail }) {
 
 function WorkOrders({ order }: { order: OrderDetail }) {
   if (order.workOrders.length === 0) return <p className="text-stone-500">No work orders yet: release the order to make one per unit.</p>
+  // Out-of-limits measurements still standing on each unit (undone ones were measured again).
+  const standing = new Map<string, number>()
+  for (const f of order.measurementFlags) if (f.undoneAt === null) standing.set(f.workOrderId, (standing.get(f.workOrderId) ?? 0) + 1)
   return (
     <div className="overflow-x-auto">
       <table className="w-full text-left" aria-label="Work orders">
@@ -81,7 +85,14 @@ function WorkOrders({ order }: { order: OrderDetail }) {
               <td className={`${td} font-mono font-bold`}>{w.serial}</td>
               <td className={td}>{w.kitSku}</td>
               <td className={td}>{w.revisionCode}</td>
-              <td className={td}>{WORK_ORDER_STATUS_LABELS[w.status]}</td>
+              <td className={td}>
+                {WORK_ORDER_STATUS_LABELS[w.status]}
+                {standing.has(w.id) && (
+                  <a href="#order-measurement-flags" className="ml-2 rounded bg-red-700 px-2 text-sm font-bold text-white">
+                    {standing.get(w.id) === 1 ? 'measurement out of limits' : `${standing.get(w.id)} measurements out of limits`}
+                  </a>
+                )}
+              </td>
               <td className={td}>{formatDay(w.dueDate)}</td>
             </tr>
           ))}
@@ -95,7 +106,11 @@ function WorkOrders({ order }: { order: OrderDetail }) {
 /** Stages where the order has a box at the pack bench (and may have a bought label). */
 const PACKED_STAGES = new Set<OrderDetail['stage']>(['ready_to_pack', 'partially_shipped', 'shipped'])
 
-export function OrderDetailView({ order }: { order: OrderDetail }) {
+/**
+ * `measurementFlags` is the list of the order's out-of-limits measurements (the build bench's, drawn
+ * by the page), shown under the work orders when there is any.
+ */
+export function OrderDetailView({ order, measurementFlags }: { order: OrderDetail; measurementFlags?: ReactNode }) {
   const ship = order.shipTo
   return (
     <div className="space-y-6">
@@ -157,6 +172,12 @@ export function OrderDetailView({ order }: { order: OrderDetail }) {
       <Section title={`Work orders (${order.workOrders.length})`} id="order-work-orders">
         <WorkOrders order={order} />
       </Section>
+      {order.measurementFlags.length > 0 && measurementFlags && (
+        <Section title={`Measurements out of limits (${order.measurementFlags.length})`} id="order-measurement-flags">
+          <p className="text-sm text-stone-600">Recorded at the build bench with a reason; newest first. A step undone and measured again shows as reworked.</p>
+          {measurementFlags}
+        </Section>
+      )}
       <Section title="Timeline" id="order-timeline">
         <OrderTimeline events={order.events} />
       </Section>
