@@ -2,6 +2,7 @@ import { mkdirSync } from 'node:fs'
 import path from 'node:path'
 import type { Browser, Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import { OrderDetailSchema } from '@kitwright/shared/orders'
 import { createDb } from '../../server/src/db/client'
 import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { launchChromium, signIn } from '../support/browser'
@@ -12,6 +13,7 @@ const baseUrl = inject('baseUrl')
 const shots = path.resolve(import.meta.dirname, '../.artifacts')
 let browser: Browser
 let made: Awaited<ReturnType<typeof insertPackOrder>>
+let refunded: Awaited<ReturnType<typeof insertPackOrder>>
 
 function demo(role: string) {
   const u = DEMO_USERS.find((d) => d.role === role)
@@ -26,6 +28,7 @@ beforeAll(async () => {
   const { db, pool } = createDb(testDatabaseUrl('e2e'))
   try {
     made = await insertPackOrder(db, [{ kitSku: 'MW-TOTE-6C', status: 'shipped' }])
+    refunded = await insertPackOrder(db, [{ kitSku: 'MW-TOTE-6C', status: 'shipped' }])
   } finally {
     await pool.end()
   }
@@ -110,6 +113,55 @@ describe('returns in Chromium', () => {
     await row.waitFor()
     expect(Number(await row.getByRole('cell').nth(2).textContent())).toBeGreaterThanOrEqual(1)
     await perRevision.screenshot({ path: path.join(shots, 'returns-per-revision.png') })
+    await planner.context().close()
+  })
+
+  it('the packer scans a return on the Scan page and receives it there; after a refund the office scraps the unit once, with a reason', async () => {
+    const unit = refunded.units[0]!.wo
+    const planner = await tablet('planner')
+    const opened = await planner.request.post(`${baseUrl}/api/returns`, { data: { serial: unit.serial, reason: 'Changed mind', notes: null } })
+    expect(opened.status()).toBe(201)
+    const { id, number } = (await opened.json()) as { id: string; number: string }
+
+    // The parcel turns up: the packer scans its return number on the Scan page and lands on the return.
+    const packer = await tablet('packer')
+    await packer.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Scan', exact: true }).click()
+    await packer.getByLabel('Bin, unit serial, order, offcut, part or return label').waitFor()
+    await packer.keyboard.type(`${number}\n`)
+    await packer.getByRole('heading', { level: 1, name: `Return ${number} · Waiting for the parcel` }).waitFor()
+    await packer.getByRole('button', { name: 'Receive this parcel' }).click()
+    await packer.getByRole('heading', { level: 1, name: `Return ${number} · Back in the shop` }).waitFor()
+    await packer.getByText('Back in the shop: the office decides repair, replace or refund.').waitFor()
+    await packer.screenshot({ path: path.join(shots, 'return-received-from-scan.png'), fullPage: true })
+    await packer.context().close()
+
+    // The office notes the refund, then records what becomes of the unit.
+    await planner.goto(`${baseUrl}/returns/${id}`)
+    const decision = planner.getByRole('form', { name: 'Decision' })
+    await decision.getByRole('radio', { name: 'Refund noted' }).click()
+    await decision.getByLabel('Amount refunded (USD)').fill('0')
+    await decision.getByLabel('How the store refunded it').fill('Refunded in the store, ref 6120')
+    await decision.getByRole('button', { name: 'Decide: Refund noted' }).click()
+    await planner.getByRole('heading', { level: 1, name: `Return ${number} · Refund noted` }).waitFor()
+    const unitForm = planner.getByRole('form', { name: 'The returned unit' })
+    await unitForm.getByRole('radio', { name: 'Scrapped' }).click()
+    await unitForm.getByRole('button', { name: 'Record: Scrapped' }).click()
+    await unitForm.getByRole('alert').getByText(/^Say why the unit is scrapped/).waitFor()
+    await unitForm.getByLabel('Why it is scrapped').fill('Tote split along the rim')
+    await planner.screenshot({ path: path.join(shots, 'return-dispose.png'), fullPage: true })
+    // A double tap records it once.
+    await unitForm.getByRole('button', { name: 'Record: Scrapped' }).dblclick()
+    await planner.getByText(/^Scrapped on .+: Tote split along the rim$/).waitFor()
+    expect(await planner.getByRole('form', { name: 'The returned unit' }).count()).toBe(0)
+    const order = await planner.request.get(`${baseUrl}/api/orders/${refunded.order.id}`)
+    expect(order.status()).toBe(200)
+    const timeline = OrderDetailSchema.parse(await order.json()).events
+    expect(timeline.filter((e) => e.kind === 'return_unit_disposed').map((e) => e.message)).toEqual([`Return ${number}: unit ${unit.serial} scrapped: Tote split along the rim`])
+    await planner.screenshot({ path: path.join(shots, 'return-scrapped.png'), fullPage: true })
+
+    // The build record says what became of the unit.
+    await planner.getByRole('link', { name: unit.serial, exact: true }).click()
+    await planner.getByRole('list', { name: 'Returns of this unit' }).getByText(/^Scrapped .+: Tote split along the rim$/).waitFor()
     await planner.context().close()
   })
 
