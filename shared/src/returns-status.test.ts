@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { DEFAULT_RETURN_REASONS, RETURN_DECISIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
-import { RETURN_DECISION_LABELS, RETURN_LABEL_STATUS_LABELS, RETURN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS } from './status-words'
+import { DEFAULT_RETURN_REASONS, RETURN_DECISIONS, RETURN_DISPOSITIONS, RETURN_LABEL_STATUSES, RETURN_STATUSES } from './returns-status'
+import { RETURN_DECISION_LABELS, RETURN_DISPOSITION_LABELS, RETURN_LABEL_STATUS_LABELS, RETURN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS } from './status-words'
 
 describe('the words of a return', () => {
   it('gives each return state its own word, plain shop English, and none a unit already uses', () => {
@@ -11,6 +11,12 @@ describe('the words of a return', () => {
     }
     // "Rework" is the unit's state at the build bench; the return says where it went, in other words.
     for (const w of words) expect(Object.values(WORK_ORDER_STATUS_LABELS)).not.toContain(w)
+  })
+
+  it('names what becomes of a returned unit in two different plain words', () => {
+    const words = RETURN_DISPOSITIONS.map((d) => RETURN_DISPOSITION_LABELS[d])
+    expect(new Set(words).size).toBe(RETURN_DISPOSITIONS.length)
+    for (const w of words) expect(w).toMatch(/^[A-Z][a-z]+( [a-z]+)*$/)
   })
 
   it('decides into a state of the same name, and starts the shop with distinct default reasons', () => {
