@@ -4,11 +4,12 @@ import { PNG } from 'pngjs'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { CutRunDetailSchema, type CutRunDetail } from '@kitwright/shared/cut-runs'
 import { createDb } from '../../server/src/db/client'
-import { auditEvents, buildSteps, buildStepTicks, cutRunCuts, kitRevisions, kits, unitPhotos, workOrders } from '../../server/src/db/schema/index'
+import { auditEvents, buildSteps, buildStepTicks, cutRunCuts, kitRevisions, kits, packChecks, unitPhotos, workOrders } from '../../server/src/db/schema/index'
 import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { launchChromium, signIn } from '../support/browser'
 import { insertBin, insertBuildWorkOrder } from '../support/build-factories'
 import { insertWorkOrders } from '../support/cut-run-factories'
+import { insertPackOrder } from '../support/pack-factories'
 import { testDatabaseUrl } from '../support/env'
 
 /**
@@ -296,5 +297,71 @@ describe('the build bench with the network cut', () => {
     // Read and put away: it leaves the tablet.
     await refused.getByRole('button', { name: /^Seen: / }).click()
     await refused.waitFor({ state: 'detached' })
+  })
+})
+
+describe('the pack bench with the network cut', () => {
+  it('marks what went in (or came out of) the box offline as waiting to send, through a reload, and as confirmed once the server has it', async () => {
+    const made = await insertPackOrder(conn.db, [{ kitSku: 'MW-TOTE-6C' }, { kitSku: 'MW-SPARE-SPR6' }])
+    const [unit, spare] = made.units
+    const packer = demo('packer').name
+    const standing = async () =>
+      (
+        await conn.db
+          .select({ itemKey: packChecks.itemKey })
+          .from(packChecks)
+          .where(and(inArray(packChecks.workOrderId, [unit!.wo.id, spare!.wo.id]), isNull(packChecks.undoneAt)))
+      )
+        .map((c) => c.itemKey)
+        .sort()
+    const { context, page } = await tablet('packer')
+    const list = page.getByRole('list', { name: 'Packing list' })
+    const unitItem = list.getByRole('listitem', { name: `Unit ${unit!.wo.serial}` })
+    const bagItem = list.getByRole('listitem', { name: `Bag ${unit!.wo.serial} bag` })
+    const spareItem = list.getByRole('listitem', { name: `Pack ${spare!.wo.serial}` })
+    await openForOffline(page, `/bench/pack?order=${made.order.id}`, () => page.getByRole('heading', { name: `Order ${made.order.number}` }).waitFor())
+    // The spare pack went in while the network was up; the order is read again, so the service worker keeps it so for a reload.
+    const reread = page.waitForResponse((r) => r.url().endsWith(`/api/pack/orders/${made.order.id}`) && r.request().method() === 'GET' && r.ok())
+    await spareItem.getByRole('button', { name: 'In the box' }).click()
+    await spareItem.getByText(`Ticked by ${packer}`).waitFor()
+    await reread
+
+    await context.setOffline(true)
+    await banner(page).getByText('Offline.').waitFor()
+    // The wedge scanner types into the scan field, which has the focus back after the tap.
+    await page.keyboard.type(unit!.binCode!)
+    await page.keyboard.press('Enter')
+    await unitItem.getByText('In the box — waiting to send').waitFor()
+    await bagItem.getByRole('button', { name: 'In the box' }).click()
+    await bagItem.getByText('In the box — waiting to send').waitFor()
+    await spareItem.getByRole('button', { name: 'Undo' }).click()
+    await spareItem.getByText('Out of the box — waiting to send').waitFor()
+    await banner(page).getByText('3 actions waiting.').waitFor()
+    expect(await standing()).toEqual([`pack:${spare!.wo.serial}`])
+
+    // The page loads again with no network: the list as last read, the marks from the queue.
+    await page.reload()
+    await unitItem.getByText('In the box — waiting to send').waitFor()
+    await unitItem.getByText(`${unit!.binCode} scanned by you at`).waitFor()
+    await bagItem.getByText('In the box — waiting to send').waitFor()
+    await bagItem.getByText(/^You ticked it at/).waitFor()
+    await spareItem.getByText('Out of the box — waiting to send').waitFor()
+    await banner(page).getByText('3 actions waiting.').waitFor()
+    // Not the server's confirmation: no "Ticked by" or "Scanned … by" on the items that wait.
+    expect(await unitItem.getByText(`Scanned ${unit!.binCode} by`).count()).toBe(0)
+    expect(await bagItem.getByText(/^Ticked by/).count()).toBe(0)
+    await shot(page, 'pack-bench-offline-reloaded')
+
+    await context.setOffline(false)
+    await banner(page).getByText('Back online.').waitFor()
+    await unitItem.getByText(`Scanned ${unit!.binCode} by ${packer}`).waitFor()
+    await bagItem.getByText(`Ticked by ${packer}`).waitFor()
+    await spareItem.getByRole('button', { name: 'In the box' }).waitFor()
+    expect(await list.getByText(/waiting to send/).count()).toBe(0)
+    // The bag and the unit in the box, the spare pack out of it: each landed once.
+    const landed = await standing()
+    expect(landed).toHaveLength(2)
+    expect(landed[0]!.startsWith(`bag:${unit!.wo.serial}:`)).toBe(true)
+    expect(landed[1]).toBe(`unit:${unit!.wo.serial}`)
   })
 })

@@ -8,6 +8,8 @@ import { ScanField } from '../../../components/ui/scan-field'
 import { Caution } from '../../../components/ui/section'
 import { meOptions } from '../../../features/auth/api/auth-queries'
 import { packOrderOptions, useLookup, useScanItem } from '../../../features/pack-bench/api/pack-queries'
+import { PACK_ACTIONS, overlayWaiting } from '../../../features/pack-bench/api/pack-waiting'
+import { useWaitingActions } from '../../../lib/offline/use-bench-queue'
 import { BagWeighing } from '../../../features/pack-bench/bag-weighing/bag-weighing'
 import { BuyingPanel } from '../../../features/pack-bench/components/buying-panel'
 import { LabelledPanel } from '../../../features/pack-bench/components/labelled-panel'
@@ -31,7 +33,9 @@ export function Component() {
   const scanItem = useScanItem()
   const [problem, setProblem] = useState<string | null>(null)
   const [shipped, setShipped] = useState<ShipResult | null>(null)
-  const view = orderId ? order.data : undefined
+  // Items scanned, ticked or undone on this tablet with no network show as waiting until the server has them.
+  const waiting = useWaitingActions(PACK_ACTIONS)
+  const view = orderId && order.data ? overlayWaiting(order.data, waiting) : undefined
   const office = me.data?.role === 'admin' || me.data?.role === 'planner'
   // A problem shown stays until the view changes (an action went through) or the next scan.
   useEffect(() => setProblem(null), [order.dataUpdatedAt])

@@ -1,9 +1,10 @@
 import { queryOptions, useMutation, useQueryClient } from '@tanstack/react-query'
 import { z } from 'zod'
-import { PackViewSchema, QuoteSchema, ShipResultSchema, type BuyLabel, type PackView, type QuoteRequest } from '@kitwright/shared/pack'
+import { PackViewSchema, QuoteSchema, ShipResultSchema, type BuyLabel, type PackItem, type PackView, type QuoteRequest } from '@kitwright/shared/pack'
 import { CustomsSummarySchema } from '@kitwright/shared/customs'
 import { apiFetch } from '../../../lib/api-client'
-import { submitBenchAction, type BenchActionSpec } from '../../../lib/offline/bench-queue'
+import { cancelWaiting, submitBenchAction, type BenchActionSpec } from '../../../lib/offline/bench-queue'
+import { waitingDirection } from './pack-waiting'
 
 export const packKeys = {
   all: ['pack-bench'] as const,
@@ -41,17 +42,22 @@ function useViewAction<V>(request: (v: V) => Promise<PackView>) {
 export const useLookup = () => useViewAction((code: string) => apiFetch(`/pack/lookup?code=${encodeURIComponent(code)}`, PackViewSchema))
 /**
  * A pack bench action through the tablet's queue (lib/offline/): kept first, sent in order, waiting
- * while the network is down (the banner counts it); the view is refreshed once it went through.
+ * while the network is down (the banner counts it, the packing list marks it: `overlayWaiting` in
+ * pack-waiting.ts); the view is refreshed once it went through.
  */
-function useQueuedViewAction<V>(spec: (v: V) => BenchActionSpec & { path: string }) {
+function useQueuedViewAction<V>(spec: (v: V) => BenchActionSpec & { path: string }, takeBack?: (v: V) => Promise<boolean>) {
   const qc = useQueryClient()
   return useMutation({
     mutationFn: async (v: V) => {
+      if (takeBack && (await takeBack(v))) return null
       const outcome = await submitBenchAction(spec(v), PackViewSchema)
       return outcome.sent ? outcome.data : null
     },
     onSuccess: (view: PackView | null) => {
-      if (view) qc.setQueryData(packKeys.order(view.order.id), view)
+      if (!view) return
+      qc.setQueryData(packKeys.order(view.order.id), view)
+      // Read once more through the service worker, so the copy it keeps for a reload with no network has this action too.
+      void qc.invalidateQueries({ queryKey: packKeys.order(view.order.id) })
     },
   })
 }
@@ -65,24 +71,35 @@ export const useScanItem = () =>
     body: { code: v.code },
     target: { orderId: v.orderId },
   }))
+/** Takes back the latest action on this item still waiting on the tablet that goes the given way; true when one was dropped. */
+const takeBack = (orderId: string, item: PackItem, put: 'in' | 'out') => cancelWaiting((a) => a.target.orderId === orderId && waitingDirection(item, a) === put)
+
+/** Ticks a bag or pack into the box; an undo of it still waiting on the tablet is simply taken back. */
 export const useTickItem = () =>
-  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({
-    bench: 'pack',
-    kind: 'pack.tick',
-    label: `Tick ${v.itemKey} as in the box`,
-    path: `/pack/orders/${v.orderId}/tick`,
-    body: { itemKey: v.itemKey },
-    target: { orderId: v.orderId },
-  }))
+  useQueuedViewAction(
+    (v: { orderId: string; item: PackItem }) => ({
+      bench: 'pack',
+      kind: 'pack.tick',
+      label: `Tick ${v.item.key} as in the box`,
+      path: `/pack/orders/${v.orderId}/tick`,
+      body: { itemKey: v.item.key },
+      target: { orderId: v.orderId },
+    }),
+    (v) => takeBack(v.orderId, v.item, 'out'),
+  )
+/** Takes an item out of the box; a scan or tick of it still waiting on the tablet is simply taken back. */
 export const useUndoItem = () =>
-  useQueuedViewAction((v: { orderId: string; itemKey: string }) => ({
-    bench: 'pack',
-    kind: 'pack.undo',
-    label: `Take ${v.itemKey} out of the box`,
-    path: `/pack/orders/${v.orderId}/undo`,
-    body: { itemKey: v.itemKey },
-    target: { orderId: v.orderId },
-  }))
+  useQueuedViewAction(
+    (v: { orderId: string; item: PackItem }) => ({
+      bench: 'pack',
+      kind: 'pack.undo',
+      label: `Take ${v.item.key} out of the box`,
+      path: `/pack/orders/${v.orderId}/undo`,
+      body: { itemKey: v.item.key },
+      target: { orderId: v.orderId },
+    }),
+    (v) => takeBack(v.orderId, v.item, 'in'),
+  )
 export const useApprovePartial = () =>
   useViewAction((v: { orderId: string; note: string }) =>
     apiFetch(`/pack/orders/${v.orderId}/approve-partial`, PackViewSchema, { method: 'POST', body: { note: v.note } }),
