@@ -1,7 +1,12 @@
+import { and, eq } from 'drizzle-orm'
 import type { Page } from 'playwright-core'
 import { beforeEach, describe, expect, inject, it } from 'vitest'
+import { createDb } from '../../server/src/db/client'
+import { buildSteps, kitRevisions, kits } from '../../server/src/db/schema/index'
 import { DEMO_USERS } from '../../server/src/seeds/demo'
 import { browserPerTest, signIn } from '../support/browser'
+import { insertBuildWorkOrder } from '../support/build-factories'
+import { testDatabaseUrl } from '../support/env'
 import { buildNewOrder } from '../support/order-factories'
 
 const baseUrl = inject('baseUrl')
@@ -213,5 +218,44 @@ describe('orders, in Chromium', () => {
     expect(await payment.getByRole('list', { name: 'Payments received' }).getByRole('listitem').count()).toBe(2)
     await page.getByRole('list', { name: 'Timeline' }).getByText(/the order is paid in full/).waitFor()
     await shot('order-payment')
+  })
+
+  it('flags a unit whose measurement at the build bench was out of limits, with the step, value, limits, reason and who', async () => {
+    // A unit of the demo 12-site kit, revision A, cut; its first step measures the tote and sends a tote outside the limits to rework.
+    const { db, pool } = createDb(testDatabaseUrl('e2e'))
+    const made = await (async () => {
+      try {
+        const [rev] = await db
+          .select({ id: kitRevisions.id, kitId: kits.id })
+          .from(kitRevisions)
+          .innerJoin(kits, eq(kits.id, kitRevisions.kitId))
+          .where(and(eq(kits.sku, 'MW-TOTE-12'), eq(kitRevisions.code, 'A')))
+        const wo = await insertBuildWorkOrder(db, rev!.id, rev!.kitId, 'cut')
+        const [step] = await db
+          .select()
+          .from(buildSteps)
+          .where(and(eq(buildSteps.revisionId, rev!.id), eq(buildSteps.position, 1)))
+        return { wo, step: step! }
+      } finally {
+        await pool.end()
+      }
+    })()
+    const wide = Number(made.step.measurementMax) + 0.5
+    const ticked = await page.request.post(`${baseUrl}/api/build/${made.wo.id}/steps/${made.step.id}/tick`, {
+      data: { measurement: wide, reason: 'Tote from the wrong supplier batch' },
+    })
+    expect(ticked.status(), await ticked.text()).toBe(200)
+
+    await page.goto(`${baseUrl}/orders/${made.wo.orderId}`)
+    const row = page.getByRole('table', { name: 'Work orders' }).getByRole('row').filter({ hasText: made.wo.serial })
+    await row.getByRole('link', { name: 'measurement out of limits' }).waitFor()
+    const flags = page.getByRole('region', { name: 'Measurements out of limits (1)' }).getByRole('list', { name: 'Measurements out of limits' })
+    const flag = flags.getByRole('listitem').filter({ hasText: `Unit ${made.wo.serial}` })
+    await flag.getByText(`step 1: ${wide} in`, { exact: false }).waitFor()
+    await flag.getByText(`limits ${Number(made.step.measurementMin)} – ${Number(made.step.measurementMax)} in`, { exact: false }).waitFor()
+    await flag.getByText('in rework', { exact: true }).waitFor()
+    await flag.getByText(`Step 1: ${made.step.text}`).waitFor()
+    await flag.getByText(`“Tote from the wrong supplier batch” — ${planner.name}`, { exact: false }).waitFor()
+    await shot('order-measurement-flags')
   })
 })
