@@ -132,6 +132,10 @@ describe('GET /api/scan/:code finds a return by its label or its number', () => 
     expect(received.status, JSON.stringify(received.body)).toBe(200)
     expect(ReturnSchema.parse(received.body)).toMatchObject({ id: ret.id, status: 'received', received: { code: ret.number } })
     expect(await scan(ret.trackingNumber!, packer)).toMatchObject({ kind: 'return', status: 'received', next: { place: 'office' } })
+    // The serial on the unit itself names its return too, and says where it goes.
+    const bySerial = await scan(wo.serial, packer)
+    expect(bySerial).toMatchObject({ kind: 'work_order', returnId: ret.id, next: { place: 'office' } })
+    expect(bySerial.title).toMatch(new RegExp(`, returned on ${ret.number}$`))
   })
 
   it('tells a bench that does not open returns to take the parcel to the pack bench, without the ids to open it', async () => {
@@ -147,6 +151,7 @@ describe('GET /api/scan/:code finds a return by its label or its number', () => 
     })
     // The reason the customer gave is the office's and the pack bench's to read.
     expect(result.title).toBe(`Return ${ret.number} of unit ${wo.serial} (${tote.kit.name})`)
+    expect(await scan(wo.serial)).toMatchObject({ kind: 'work_order', returnId: null, next: { place: 'pack' } })
     // And the return itself stays closed to that bench.
     expect((await cutter.get(`/api/returns/${ret.id}`)).status).toBe(403)
   })

@@ -50,7 +50,7 @@ export function Component() {
           </p>
           {result.returnId && (
             <Link className="mr-6 inline-block text-lg font-bold text-brand-700 underline" to={paths.returnDetail.href(result.returnId)}>
-              Open return {result.code}
+              {result.kind === 'return' ? `Open return ${result.code}` : `Open the return of ${result.code}`}
             </Link>
           )}
           {result.workOrderSerial && (

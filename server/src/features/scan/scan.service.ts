@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm'
+import { desc, eq, sql } from 'drizzle-orm'
 import type { Role } from '@kitwright/shared/roles'
 import type { ScanResult } from '@kitwright/shared/scan'
 import { formatLength } from '@kitwright/shared/domain/units'
@@ -132,15 +132,22 @@ export async function resolveScan(db: Db, code: string, role: Role): Promise<Sca
     }
     case 'work_order': {
       const unit = (await unitById(db, found.id))!
+      // A shipped unit in someone's hands has come back: where its latest return says it goes.
+      const [ret] =
+        unit.wo.status === 'shipped'
+          ? await db.select().from(returns).where(eq(returns.workOrderId, unit.wo.id)).orderBy(desc(returns.openedAt)).limit(1)
+          : []
+      const reader = RETURN_READERS.includes(role)
       return {
         ...base,
         kind: 'work_order',
         code: unit.wo.serial,
-        title: `Unit ${unit.wo.serial}: ${unit.kitName}, rev ${unit.revCode}${unit.binCode ? `, in bin ${unit.binCode}` : ''}`,
+        title: `Unit ${unit.wo.serial}: ${unit.kitName}, rev ${unit.revCode}${unit.binCode ? `, in bin ${unit.binCode}` : ''}${ret ? `, returned on ${ret.number}` : ''}`,
         status: unit.wo.status,
-        next: nextForUnit(unit.wo.status),
+        next: ret ? nextForReturn(ret, role) : nextForUnit(unit.wo.status),
         workOrderSerial: unit.wo.serial,
         orderId: unit.wo.orderId,
+        returnId: ret && reader ? ret.id : null,
       }
     }
     case 'order': {
