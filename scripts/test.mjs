@@ -1,7 +1,7 @@
 // `npm test`: the same set-up as `npm start` (dependencies, PostgreSQL, stand-ins, Chromium), then
 // the whole suite in one vitest run: unit, API over the real database, browser end-to-end.
 // Extra arguments go to vitest, e.g. `npm test -- --project unit`.
-import { existsSync, rmSync } from 'node:fs'
+import { existsSync, readdirSync, rmSync } from 'node:fs'
 import path from 'node:path'
 import { step } from './lib/log.mjs'
 import { dataDir, ensureAptPackage, ensureNodeModules, root } from './lib/system.mjs'
@@ -19,6 +19,8 @@ stopOnSignals()
 const pg = startPostgres(localPorts.postgres)
 // Stopped at the end only when no other run (a second `npm test` beside this one) still has databases in it.
 if (pg.startedHere) onCleanup(async () => ((await otherRunsUsing(pg.url('postgres'))) ? undefined : pg.stop()))
+
+await dropDeadRuns(pg.url('postgres'))
 
 // Every run gets its own databases, stand-in ports and folders, so two runs can share the cluster.
 const runId = `r${process.pid}`
@@ -63,31 +65,57 @@ const vitest = await startChild('vitest', path.join(root, 'node_modules/.bin/vit
 const code = await new Promise((resolve) => vitest.once('exit', (c) => resolve(c ?? 1)))
 await stopAll(code)
 
-async function otherRunsUsing(adminUrl) {
+/** Runs `fn` with a client on the cluster's admin database; a failure is reported with `what` and answered with `fallback`. */
+async function withAdmin(adminUrl, what, fallback, fn) {
   const { default: pgModule } = await import('pg')
   const client = new pgModule.Client({ connectionString: adminUrl })
   try {
     await client.connect()
-    const { rows } = await client.query("select count(*)::int as n from pg_database where datname like 'kitwright_test_r%'")
-    return rows[0].n > 0
+    return await fn(client)
   } catch (err) {
-    console.error(`[kitwright] could not tell whether other test runs use PostgreSQL: ${err.message}`)
-    return false
+    console.error(`[kitwright] could not ${what}: ${err.message}`)
+    return fallback
   } finally {
     await client.end().catch(() => {})
   }
 }
 
-async function dropRunDatabases(adminUrl, prefix) {
-  const { default: pgModule } = await import('pg')
-  const client = new pgModule.Client({ connectionString: adminUrl })
+/** Every run's databases are named kitwright_test_r<pid of its npm test>_…: the run is alive while that process is. */
+async function runDatabases(client) {
+  const { rows } = await client.query("select datname from pg_database where datname like 'kitwright_test_r%'")
+  return rows.map(({ datname }) => ({ datname, pid: Number(/^kitwright_test_r(\d+)_/.exec(datname)?.[1]) }))
+}
+function isAlive(pid) {
   try {
-    await client.connect()
+    process.kill(pid, 0)
+    return true
+  } catch (err) {
+    return err.code === 'EPERM'
+  }
+}
+
+async function otherRunsUsing(adminUrl) {
+  return withAdmin(adminUrl, 'tell whether other test runs use PostgreSQL', false, async (client) =>
+    (await runDatabases(client)).some(({ pid }) => pid !== process.pid && isAlive(pid)),
+  )
+}
+
+/** Databases and folders left by runs that were killed (no clean-up ran): they would keep the cluster running forever. */
+async function dropDeadRuns(adminUrl) {
+  await withAdmin(adminUrl, 'drop the databases of finished test runs', undefined, async (client) => {
+    const dead = (await runDatabases(client)).filter(({ pid }) => pid !== process.pid && !isAlive(pid))
+    for (const { datname } of dead) await client.query(`drop database if exists "${datname}" with (force)`)
+  })
+  const runsDir = path.join(dataDir, 'test')
+  for (const name of existsSync(runsDir) ? readdirSync(runsDir) : []) {
+    const pid = Number(/^r(\d+)$/.exec(name)?.[1])
+    if (pid && pid !== process.pid && !isAlive(pid)) rmSync(path.join(runsDir, name), { recursive: true, force: true })
+  }
+}
+
+async function dropRunDatabases(adminUrl, prefix) {
+  await withAdmin(adminUrl, 'drop the test databases', undefined, async (client) => {
     const { rows } = await client.query('select datname from pg_database where datname like $1', [`${prefix}%`])
     for (const { datname } of rows) await client.query(`drop database if exists "${datname}" with (force)`)
-  } catch (err) {
-    console.error(`[kitwright] could not drop the test databases: ${err.message}`)
-  } finally {
-    await client.end().catch(() => {})
-  }
+  })
 }
