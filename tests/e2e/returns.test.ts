@@ -148,6 +148,8 @@ describe('returns in Chromium', () => {
     await unitForm.getByRole('button', { name: 'Record: Scrapped' }).click()
     await unitForm.getByRole('alert').getByText(/^Say why the unit is scrapped/).waitFor()
     await unitForm.getByLabel('Why it is scrapped').fill('Tote split along the rim')
+    // Typing a reason clears the refusal, which was about the empty field.
+    await unitForm.getByRole('alert').waitFor({ state: 'detached' })
     await planner.screenshot({ path: path.join(shots, 'return-dispose.png'), fullPage: true })
     // A double tap records it once.
     await unitForm.getByRole('button', { name: 'Record: Scrapped' }).dblclick()

@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { useState } from 'react'
 import { Link, useParams } from 'react-router-dom'
+import { formatDateTime } from '@kitwright/shared/dates'
 import { RETURN_DISPOSITION_LABELS, RETURN_LABEL_STATUS_LABELS, RETURN_STATUS_LABELS, WORK_ORDER_STATUS_LABELS, wordFor } from '@kitwright/shared/status-words'
 import { Button } from '../../../components/ui/button'
 import { Field, Select } from '../../../components/ui/field'
@@ -12,7 +13,6 @@ import { DecisionForm } from '../../../features/returns/components/decision-form
 import { DispositionForm } from '../../../features/returns/components/disposition-form'
 import { ReturnPhotos } from '../../../features/returns/components/return-photos'
 
-const when = (iso: string) => new Date(iso).toLocaleString()
 /** A sentence ends with one full stop, whether or not its last words brought their own. */
 const sentence = (text: string) => (/[.!?]$/.test(text) ? `${text} ` : `${text}. `)
 const money = (cents: number, currency: string) => `${(cents / 100).toFixed(2)} ${currency}`
@@ -63,12 +63,12 @@ export function Component() {
           )}
           <dt className="font-bold">Opened</dt>
           <dd>
-            {when(ret.openedAt)} by {ret.openedBy.name}
+            {formatDateTime(ret.openedAt)} by {ret.openedBy.name}
           </dd>
           <dt className="font-bold">Received</dt>
           <dd>
             {ret.received
-              ? `${when(ret.received.at)} by ${ret.received.by.name}${ret.received.code ? ` (scanned ${ret.received.code})` : ''}`
+              ? `${formatDateTime(ret.received.at)} by ${ret.received.by.name}${ret.received.code ? ` (scanned ${ret.received.code})` : ''}`
               : 'Not yet: the pack bench scans the parcel in on the Returns page'}
           </dd>
         </dl>
@@ -132,7 +132,7 @@ export function Component() {
         {d && (
           <div className="space-y-2 text-lg">
             <p>
-              <strong>{RETURN_STATUS_LABELS[ret.status]}</strong> on {when(d.at)} by {d.by.name}
+              <strong>{RETURN_STATUS_LABELS[ret.status]}</strong> on {formatDateTime(d.at)} by {d.by.name}
               {d.note ? `: ${d.note}` : ''}
             </p>
             {d.kind === 'repair' && (
@@ -160,7 +160,7 @@ export function Component() {
         <Section title="The returned unit">
           {ret.disposition ? (
             <p className="text-lg">
-              <strong>{RETURN_DISPOSITION_LABELS[ret.disposition.kind]}</strong> on {when(ret.disposition.at)} by {ret.disposition.by.name}
+              <strong>{RETURN_DISPOSITION_LABELS[ret.disposition.kind]}</strong> on {formatDateTime(ret.disposition.at)} by {ret.disposition.by.name}
               {ret.disposition.note ? `: ${ret.disposition.note}` : ''}
               {ret.disposition.kind === 'spare' ? ` (kept whole on the spares shelf as ${ret.unit.serial})` : ''}
             </p>

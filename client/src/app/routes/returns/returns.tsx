@@ -1,6 +1,7 @@
 import { useQuery } from '@tanstack/react-query'
 import { useState } from 'react'
 import { useNavigate } from 'react-router-dom'
+import { formatDateOf } from '@kitwright/shared/dates'
 import type { ReturnLookup } from '@kitwright/shared/returns'
 import { Button } from '../../../components/ui/button'
 import { ScanField } from '../../../components/ui/scan-field'
@@ -69,7 +70,7 @@ export function Component() {
               <li key={u.workOrderId} aria-label={`Unit ${u.serial}`} className="space-y-3 rounded-md border border-stone-300 p-4">
                 <p className="text-xl">
                   <strong>{u.serial}</strong> · {u.kitName} ({u.kitSku} rev {u.revisionCode}) · order {u.orderNumber}
-                  {u.shippedAt ? ` · shipped ${new Date(u.shippedAt).toLocaleDateString()}` : ''}
+                  {u.shippedAt ? ` · shipped ${formatDateOf(u.shippedAt)}` : ''}
                 </p>
                 {u.openReturnId ? (
                   <Button size="bench" variant="secondary" onClick={() => void navigate(paths.returnDetail.href(u.openReturnId!))}>

@@ -33,7 +33,10 @@ export function DispositionForm({ ret }: { ret: Return }) {
       <p className="text-lg">Unit {ret.unit.serial} is back in the shop and the customer no longer gets it: record what becomes of it.</p>
       <div role="radiogroup" aria-label="What becomes of the unit" className="flex flex-wrap gap-3">
         {(['spare', 'scrapped'] as const).map((d) => (
-          <Button key={d} size="bench" role="radio" aria-checked={choice === d} variant={choice === d ? 'primary' : 'secondary'} onClick={() => setChoice(d)}>
+          <Button key={d} size="bench" role="radio" aria-checked={choice === d} variant={choice === d ? 'primary' : 'secondary'} onClick={() => {
+              setChoice(d)
+              if (dispose.isError) dispose.reset()
+            }}>
             {RETURN_DISPOSITION_LABELS[d]}
           </Button>
         ))}
@@ -41,7 +44,11 @@ export function DispositionForm({ ret }: { ret: Return }) {
       {choice && <p className="text-lg">{WHAT[choice]}</p>}
       {choice && (
         <Field label={choice === 'scrapped' ? 'Why it is scrapped' : 'Note (optional: which shelf, what it lacks)'} error={fields.note}>
-          <Input value={note} onChange={(e) => setNote(e.target.value)} className="h-14 text-lg" aria-invalid={fields.note ? true : undefined} />
+          <Input value={note} onChange={(e) => {
+              setNote(e.target.value)
+              // The refusal was about the old text: once it changes, the message would mislead.
+              if (dispose.isError) dispose.reset()
+            }} className="h-14 text-lg" aria-invalid={fields.note ? true : undefined} />
         </Field>
       )}
       {dispose.isError && Object.keys(fields).length === 0 && (

@@ -1,4 +1,5 @@
 import { Link } from 'react-router-dom'
+import { formatDateOf } from '@kitwright/shared/dates'
 import type { ReturnListRow } from '@kitwright/shared/returns'
 import { RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
 
@@ -34,7 +35,7 @@ export function ReturnsTable({ rows, hrefOf }: { rows: ReturnListRow[]; hrefOf: 
               </td>
               <td className="p-2">{r.reason}</td>
               <td className="p-2">{r.orderNumber}</td>
-              <td className="p-2">{new Date(r.openedAt).toLocaleDateString()}</td>
+              <td className="p-2">{formatDateOf(r.openedAt)}</td>
             </tr>
           ))}
         </tbody>

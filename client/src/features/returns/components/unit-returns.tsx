@@ -1,10 +1,10 @@
 import { useQuery } from '@tanstack/react-query'
 import { Link } from 'react-router-dom'
+import { formatDateTime } from '@kitwright/shared/dates'
 import { RETURN_DISPOSITION_LABELS, RETURN_STATUS_LABELS } from '@kitwright/shared/status-words'
 import { Section } from '../../../components/ui/section'
 import { unitReturnsOptions } from '../api/return-queries'
 
-const when = (iso: string) => new Date(iso).toLocaleString()
 
 /**
  * The unit's returns, in its build record beside the original build: why it came back, when it was
@@ -24,9 +24,9 @@ export function UnitReturns({ serial, returnHref }: { serial: string; returnHref
               {r.notes ? ` (${r.notes})` : ''}
             </p>
             <p className="text-base text-stone-700">
-              Opened {when(r.openedAt)}
-              {r.receivedAt ? ` · received ${when(r.receivedAt)}` : ''}
-              {r.decidedAt ? ` · decided ${when(r.decidedAt)}` : ''}
+              Opened {formatDateTime(r.openedAt)}
+              {r.receivedAt ? ` · received ${formatDateTime(r.receivedAt)}` : ''}
+              {r.decidedAt ? ` · decided ${formatDateTime(r.decidedAt)}` : ''}
               {r.decisionNote ? `: ${r.decisionNote}` : ''}
               {r.replacementSerial ? ` · replaced by ${r.replacementSerial}` : ''}
               {r.refundCents !== null ? ` · refund noted ${(r.refundCents / 100).toFixed(2)}` : ''}
@@ -34,7 +34,7 @@ export function UnitReturns({ serial, returnHref }: { serial: string; returnHref
             {r.disposition && (
               <p className="text-base text-stone-700">
                 {RETURN_DISPOSITION_LABELS[r.disposition]}
-                {r.disposedAt ? ` ${when(r.disposedAt)}` : ''}
+                {r.disposedAt ? ` ${formatDateTime(r.disposedAt)}` : ''}
                 {r.dispositionNote ? `: ${r.dispositionNote}` : ''}
               </p>
             )}

@@ -1,4 +1,5 @@
 import type { PartUnitWeight } from '@kitwright/shared/bag-weights'
+import { formatDateTime } from '@kitwright/shared/dates'
 import { formatGrams, formatOunces } from '@kitwright/shared/domain/bag-weight'
 import { Button } from '../../../components/ui/button'
 import { SampleForm } from './sample-form'
@@ -22,7 +23,7 @@ export function UnitWeightsList({ parts, editing, onEdit, canEdit }: { parts: Pa
                     {p.current.packedLoose ? ' · goes loose in the hardware bag' : ''}
                   </p>
                   <p className="text-sm text-stone-600">
-                    {p.current.division} · weighed by {p.current.recordedBy.name}, {new Date(p.current.recordedAt).toLocaleString()}
+                    {p.current.division} · weighed by {p.current.recordedBy.name}, {formatDateTime(p.current.recordedAt)}
                   </p>
                 </>
               ) : (
