@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { PostalAddressSchema } from './address'
 import { WorkOrderStatusSchema } from './orders'
 
 const uuid = z.string().uuid('Not a valid id')
@@ -123,7 +124,7 @@ export const RecallUnitSchema = z.object({
   shippedAt: z.string().nullable(),
   trackingNumber: z.string().nullable(),
   /** Where it went (the order's ship-to address). */
-  shipTo: z.object({ name: z.string(), line1: z.string(), line2: z.string().nullable(), city: z.string(), region: z.string().nullable(), postalCode: z.string(), country: z.string() }),
+  shipTo: PostalAddressSchema,
   /** When this customer was told of the recall of this lot, null until then. */
   notifiedAt: z.string().nullable(),
 })

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { PostalAddressSchema } from './address'
 import { EmailSchema } from './auth'
 import { countryCodeSchema } from './customs'
 import { MeasurementFlagSchema } from './measurement-flags'
@@ -232,15 +233,7 @@ export type OrderWorkOrder = z.infer<typeof OrderWorkOrderSchema>
 /** An order with everything about it: lines with kits, customer, ship-to, timeline, work orders. */
 export const OrderDetailSchema = OrderSchema.extend({
   customer: z.object({ name: z.string(), email: z.string(), phone: z.string().nullable() }),
-  shipTo: z.object({
-    name: z.string(),
-    line1: z.string(),
-    line2: z.string().nullable(),
-    city: z.string(),
-    region: z.string().nullable(),
-    postalCode: z.string(),
-    country: z.string(),
-  }),
+  shipTo: PostalAddressSchema,
   note: z.string().nullable(),
   releasedAt: z.string().nullable(),
   shippedAt: z.string().nullable(),

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { PostalAddressSchema } from './address'
 import { OrderStatusSchema, WorkOrderStatusSchema } from './orders'
 import { PACK_CHECK_METHODS, SHIPMENT_STATUSES } from './pack-status'
 
@@ -149,7 +150,7 @@ export const PackViewSchema = z.object({
     number: z.string(),
     status: OrderStatusSchema,
     customerName: z.string(),
-    shipTo: z.object({ name: z.string(), line1: z.string(), line2: z.string().nullable(), city: z.string(), region: z.string().nullable(), postalCode: z.string(), country: z.string() }),
+    shipTo: PostalAddressSchema,
   }),
   shipment: z
     .object({

@@ -1,5 +1,6 @@
 import { randomUUID } from 'node:crypto'
 import { and, asc, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
+import { LabelAddressSchema } from '@kitwright/shared/address'
 import { LENGTH_BASE_PER_MM } from '@kitwright/shared/domain/units'
 import { DEFAULT_RETURN_REASONS } from '@kitwright/shared/returns-status'
 import type { BuyReturnLabel, DecideReturnSchema, DisposeReturnSchema, OpenReturnSchema, ReturnLookup, ReturnReasons, UpdateReturnReasonsSchema } from '@kitwright/shared/returns'
@@ -206,22 +207,12 @@ export async function openReturn(db: Db, input: OpenReturn, actor: SessionUser):
 
 // ── The return label (bought exactly once) ────────────
 
-const AddressJson = z.object({
-  name: z.string(),
-  line1: z.string(),
-  line2: z.string().nullable(),
-  city: z.string(),
-  region: z.string().nullable(),
-  postalCode: z.string(),
-  country: z.string(),
-  phone: z.string().nullish(),
-})
 const ReturnLabelRequestSchema = z.object({
   carrier: z.string(),
   service: z.string(),
   request: z.object({
-    from: AddressJson,
-    to: AddressJson,
+    from: LabelAddressSchema,
+    to: LabelAddressSchema,
     parcels: z.array(z.object({ weightGrams: z.number(), lengthMm: z.number(), widthMm: z.number(), heightMm: z.number() })),
     reference: z.string(),
     isReturn: z.boolean(),

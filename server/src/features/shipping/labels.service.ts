@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import { and, desc, eq, inArray } from 'drizzle-orm'
 import { z } from 'zod'
+import { LabelAddressSchema } from '@kitwright/shared/address'
 import type { BuyLabel, PackView, VoidLabel } from '@kitwright/shared/pack'
 import { sscc } from '@kitwright/shared/domain/gs1'
 import { carrierEvents, orders, parcels, shipments, shippingLabels, shopSettings, type ShipmentRow } from '../../db/schema/index'
@@ -15,24 +16,14 @@ import type { Carrier, CarrierLabel, ShipmentRequest, TrackingUpdate } from './c
 
 export type LabelDeps = Pick<Deps, 'db' | 'pool' | 'carrier' | 'logger'>
 
-const AddressJson = z.object({
-  name: z.string(),
-  line1: z.string(),
-  line2: z.string().nullable(),
-  city: z.string(),
-  region: z.string().nullable(),
-  postalCode: z.string(),
-  country: z.string(),
-  phone: z.string().nullish(),
-})
 
 /** What a purchase under way needs to be finished after a crash: kept on the shipment as `labelRequest`. */
 const LabelRequestSchema = z.object({
   carrier: z.string(),
   service: z.string(),
   request: z.object({
-    from: AddressJson,
-    to: AddressJson,
+    from: LabelAddressSchema,
+    to: LabelAddressSchema,
     parcels: z.array(z.object({ weightGrams: z.number(), lengthMm: z.number(), widthMm: z.number(), heightMm: z.number() })),
     reference: z.string(),
   }),
