@@ -325,7 +325,7 @@ describe('a return through replace', () => {
     expect(audits).toHaveLength(1)
     // Once recorded, a different disposition is refused and changes nothing.
     const changed = error(await admin.post(`/api/returns/${opened.id}/disposition`).send({ disposition: 'scrapped', note: 'Changed our minds' }), 409)
-    expect(changed.message).toMatch(new RegExp(`^Unit ${wo.serial} of return ${opened.number} is already recorded as back to stock as a spare \\(.+ UTC\\); it is recorded once$`))
+    expect(changed.message).toMatch(new RegExp(`^Unit ${wo.serial} of return ${opened.number} is already recorded as back to stock as a spare \\([A-Z][a-z]{2} \\d{1,2}, \\d{4}, \\d{1,2}:\\d{2} [AP]M UTC\\); it is recorded once$`))
     const [row] = await t.db.select().from(returns).where(eq(returns.id, opened.id))
     expect(row).toMatchObject({ disposition: 'spare', dispositionNote: 'Spares shelf S1; tote scuffed' })
     // The stock ledger counts parts, not finished units: keeping the unit as a spare moves no stock.

@@ -1,6 +1,7 @@
 import { randomUUID } from 'node:crypto'
 import { and, asc, desc, eq, inArray, isNull, sql, type SQL } from 'drizzle-orm'
 import { LabelAddressSchema } from '@kitwright/shared/address'
+import { formatDateTime } from '@kitwright/shared/dates'
 import { LENGTH_BASE_PER_MM } from '@kitwright/shared/domain/units'
 import { DEFAULT_RETURN_REASONS } from '@kitwright/shared/returns-status'
 import type { BuyReturnLabel, DecideReturnSchema, DisposeReturnSchema, OpenReturnSchema, ReturnLookup, ReturnReasons, UpdateReturnReasonsSchema } from '@kitwright/shared/returns'
@@ -37,6 +38,9 @@ import { shipFromOf } from '../settings/settings.service'
 import type { Carrier, CarrierLabel } from '../shipping/carrier'
 import { payForLabel, withLabelLock, type LabelDeps } from '../shipping/labels.service'
 import { releaseOrder } from '../work-orders/release.service'
+
+/** A moment in a message the way the rest of Kitwright writes it; messages come from the server, so in UTC and said so. */
+const momentOf = (d: Date) => `${formatDateTime(d, 'UTC')} UTC`
 
 type OpenReturn = z.infer<typeof OpenReturnSchema>
 type DecideReturn = z.infer<typeof DecideReturnSchema>
@@ -399,7 +403,7 @@ export async function receiveReturn(db: Db, code: string, actor: SessionUser): P
     const ret = (await lockReturn(tx, candidate.id))!
     if (ret.status !== 'awaiting_parcel') {
       throw new Conflict(
-        `Return ${ret.number} was already received${ret.receivedAt ? ` on ${ret.receivedAt.toISOString().slice(0, 16).replace('T', ' ')} UTC` : ''}; nothing to do`,
+        `Return ${ret.number} was already received${ret.receivedAt ? ` on ${momentOf(ret.receivedAt)}` : ''}; nothing to do`,
       )
     }
     const [updated] = await tx
@@ -627,8 +631,6 @@ export async function decideReturn(db: Db, returnId: string, input: DecideReturn
 
 // ── What becomes of the returned unit ────────────
 
-const dayOf = (d: Date) => `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC`
-
 /**
  * Records, once, what becomes of a unit that came back and was replaced or refunded: back to stock as
  * a spare (kept whole on the spares shelf under its serial) or scrapped (with the reason). The stock
@@ -647,7 +649,7 @@ export async function disposeReturnedUnit(db: Db, returnId: string, input: Dispo
       const same = ret.disposition === input.disposition && (ret.dispositionNote ?? null) === (input.note ?? null)
       if (same) return { ret, recorded: false }
       throw new Conflict(
-        `Unit ${serial} of return ${ret.number} is already recorded as ${RETURN_DISPOSITION_LABELS[ret.disposition].toLowerCase()}${ret.disposedAt ? ` (${dayOf(ret.disposedAt)})` : ''}; it is recorded once`,
+        `Unit ${serial} of return ${ret.number} is already recorded as ${RETURN_DISPOSITION_LABELS[ret.disposition].toLowerCase()}${ret.disposedAt ? ` (${momentOf(ret.disposedAt)})` : ''}; it is recorded once`,
       )
     }
     if (ret.status === 'awaiting_parcel')
