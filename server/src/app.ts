@@ -53,12 +53,14 @@ export function createApp(deps: Deps) {
   // tablet to an https:// address nothing answers (tests/api/served-headers.test.ts).
   const directives = { ...photoStoreDirectives(deps.storage), fontSrc: ["'self'"], styleSrc: ["'self'", "'unsafe-inline'"] }
   const overHttps = helmet({ contentSecurityPolicy: { directives } })
-  // Cross-Origin-Opener-Policy is honoured only on a trustworthy origin; over plain HTTP to a shop
-  // address Chromium ignores it and logs an error on every page, so it is sent over HTTPS only.
+  // Cross-Origin-Opener-Policy and Origin-Agent-Cluster are honoured only on a trustworthy origin;
+  // over plain HTTP to a shop address Chromium ignores them and logs an error or a warning on every
+  // page, so they are sent over HTTPS only.
   const overHttp = helmet({
     contentSecurityPolicy: { directives: { ...directives, upgradeInsecureRequests: null } },
     strictTransportSecurity: false,
     crossOriginOpenerPolicy: false,
+    originAgentCluster: false,
   })
   app.use((req, res, next) => (req.secure ? overHttps : overHttp)(req, res, next))
   app.use(requestLogger(deps.logger))

@@ -106,6 +106,7 @@ describe('security headers', () => {
       expect(res.headers['strict-transport-security'], what).toBeUndefined()
       expect(res.headers['referrer-policy'], what).toBe('no-referrer')
       expect(res.headers['cross-origin-opener-policy'], what).toBeUndefined() // sent over HTTPS only
+      expect(res.headers['origin-agent-cluster'], what).toBeUndefined() // likewise
       expect(res.headers['cross-origin-resource-policy'], what).toBe('same-origin')
       expect(res.headers['x-powered-by'], what).toBeUndefined()
     }

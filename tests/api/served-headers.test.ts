@@ -63,8 +63,10 @@ describe('over plain HTTP (a tablet on the shop network, or this computer)', () 
       expect(csp['img-src'], url).toEqual(["'self'", PUBLIC_STORE])
       expect(csp['default-src'], url).toEqual(["'self'"])
       expect(res.headers['x-content-type-options'], url).toBe('nosniff')
-      // Ignored by browsers on an http:// shop address, where Chromium logs an error for it on every page.
+      // Ignored by browsers on an http:// shop address, where Chromium logs an error (COOP) or a warning
+      // (Origin-Agent-Cluster) for them on every page.
       expect(res.headers['cross-origin-opener-policy'], url).toBeUndefined()
+      expect(res.headers['origin-agent-cluster'], url).toBeUndefined()
     }
   })
 
@@ -96,6 +98,7 @@ describe('over HTTPS, served by Kitwright itself (npm start -- --https)', () => 
     expect(res.headers['strict-transport-security']).toMatch(/^max-age=\d{7,}; includeSubDomains$/)
     expect(directives(res)['upgrade-insecure-requests']).toEqual([])
     expect(res.headers['cross-origin-opener-policy']).toBe('same-origin')
+    expect(res.headers['origin-agent-cluster']).toBe('?1')
     expect(directives(res)['connect-src']).toEqual(["'self'", new URL(testStorageConfig().endpoint!).origin])
   })
 

@@ -66,11 +66,11 @@ function photoPng(): Buffer {
   return PNG.sync.write(png)
 }
 
-/** Everything the page's console said was an error, and every request that failed (blocked, refused, unreachable). */
+/** Everything the page's console said was an error or a warning, and every request that failed (blocked, refused, unreachable). */
 function watchForTrouble(page: Page) {
   const trouble: string[] = []
   page.on('console', (msg) => {
-    if (msg.type() !== 'error') return
+    if (msg.type() !== 'error' && msg.type() !== 'warning') return
     // The app asks who is signed in on a cold load; the 401 before sign-in is expected (issue 13, item 6).
     if (/status of 401/.test(msg.text()) && msg.location().url.endsWith('/api/auth/me')) return
     trouble.push(`console: ${msg.text()} (${msg.location().url})`)
