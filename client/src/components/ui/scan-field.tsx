@@ -1,5 +1,6 @@
 import { useEffect, useRef, useState } from 'react'
 import { cn } from '../../lib/cn'
+import { takeEarlyScans } from '../../lib/early-scans'
 import { CameraScanner } from './camera-scanner'
 import { useScanQueue, type ScanHandler } from './use-scan-queue'
 
@@ -29,6 +30,10 @@ export function ScanField({ label, onScan, className }: { label: string; onScan:
     const input = ref.current
     if (!input) return
     input.focus()
+    // Codes scanned before the field was there to take them: the page was loading (lib/early-scans.ts).
+    const early = takeEarlyScans()
+    for (const code of early.codes) scans.enqueue(code)
+    if (early.partial) setValue(early.partial)
     let timer: ReturnType<typeof setTimeout> | undefined
     // Give the tap or the form's own handler a moment to land; without scrolling, so a tap lower
     // on the page does not jump it to the top mid-tap.
@@ -52,12 +57,14 @@ export function ScanField({ label, onScan, className }: { label: string; onScan:
     document.addEventListener('submit', onSubmit)
     document.addEventListener('keydown', onKeyDown, true)
     return () => {
+      early.release()
       clearTimeout(timer)
       input.removeEventListener('blur', onBlur)
       document.removeEventListener('click', onBlur)
       document.removeEventListener('submit', onSubmit)
       document.removeEventListener('keydown', onKeyDown, true)
     }
+    // Once, as the field appears; `enqueue` never changes.
   }, [])
   // Each handled scan may change the page around the field: take focus back once it settles.
   useEffect(() => {
